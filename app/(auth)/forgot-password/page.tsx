@@ -1,0 +1,21 @@
+import Link from "next/link";
+import { getTranslations } from "next-intl/server";
+import { ForgotPasswordForm } from "./components";
+
+export async function generateMetadata() {
+  return { title: (await getTranslations("auth"))("forgotTitle") };
+}
+
+export default async function ForgotPasswordPage() {
+  const t = await getTranslations("auth");
+  return (
+    <>
+      <h1 className="text-2xl font-bold">{t("forgotTitle")}</h1>
+      <p className="mt-1 mb-5 text-ink-soft">{t("forgotIntro")}</p>
+      <ForgotPasswordForm />
+      <p className="mt-5 text-sm">
+        <Link href="/sign-in">{t("backToSignIn")}</Link>
+      </p>
+    </>
+  );
+}

@@ -1,0 +1,30 @@
+import Link from "next/link";
+import { getTranslations } from "next-intl/server";
+import { findLinkHolder } from "@/server/users";
+import { SetPasswordForm } from "./components";
+
+export async function generateMetadata() {
+  return { title: (await getTranslations("auth"))("setTitle") };
+}
+
+export default async function SetPasswordPage({ params }: { params: Promise<{ token: string }> }) {
+  const { token } = await params;
+  const t = await getTranslations("auth");
+  const holder = findLinkHolder(token);
+  return (
+    <>
+      <h1 className="text-2xl font-bold">{t("setTitle")}</h1>
+      {holder ? (
+        <>
+          <p className="mt-1 mb-5 text-ink-soft">{t("setIntro", { name: holder.name, email: holder.email })}</p>
+          <SetPasswordForm token={token} email={holder.email} />
+        </>
+      ) : (
+        <p className="notice-warn mt-4">{t("linkInvalid")}</p>
+      )}
+      <p className="mt-5 text-sm">
+        <Link href="/sign-in">{t("backToSignIn")}</Link>
+      </p>
+    </>
+  );
+}

@@ -1,0 +1,32 @@
+"use server";
+
+import { cookies } from "next/headers";
+import { redirect } from "next/navigation";
+import { HOME_FOR_ROLE } from "@/domain/permissions";
+import { formValues, type FormState } from "@/lib/form-state";
+import { signInSchema } from "@/lib/validation/auth";
+import { actionClientKey, guardAction } from "@/server/action";
+import { lucia } from "@/server/auth";
+import { AppError } from "@/server/errors";
+import { requestIsHttps } from "@/server/session";
+import { signIn } from "@/server/users";
+
+export async function signInAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const values = formValues(formData);
+  let home = "/";
+  const state = await guardAction({ email: values.email ?? "" }, async (t) => {
+    const input = signInSchema.parse(values);
+    try {
+      const { user, sessionId } = await signIn(input.email, input.password, await actionClientKey());
+      const cookie = lucia().createSessionCookie(sessionId);
+      (await cookies()).set(cookie.name, cookie.value, { ...cookie.attributes, secure: await requestIsHttps() });
+      home = HOME_FOR_ROLE[user.role];
+    } catch (error) {
+      if (error instanceof AppError && error.code === "unauthenticated") return { message: t("auth.wrongCredentials"), values: { email: input.email } };
+      if (error instanceof AppError && error.code === "rate_limited") return { message: t("auth.throttled"), values: { email: input.email } };
+      throw error;
+    }
+  });
+  if (state.ok) redirect(home);
+  return state;
+}

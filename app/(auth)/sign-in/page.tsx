@@ -1,0 +1,27 @@
+import Link from "next/link";
+import { redirect } from "next/navigation";
+import { getTranslations } from "next-intl/server";
+import { HOME_FOR_ROLE } from "@/domain/permissions";
+import { currentUser } from "@/server/session";
+import { SignInForm } from "./components";
+
+export async function generateMetadata() {
+  const t = await getTranslations("auth");
+  return { title: t("signInTitle") };
+}
+
+export default async function SignInPage() {
+  const user = await currentUser();
+  if (user) redirect(HOME_FOR_ROLE[user.role]);
+  const t = await getTranslations("auth");
+  return (
+    <>
+      <h1 className="text-2xl font-bold">{t("signInTitle")}</h1>
+      <p className="mt-1 mb-5 text-ink-soft">{t("signInIntro")}</p>
+      <SignInForm />
+      <p className="mt-5 text-sm">
+        <Link href="/forgot-password">{t("forgot")}</Link>
+      </p>
+    </>
+  );
+}

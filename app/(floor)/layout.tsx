@@ -1,0 +1,28 @@
+import Link from "next/link";
+import { redirect } from "next/navigation";
+import { getTranslations } from "next-intl/server";
+import { BrandMark } from "@/components/brand-mark";
+import { UserBar } from "@/components/user-bar";
+import { currentUser } from "@/server/session";
+import { signOutAction } from "../(auth)/sign-out/actions";
+
+/** Phone first: large type, high contrast, every target at least 48 px for gloved hands. */
+export default async function FloorLayout({ children }: { children: React.ReactNode }) {
+  const user = await currentUser();
+  if (!user) redirect("/sign-in");
+  const t = await getTranslations();
+  return (
+    <div className="min-h-dvh bg-ink text-paper">
+      <header className="flex items-center justify-between gap-3 border-b-4 border-koji px-4 py-3">
+        <Link href="/scan" className="flex min-h-12 items-center gap-2 text-paper no-underline">
+          <BrandMark className="h-10 w-10" />
+          <span className="font-[family-name:var(--font-display)] text-2xl font-bold">{t("nav.scan")}</span>
+        </Link>
+        <UserBar user={user} signOut={signOutAction} />
+      </header>
+      <main id="content" className="mx-auto max-w-xl px-4 py-5 text-lg">
+        {children}
+      </main>
+    </div>
+  );
+}

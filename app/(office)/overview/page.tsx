@@ -1,0 +1,35 @@
+import { getTranslations } from "next-intl/server";
+import { AuditTable } from "@/components/audit-table";
+import { listAudit } from "@/server/audit";
+import { overviewCounts } from "@/server/overview";
+import { requirePagePermission } from "@/server/page-guard";
+
+export async function generateMetadata() {
+  return { title: (await getTranslations("home"))("overviewTitle") };
+}
+
+export default async function OverviewPage() {
+  await requirePagePermission("users:manage");
+  const t = await getTranslations("home");
+  const counts = overviewCounts();
+  return (
+    <div className="space-y-8">
+      <header>
+        <h1 className="text-3xl font-bold">{t("overviewTitle")}</h1>
+        <p className="text-ink-soft">{t("overviewIntro")}</p>
+      </header>
+      <dl className="grid grid-cols-2 gap-4 sm:grid-cols-5">
+        {(Object.keys(counts) as (keyof typeof counts)[]).map((key) => (
+          <div key={key} className="panel">
+            <dt className="text-sm font-semibold text-ink-soft">{t(`counts.${key}`)}</dt>
+            <dd className="font-[family-name:var(--font-display)] text-4xl font-bold text-cedar-deep" data-testid={`count-${key}`}>{counts[key]}</dd>
+          </div>
+        ))}
+      </dl>
+      <section>
+        <h2 className="mb-3 text-xl font-bold">{t("recentActivity")}</h2>
+        <AuditTable rows={listAudit(50)} pageSize={10} />
+      </section>
+    </div>
+  );
+}

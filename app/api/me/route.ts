@@ -1,0 +1,6 @@
+import { handle, requireApiUser } from "@/server/http";
+
+export const GET = handle(async (request) => {
+  const { id, email, name, role, partyId } = await requireApiUser(request);
+  return Response.json({ id, email, name, role, partyId });
+});

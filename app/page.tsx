@@ -1,0 +1,8 @@
+import { redirect } from "next/navigation";
+import { HOME_FOR_ROLE } from "@/domain/permissions";
+import { currentUser } from "@/server/session";
+
+export default async function Root() {
+  const user = await currentUser();
+  redirect(user ? HOME_FOR_ROLE[user.role] : "/sign-in");
+}

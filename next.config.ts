@@ -1,0 +1,24 @@
+import type { NextConfig } from "next";
+import createNextIntlPlugin from "next-intl/plugin";
+
+const withNextIntl = createNextIntlPlugin("./src/i18n/request.ts");
+
+const securityHeaders = [
+  { key: "X-Content-Type-Options", value: "nosniff" },
+  { key: "Referrer-Policy", value: "strict-origin-when-cross-origin" },
+  { key: "X-Frame-Options", value: "DENY" },
+  // The camera is used by the floor's scan screen on this origin only.
+  { key: "Permissions-Policy", value: "camera=(self), microphone=(), geolocation=()" },
+];
+
+const nextConfig: NextConfig = {
+  poweredByHeader: false,
+  // forbidden() from next/navigation renders app/forbidden.tsx with a 403.
+  experimental: { authInterrupts: true },
+  serverExternalPackages: ["better-sqlite3", "@node-rs/argon2"],
+  async headers() {
+    return [{ source: "/:path*", headers: securityHeaders }];
+  },
+};
+
+export default withNextIntl(nextConfig);

@@ -1,0 +1,47 @@
+/**
+ * `npm start`: migrate, seed the demo on an empty database, build if there is no
+ * production build, then serve with `next start`.
+ */
+import { spawn, spawnSync } from "node:child_process";
+import { existsSync } from "node:fs";
+import path from "node:path";
+import { migrateDatabase, openDatabase } from "../db/client";
+import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from "../server/seed";
+
+const dbFile = process.env.GRAINLINE_DB || "data/grainline.db";
+const port = process.env.PORT || "3000";
+const seedMode = process.env.GRAINLINE_SEED || "demo";
+const nextBin = path.resolve("node_modules/next/dist/bin/next");
+const env = { ...process.env, NEXT_TELEMETRY_DISABLED: "1", GRAINLINE_DB: dbFile };
+
+async function prepareDatabase() {
+  const { db, sqlite } = openDatabase(dbFile);
+  migrateDatabase(db);
+  const seeded = seedMode === "demo" ? await seedDemo(db) : false;
+  sqlite.close();
+  console.log(`Database ${dbFile}: migrated${seeded ? ", demo scenario seeded" : ""}.`);
+}
+
+function buildIfNeeded() {
+  if (existsSync(".next/BUILD_ID")) return;
+  console.log("No production build yet: running next build…");
+  const result = spawnSync(process.execPath, [nextBin, "build"], { stdio: "inherit", env });
+  if (result.status !== 0) process.exit(result.status ?? 1);
+}
+
+function serve() {
+  const server = spawn(process.execPath, [nextBin, "start", "-p", port], { stdio: "inherit", env });
+  const stop = (signal: NodeJS.Signals) => server.kill(signal);
+  process.on("SIGINT", stop);
+  process.on("SIGTERM", stop);
+  server.on("exit", (code) => process.exit(code ?? 0));
+  console.log(`\nGrainline is starting on http://localhost:${port}`);
+  if (seedMode === "demo") {
+    console.log(`Demo logins (password "${DEMO_PASSWORD}"):`);
+    for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(8)} ${u.email}`);
+  }
+}
+
+await prepareDatabase();
+buildIfNeeded();
+serve();

@@ -1,0 +1,31 @@
+import { getFormatter, getTranslations } from "next-intl/server";
+import type { LotCard } from "@/server/lots";
+
+export async function LotCardView({ lot, dark }: { lot: LotCard; dark?: boolean }) {
+  const t = await getTranslations("lot");
+  const format = await getFormatter();
+  const rows: [string, string | null][] = [
+    [t("kind"), t(`kinds.${lot.kind}`)],
+    [t("onHand"), `${format.number(lot.onHand, { maximumFractionDigits: 1 })} ${lot.unit}`],
+    [t("variety"), lot.variety],
+    [t("cropYear"), lot.cropYear ? String(lot.cropYear) : null],
+    [t("grade"), lot.grade],
+    [t("polishingRatio"), lot.polishingRatioPct != null ? `${format.number(lot.polishingRatioPct, { maximumFractionDigits: 1 })} %` : null],
+    [t("holder"), lot.partyName],
+    [t("field"), lot.fieldName ? `${lot.fieldName} (${lot.region})` : null],
+    [t("received"), format.dateTime(lot.createdAt, { dateStyle: "medium" })],
+  ];
+  return (
+    <article data-testid="lot-card" className={`rounded-xl border-4 p-5 ${dark ? "border-koji bg-cedar-deep text-paper" : "border-husk bg-white"}`}>
+      <p className="code-chip text-xl text-ink">{lot.code}</p>
+      <dl className="mt-4 grid grid-cols-[auto_1fr] gap-x-5 gap-y-2">
+        {rows.filter(([, v]) => v).map(([k, v]) => (
+          <div key={k} className="contents">
+            <dt className="font-semibold opacity-80">{k}</dt>
+            <dd className="font-semibold">{v}</dd>
+          </div>
+        ))}
+      </dl>
+    </article>
+  );
+}

@@ -1,0 +1,31 @@
+import Database from "better-sqlite3";
+import { drizzle } from "drizzle-orm/better-sqlite3";
+import { migrate } from "drizzle-orm/better-sqlite3/migrator";
+import type { BaseSQLiteDatabase } from "drizzle-orm/sqlite-core";
+import { mkdirSync } from "node:fs";
+import path from "node:path";
+import * as schema from "./schema";
+
+export type Db = ReturnType<typeof openDatabase>["db"];
+/** A connection or an open transaction: what helpers that join a caller's transaction take. */
+export type DbOrTx = BaseSQLiteDatabase<"sync", Database.RunResult, typeof schema>;
+
+/** Opens (creating if needed) the SQLite file with the settings every connection needs. */
+export function openDatabase(file: string) {
+  if (file !== ":memory:") mkdirSync(path.dirname(path.resolve(file)), { recursive: true });
+  const sqlite = new Database(file);
+  // WAL lets readers go on while one writer commits; the busy timeout makes a second
+  // writer wait for the lock instead of failing at once.
+  sqlite.pragma("journal_mode = WAL");
+  sqlite.pragma("busy_timeout = 5000");
+  sqlite.pragma("foreign_keys = ON");
+  sqlite.pragma("synchronous = NORMAL");
+  const db = drizzle(sqlite, { schema });
+  return { sqlite, db };
+}
+
+export const MIGRATIONS_FOLDER = path.resolve(process.cwd(), "drizzle");
+
+export function migrateDatabase(db: Db, migrationsFolder = MIGRATIONS_FOLDER) {
+  migrate(db, { migrationsFolder });
+}

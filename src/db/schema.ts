@@ -1,0 +1,148 @@
+import { sql } from "drizzle-orm";
+import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import { PARTY_KINDS, ROLES } from "../domain/roles";
+
+const createdAt = () =>
+  integer("created_at", { mode: "timestamp_ms" })
+    .notNull()
+    .default(sql`(unixepoch('subsec') * 1000)`);
+
+export const parties = sqliteTable("parties", {
+  id: text("id").primaryKey(),
+  kind: text("kind", { enum: PARTY_KINDS }).notNull(),
+  name: text("name").notNull(),
+  address: text("address").notNull().default(""),
+  region: text("region").notNull().default(""),
+  email: text("email").notNull().default(""),
+  phone: text("phone").notNull().default(""),
+  // Growers and mills choose whether the brewery may name them on public provenance pages.
+  namedPublicly: integer("named_publicly", { mode: "boolean" }).notNull().default(false),
+  createdAt: createdAt(),
+});
+
+export const users = sqliteTable(
+  "users",
+  {
+    id: text("id").primaryKey(),
+    partyId: text("party_id")
+      .notNull()
+      .references(() => parties.id),
+    email: text("email").notNull(),
+    name: text("name").notNull(),
+    role: text("role", { enum: ROLES }).notNull(),
+    // Null until the invited person sets a password through their link.
+    passwordHash: text("password_hash"),
+    disabledAt: integer("disabled_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("users_email_unique").on(t.email)],
+);
+
+export const sessions = sqliteTable("sessions", {
+  id: text("id").primaryKey(),
+  userId: text("user_id")
+    .notNull()
+    .references(() => users.id),
+  // Unix seconds: the lucia Drizzle adapter stores it this way.
+  expiresAt: integer("expires_at").notNull(),
+});
+
+export const passwordTokens = sqliteTable(
+  "password_tokens",
+  {
+    id: text("id").primaryKey(),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id),
+    // SHA-256 of the token sent by e-mail; the token itself is never stored.
+    tokenHash: text("token_hash").notNull(),
+    purpose: text("purpose", { enum: ["invite", "reset"] }).notNull(),
+    expiresAt: integer("expires_at", { mode: "timestamp_ms" }).notNull(),
+    usedAt: integer("used_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("password_tokens_hash_unique").on(t.tokenHash)],
+);
+
+export const signInThrottle = sqliteTable("sign_in_throttle", {
+  key: text("key").primaryKey(),
+  failures: integer("failures").notNull(),
+  windowStartedAt: integer("window_started_at", { mode: "timestamp_ms" }).notNull(),
+});
+
+export const outbox = sqliteTable(
+  "outbox",
+  {
+    id: text("id").primaryKey(),
+    toAddress: text("to_address").notNull(),
+    fromAddress: text("from_address").notNull(),
+    subject: text("subject").notNull(),
+    textBody: text("text_body").notNull(),
+    htmlBody: text("html_body"),
+    transport: text("transport", { enum: ["local", "smtp"] }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("outbox_created_idx").on(t.createdAt)],
+);
+
+export const auditLog = sqliteTable(
+  "audit_log",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    at: createdAt(),
+    userId: text("user_id"),
+    action: text("action").notNull(),
+    subject: text("subject").notNull(),
+    detail: text("detail").notNull().default("{}"),
+  },
+  (t) => [index("audit_log_at_idx").on(t.at)],
+);
+
+export const fields = sqliteTable(
+  "fields",
+  {
+    id: text("id").primaryKey(),
+    growerId: text("grower_id")
+      .notNull()
+      .references(() => parties.id),
+    name: text("name").notNull(),
+    region: text("region").notNull(),
+    areaHa: real("area_ha").notNull(),
+    latitude: real("latitude"),
+    longitude: real("longitude"),
+    createdAt: createdAt(),
+  },
+  (t) => [index("fields_grower_idx").on(t.growerId)],
+);
+
+// ---------------------------------------------------------------------------
+// The lot ledger. Lots are the physical things; events are appended and never
+// changed (triggers in the migration refuse UPDATE and DELETE on them).
+
+export const LOT_KINDS = ["harvest", "polished", "bran", "soaked", "steamed", "koji", "starter", "tank", "sake", "lees", "blend", "bottled"] as const;
+export const LOT_UNITS = ["kg", "L", "bottle"] as const;
+
+export const lots = sqliteTable(
+  "lots",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    code: text("code").notNull(),
+    kind: text("kind", { enum: LOT_KINDS }).notNull(),
+    unit: text("unit", { enum: LOT_UNITS }).notNull(),
+    partyId: text("party_id").notNull().references(() => parties.id),
+    fieldId: text("field_id").references(() => fields.id),
+    variety: text("variety"),
+    cropYear: integer("crop_year"),
+    grade: text("grade"),
+    moisturePct: real("moisture_pct"),
+    polishingRatioPct: real("polishing_ratio_pct"),
+    attributes: text("attributes").notNull().default("{}"),
+    // Running totals kept in the same transaction as each event, so reads need no replay.
+    quantityIn: real("quantity_in").notNull().default(0),
+    onHand: real("on_hand").notNull().default(0),
+    // Rice (dry polished basis) or litres carried into the lot: the denominator of its composition.
+    contentIn: real("content_in").notNull().default(0),
+    createdAt: integer("created_at", { mode: "timestamp_ms" }).notNull(),
+  },
+  (t) => [uniqueIndex("lots_code_unique").on(t.code), index("lots_kind_idx").on(t.kind, t.createdAt), index("lots_party_idx").on(t.partyId)],
+);

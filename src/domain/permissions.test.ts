@@ -1,0 +1,67 @@
+import { describe, expect, it } from "vitest";
+import { ROLES } from "./roles";
+import {
+  HOME_FOR_ROLE,
+  PERMISSIONS,
+  ROLE_PERMISSIONS,
+  can,
+  canManageUsers,
+  canReadFieldsOf,
+  canReadLedgerOf,
+  canRecordOnField,
+  type Actor,
+} from "./permissions";
+
+const actor = (role: Actor["role"], partyId = "p-1"): Actor => ({ id: "u", role, partyId });
+
+describe("permission map", () => {
+  it("gives every role a home of its own", () => {
+    expect(new Set(ROLES.map((r) => HOME_FOR_ROLE[r])).size).toBe(ROLES.length);
+  });
+
+  it("only names known permissions", () => {
+    for (const role of ROLES) {
+      for (const p of ROLE_PERMISSIONS[role]) expect(PERMISSIONS).toContain(p);
+    }
+  });
+
+  it("lets only admin manage users and parties", () => {
+    const allowed = ROLES.filter((r) => canManageUsers(actor(r)));
+    expect(allowed).toEqual(["admin"]);
+    expect(ROLES.filter((r) => can(actor(r), "parties:manage"))).toEqual(["admin"]);
+  });
+
+  it("keeps the auditor read-only", () => {
+    const writes = ROLE_PERMISSIONS.auditor.filter((p) => /write|record|manage/.test(p));
+    expect(writes).toEqual([]);
+    expect(can(actor("auditor"), "records:read-all")).toBe(true);
+  });
+
+  it("denies everything to no one signed in", () => {
+    for (const p of PERMISSIONS) expect(can(null, p)).toBe(false);
+  });
+});
+
+describe("ownership predicates", () => {
+  it("lets a grower record only on their own fields", () => {
+    expect(canRecordOnField(actor("grower", "g-1"), { growerId: "g-1" })).toBe(true);
+    expect(canRecordOnField(actor("grower", "g-1"), { growerId: "g-2" })).toBe(false);
+    expect(canRecordOnField(actor("admin", "b-1"), { growerId: "g-2" })).toBe(true);
+    expect(canRecordOnField(actor("brewer", "b-1"), { growerId: "g-2" })).toBe(false);
+    expect(canRecordOnField(actor("miller", "g-2"), { growerId: "g-2" })).toBe(false);
+  });
+
+  it("shows a grower only their own fields", () => {
+    expect(canReadFieldsOf(actor("grower", "g-1"), "g-1")).toBe(true);
+    expect(canReadFieldsOf(actor("grower", "g-1"), "g-2")).toBe(false);
+    expect(canReadFieldsOf(actor("sales"), "g-2")).toBe(true);
+  });
+
+  it("shows suppliers only their own ledger", () => {
+    expect(canReadLedgerOf(actor("miller", "m-1"), "m-1")).toBe(true);
+    expect(canReadLedgerOf(actor("miller", "m-1"), "g-1")).toBe(false);
+    expect(canReadLedgerOf(actor("grower", "g-1"), "g-2")).toBe(false);
+    expect(canReadLedgerOf(actor("admin"), "g-2")).toBe(true);
+    expect(canReadLedgerOf(actor("sales"), "g-2")).toBe(false);
+  });
+});

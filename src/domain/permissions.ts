@@ -1,0 +1,85 @@
+import type { Role } from "./roles";
+
+/**
+ * What each role may do. The server enforces these; the UI uses the same
+ * predicates to hide what a person cannot use.
+ */
+export const PERMISSIONS = [
+  "users:manage",
+  "parties:manage",
+  "outbox:read",
+  "audit:read",
+  "fields:read-all",
+  "fields:write-own",
+  "fields:write-any",
+  "harvests:record-own",
+  "harvests:record-any",
+  "polishing:record",
+  "brewing:record",
+  "provenance:read",
+  "records:read-all",
+  "ledger:read-own",
+  "ledger:manage",
+] as const;
+export type Permission = (typeof PERMISSIONS)[number];
+
+export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
+  admin: [
+    "users:manage",
+    "parties:manage",
+    "outbox:read",
+    "audit:read",
+    "fields:read-all",
+    "fields:write-any",
+    "harvests:record-any",
+    "polishing:record",
+    "brewing:record",
+    "provenance:read",
+    "records:read-all",
+    "ledger:manage",
+  ],
+  brewer: ["fields:read-all", "brewing:record", "provenance:read", "records:read-all"],
+  grower: ["fields:write-own", "harvests:record-own", "ledger:read-own"],
+  miller: ["polishing:record", "ledger:read-own"],
+  sales: ["fields:read-all", "provenance:read", "records:read-all"],
+  auditor: ["audit:read", "fields:read-all", "provenance:read", "records:read-all"],
+};
+
+export type Actor = { id: string; role: Role; partyId: string };
+
+export function can(actor: Pick<Actor, "role"> | null | undefined, permission: Permission): boolean {
+  if (!actor) return false;
+  return ROLE_PERMISSIONS[actor.role].includes(permission);
+}
+
+export const canManageUsers = (actor: Actor | null) => can(actor, "users:manage");
+export const canManageParties = (actor: Actor | null) => can(actor, "parties:manage");
+export const canReadOutbox = (actor: Actor | null) => can(actor, "outbox:read");
+export const canReadAudit = (actor: Actor | null) => can(actor, "audit:read");
+
+/** A grower works only on fields of their own party; admin on any grower's. */
+export function canRecordOnField(actor: Actor | null, field: { growerId: string }): boolean {
+  if (can(actor, "fields:write-any")) return true;
+  return can(actor, "fields:write-own") && actor!.partyId === field.growerId;
+}
+
+export function canReadFieldsOf(actor: Actor | null, growerId: string): boolean {
+  if (can(actor, "fields:read-all")) return true;
+  return can(actor, "fields:write-own") && actor!.partyId === growerId;
+}
+
+/** Suppliers see only their own money; the office sees everyone's. */
+export function canReadLedgerOf(actor: Actor | null, partyId: string): boolean {
+  if (can(actor, "ledger:manage")) return true;
+  return can(actor, "ledger:read-own") && actor!.partyId === partyId;
+}
+
+/** Where each role lands after signing in. */
+export const HOME_FOR_ROLE: Record<Role, string> = {
+  admin: "/overview",
+  auditor: "/records",
+  grower: "/fields",
+  miller: "/mill",
+  brewer: "/scan",
+  sales: "/provenance",
+};

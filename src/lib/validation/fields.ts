@@ -1,0 +1,16 @@
+import { z } from "zod";
+
+/** Form inputs send "" for a blank box; treat it as "not given". */
+const blankToUndefined = (v: unknown) => (v === "" || v === null ? undefined : v);
+const optionalNumber = (min: number, max: number) => z.preprocess(blankToUndefined, z.coerce.number().finite().min(min).max(max).optional());
+
+export const fieldSchema = z.object({
+  name: z.string().trim().min(1).max(120),
+  // Prefecture-level region: what rice-origin statements name.
+  region: z.string().trim().min(1).max(80),
+  areaHa: z.preprocess(blankToUndefined, z.coerce.number().finite().positive().max(10_000)),
+  latitude: optionalNumber(-90, 90),
+  longitude: optionalNumber(-180, 180),
+  growerId: z.preprocess(blankToUndefined, z.string().min(1).max(64).optional()),
+});
+export type FieldInput = z.infer<typeof fieldSchema>;

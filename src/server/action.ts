@@ -1,0 +1,47 @@
+import "server-only";
+import { getTranslations } from "next-intl/server";
+import { headers } from "next/headers";
+import { unstable_rethrow } from "next/navigation";
+import { z } from "zod";
+import type { FormState } from "@/lib/form-state";
+import { fieldErrorsFrom, type Translate } from "@/lib/validation/field-errors";
+import { AppError } from "./errors";
+
+export async function actionTranslator(): Promise<Translate> {
+  const t = await getTranslations();
+  return (key, values) => t(key as never, values as never);
+}
+
+/**
+ * Runs a server action's body and turns what it throws into form state: field errors
+ * beside their fields, one message on top. Redirects pass through.
+ */
+export async function guardAction(
+  values: Record<string, string>,
+  body: (t: Translate) => Promise<FormState | void>,
+): Promise<FormState> {
+  const t = await actionTranslator();
+  try {
+    return (await body(t)) ?? { ok: true };
+  } catch (error) {
+    unstable_rethrow(error);
+    if (error instanceof z.ZodError) return { message: t("errors.invalid"), fields: fieldErrorsFrom(error, t), values };
+    if (error instanceof AppError) return { message: t(`errors.${error.code}`), fields: error.fields, values };
+    console.error(error);
+    return { message: t("errors.internal"), values };
+  }
+}
+
+/** The origin links in e-mails should point at, seen from a server action. */
+export async function actionOrigin(): Promise<string> {
+  if (process.env.GRAINLINE_ORIGIN) return process.env.GRAINLINE_ORIGIN.replace(/\/$/, "");
+  const h = await headers();
+  const host = h.get("x-forwarded-host") ?? h.get("host") ?? "localhost:3000";
+  const proto = h.get("x-forwarded-proto")?.split(",")[0]?.trim() ?? "http";
+  return `${proto}://${host}`;
+}
+
+export async function actionClientKey(): Promise<string> {
+  const h = await headers();
+  return h.get("x-forwarded-for")?.split(",")[0]?.trim() || h.get("x-real-ip") || "local";
+}

@@ -1,0 +1,105 @@
+import "server-only";
+import { z } from "zod";
+import { pickLocale } from "@/i18n/locale";
+import { translator } from "@/i18n/messages";
+import { fieldErrorsFrom, type Translate } from "@/lib/validation/field-errors";
+import { AppError, forbidden, invalid, unauthenticated } from "./errors";
+import { sessionFromRequest, type SessionUser } from "./session";
+import { can, type Permission } from "@/domain/permissions";
+
+export type RouteContext = { params: Record<string, string>; t: Translate };
+type NextContext = { params?: Promise<Record<string, string | string[]>> };
+
+export function translatorFor(request: Request): Translate {
+  const t = translator(pickLocale(undefined, request.headers.get("accept-language")));
+  return (key, values) => t(key as never, values as never);
+}
+
+/**
+ * Wraps a route handler: refuses cross-origin writes, turns application and validation
+ * errors into the API's error shape, and never leaks internals on a 500.
+ */
+export function handle(fn: (request: Request, ctx: RouteContext) => Promise<Response>) {
+  return async (request: Request, context?: NextContext): Promise<Response> => {
+    const t = translatorFor(request);
+    try {
+      if (!["GET", "HEAD", "OPTIONS"].includes(request.method)) checkOrigin(request);
+      const raw = (await context?.params) ?? {};
+      const params = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, Array.isArray(v) ? v.join("/") : v]));
+      return await fn(request, { params, t });
+    } catch (error) {
+      return errorResponse(error, t);
+    }
+  };
+}
+
+export function errorResponse(error: unknown, t: Translate): Response {
+  if (error instanceof z.ZodError) error = invalid(fieldErrorsFrom(error, t));
+  if (error instanceof AppError) {
+    const body = { error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) } };
+    return Response.json(body, { status: error.status });
+  }
+  console.error(error);
+  return Response.json({ error: { code: "internal", message: "Something went wrong on our side." } }, { status: 500 });
+}
+
+/**
+ * Browsers send Origin on every non-GET request; a mismatch means another site is
+ * posting on the user's behalf. Requests with no browser headers (integrations) pass.
+ */
+export function checkOrigin(request: Request): void {
+  const origin = request.headers.get("origin");
+  const host = request.headers.get("x-forwarded-host") ?? request.headers.get("host") ?? new URL(request.url).host;
+  if (origin) {
+    let originHost: string;
+    try {
+      originHost = new URL(origin).host;
+    } catch {
+      throw forbidden("The request's origin does not match this site.");
+    }
+    if (originHost !== host) throw forbidden("The request's origin does not match this site.");
+    return;
+  }
+  const site = request.headers.get("sec-fetch-site");
+  if (site && site !== "same-origin" && site !== "none") throw forbidden("The request's origin does not match this site.");
+}
+
+/** Parses a JSON body with a zod schema; malformed JSON and wrong shapes are both 422. */
+export async function readJson<S extends z.ZodType>(request: Request, schema: S, t: Translate): Promise<z.infer<S>> {
+  let body: unknown;
+  try {
+    body = await request.json();
+  } catch {
+    throw invalid({ _: [t("validation.malformedJson")] }, "The request body is not valid JSON.");
+  }
+  const parsed = schema.safeParse(body);
+  if (!parsed.success) throw invalid(fieldErrorsFrom(parsed.error, t));
+  return parsed.data;
+}
+
+export async function requireApiUser(request: Request): Promise<SessionUser> {
+  const found = await sessionFromRequest(request);
+  if (!found) throw unauthenticated();
+  return found.user;
+}
+
+export async function requireApiPermission(request: Request, permission: Permission): Promise<SessionUser> {
+  const user = await requireApiUser(request);
+  if (!can(user, permission)) throw forbidden();
+  return user;
+}
+
+/** The client's address as the reverse proxy reports it; "local" when there is none. */
+export function clientKey(request: Request): string {
+  const forwarded = request.headers.get("x-forwarded-for")?.split(",")[0]?.trim();
+  return forwarded || request.headers.get("x-real-ip") || "local";
+}
+
+/** The origin links in e-mails point at: GRAINLINE_ORIGIN, else what the request came to. */
+export function appOrigin(request: { url: string; headers: Headers }): string {
+  if (process.env.GRAINLINE_ORIGIN) return process.env.GRAINLINE_ORIGIN.replace(/\/$/, "");
+  const host = request.headers.get("x-forwarded-host") ?? request.headers.get("host");
+  const proto = request.headers.get("x-forwarded-proto")?.split(",")[0]?.trim();
+  if (!host) return new URL(request.url).origin;
+  return `${proto ?? new URL(request.url).protocol.replace(":", "")}://${host}`;
+}

@@ -1,0 +1,53 @@
+import "server-only";
+import nodemailer from "nodemailer";
+import { desc, eq } from "drizzle-orm";
+import { randomUUID } from "node:crypto";
+import { outbox } from "@/db/schema";
+import { getDb } from "./db";
+
+export type OutgoingMail = { to: string; subject: string; text: string; html?: string };
+
+const FROM = () => process.env.GRAINLINE_MAIL_FROM || "Grainline <no-reply@grainline.invalid>";
+
+/**
+ * Without SMTP_HOST nothing leaves the machine: the JSON transport renders the message
+ * and the outbox table keeps it for the admin's outbox page.
+ */
+function transport() {
+  const host = process.env.SMTP_HOST;
+  if (!host) return { kind: "local" as const, t: nodemailer.createTransport({ jsonTransport: true }) };
+  return {
+    kind: "smtp" as const,
+    t: nodemailer.createTransport({
+      host,
+      port: Number(process.env.SMTP_PORT || 587),
+      secure: process.env.SMTP_SECURE === "true",
+      auth: process.env.SMTP_USER ? { user: process.env.SMTP_USER, pass: process.env.SMTP_PASSWORD } : undefined,
+    }),
+  };
+}
+
+export async function sendMail(mail: OutgoingMail): Promise<string> {
+  const { kind, t } = transport();
+  const from = FROM();
+  await t.sendMail({ from, ...mail });
+  const id = randomUUID();
+  getDb()
+    .insert(outbox)
+    .values({ id, toAddress: mail.to, fromAddress: from, subject: mail.subject, textBody: mail.text, htmlBody: mail.html ?? null, transport: kind, createdAt: new Date() })
+    .run();
+  return id;
+}
+
+export function listOutbox(limit = 200) {
+  return getDb()
+    .select({ id: outbox.id, to: outbox.toAddress, subject: outbox.subject, transport: outbox.transport, createdAt: outbox.createdAt })
+    .from(outbox)
+    .orderBy(desc(outbox.createdAt))
+    .limit(limit)
+    .all();
+}
+
+export function getOutboxMessage(id: string) {
+  return getDb().select().from(outbox).where(eq(outbox.id, id)).get() ?? null;
+}

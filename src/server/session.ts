@@ -1,0 +1,73 @@
+import "server-only";
+import { cookies, headers } from "next/headers";
+import { cache } from "react";
+import type { Session } from "lucia";
+import type { Role } from "@/domain/roles";
+import { can, type Actor, type Permission } from "@/domain/permissions";
+import { lucia } from "./auth";
+import { forbidden, unauthenticated } from "./errors";
+
+export type SessionUser = Actor & { email: string; name: string };
+
+type Validated = { user: SessionUser; session: Session } | null;
+
+async function validate(sessionId: string | null): Promise<Validated & { fresh?: boolean } | null> {
+  if (!sessionId) return null;
+  const { user, session } = await lucia().validateSession(sessionId);
+  if (!user || !session || user.disabledAt) return null;
+  return {
+    user: { id: user.id, email: user.email, name: user.name, role: user.role as Role, partyId: user.partyId },
+    session,
+    fresh: session.fresh,
+  };
+}
+
+/** For route handlers: reads the session from the request's own Cookie header. */
+export async function sessionFromRequest(request: Request) {
+  return validate(lucia().readSessionCookie(request.headers.get("cookie") ?? ""));
+}
+
+export function isHttps(request: { url: string; headers: Headers }): boolean {
+  const forwarded = request.headers.get("x-forwarded-proto");
+  if (forwarded) return forwarded.split(",")[0]!.trim() === "https";
+  return new URL(request.url).protocol === "https:";
+}
+
+/** A Set-Cookie value for a new or refreshed session, Secure when served over https. */
+export function sessionCookieHeader(sessionId: string, secure: boolean): string {
+  const c = lucia().createSessionCookie(sessionId);
+  c.attributes.secure = secure;
+  return c.serialize();
+}
+
+export function blankSessionCookieHeader(secure: boolean): string {
+  const c = lucia().createBlankSessionCookie();
+  c.attributes.secure = secure;
+  return c.serialize();
+}
+
+/** For pages, layouts and server actions: the signed-in user of this request, or null. */
+export const currentUser = cache(async (): Promise<SessionUser | null> => {
+  const jar = await cookies();
+  const result = await validate(jar.get(lucia().sessionCookieName)?.value ?? null);
+  return result?.user ?? null;
+});
+
+export async function requireUser(): Promise<SessionUser> {
+  const user = await currentUser();
+  if (!user) throw unauthenticated();
+  return user;
+}
+
+export async function requirePermission(permission: Permission): Promise<SessionUser> {
+  const user = await requireUser();
+  if (!can(user, permission)) throw forbidden();
+  return user;
+}
+
+/** Whether this page request arrived over https (for the Secure cookie flag in actions). */
+export async function requestIsHttps(): Promise<boolean> {
+  const h = await headers();
+  const proto = h.get("x-forwarded-proto");
+  return proto ? proto.split(",")[0]!.trim() === "https" : false;
+}

@@ -1,0 +1,132 @@
+import "server-only";
+import { and, asc, eq, gt, isNull } from "drizzle-orm";
+import { generateIdFromEntropySize } from "lucia";
+import { parties, passwordTokens, users } from "@/db/schema";
+import { PARTY_KIND_FOR_ROLE } from "@/domain/roles";
+import { canManageUsers } from "@/domain/permissions";
+import type { InviteInput } from "@/lib/validation/people";
+import type { Translate } from "@/lib/validation/field-errors";
+import { recordAudit } from "./audit";
+import { lucia } from "./auth";
+import { getDb } from "./db";
+import { AppError, forbidden, invalid } from "./errors";
+import { sendMail } from "./mail";
+import { burnPasswordCheck, hashPassword, verifyPassword } from "./passwords";
+import type { SessionUser } from "./session";
+import { clearFailures, isThrottled, recordFailure } from "./throttle";
+import { INVITE_TTL_MS, RESET_TTL_MS, hashLinkToken, newLinkToken } from "./tokens";
+
+export type PublicUser = { id: string; email: string; name: string; role: SessionUser["role"]; partyId: string };
+
+const toPublic = (u: typeof users.$inferSelect): PublicUser => ({
+  id: u.id,
+  email: u.email,
+  name: u.name,
+  role: u.role,
+  partyId: u.partyId,
+});
+
+/** Checks a password and opens a new session; throttled per e-mail and per client. */
+export async function signIn(email: string, password: string, client: string) {
+  if (isThrottled(email, client)) {
+    throw new AppError("rate_limited", "Too many failed sign-in attempts. Wait 15 minutes and try again.");
+  }
+  const row = getDb().select().from(users).where(eq(users.email, email)).get();
+  const ok = row?.passwordHash && !row.disabledAt ? await verifyPassword(row.passwordHash, password) : (await burnPasswordCheck(password), false);
+  if (!row || !ok) {
+    recordFailure(email, client);
+    throw new AppError("unauthenticated", "The e-mail or password is not right.");
+  }
+  clearFailures(email);
+  const session = await lucia().createSession(row.id, {});
+  recordAudit(getDb(), { userId: row.id, action: "user.signed-in", subject: row.id });
+  return { user: toPublic(row), sessionId: session.id };
+}
+
+export async function signOut(sessionId: string, userId: string) {
+  await lucia().invalidateSession(sessionId);
+  recordAudit(getDb(), { userId, action: "user.signed-out", subject: userId });
+}
+
+export function listUsers() {
+  return getDb()
+    .select({ id: users.id, email: users.email, name: users.name, role: users.role, partyId: users.partyId, partyName: parties.name, passwordHash: users.passwordHash, createdAt: users.createdAt })
+    .from(users)
+    .innerJoin(parties, eq(parties.id, users.partyId))
+    .orderBy(asc(users.name))
+    .all()
+    .map(({ passwordHash, ...u }) => ({ ...u, status: passwordHash ? ("active" as const) : ("invited" as const) }));
+}
+
+/** Creates the user without a password and e-mails a single-use link to set one. */
+export async function inviteUser(actor: SessionUser, input: InviteInput, origin: string, t: Translate) {
+  if (!canManageUsers(actor)) throw forbidden();
+  const db = getDb();
+  const { token, hash } = newLinkToken();
+  const id = generateIdFromEntropySize(10);
+  db.transaction((tx) => {
+    const party = tx.select().from(parties).where(eq(parties.id, input.partyId)).get();
+    if (!party) throw invalid({ partyId: [t("validation.unknownParty")] });
+    if (party.kind !== PARTY_KIND_FOR_ROLE[input.role]) {
+      throw invalid({ role: [t("validation.roleNeedsParty", { kind: t(`parties.kinds.${PARTY_KIND_FOR_ROLE[input.role]}`) })] });
+    }
+    if (tx.select({ id: users.id }).from(users).where(eq(users.email, input.email)).get()) {
+      throw new AppError("conflict", "That e-mail address already has a user.", { email: [t("validation.emailTaken")] });
+    }
+    tx.insert(users).values({ id, email: input.email, name: input.name, role: input.role, partyId: input.partyId, createdAt: new Date() }).run();
+    tx.insert(passwordTokens).values({ id: generateIdFromEntropySize(10), userId: id, tokenHash: hash, purpose: "invite", expiresAt: new Date(Date.now() + INVITE_TTL_MS), createdAt: new Date() }).run();
+    recordAudit(tx, { userId: actor.id, action: "user.invited", subject: id, detail: { email: input.email, role: input.role } });
+  });
+  const link = `${origin}/set-password/${token}`;
+  await sendMail({
+    to: input.email,
+    subject: t("mail.invite.subject"),
+    text: t("mail.invite.body", { name: input.name, inviter: actor.name, link, days: 7 }),
+  });
+  return { id };
+}
+
+/** Always answers the same way, so the form does not reveal which addresses exist. */
+export async function requestPasswordReset(email: string, origin: string, t: Translate) {
+  const db = getDb();
+  const row = db.select().from(users).where(eq(users.email, email)).get();
+  if (!row || row.disabledAt) return;
+  const { token, hash } = newLinkToken();
+  db.transaction((tx) => {
+    tx.insert(passwordTokens).values({ id: generateIdFromEntropySize(10), userId: row.id, tokenHash: hash, purpose: "reset", expiresAt: new Date(Date.now() + RESET_TTL_MS), createdAt: new Date() }).run();
+    recordAudit(tx, { userId: null, action: "user.reset-requested", subject: row.id });
+  });
+  await sendMail({ to: row.email, subject: t("mail.reset.subject"), text: t("mail.reset.body", { name: row.name, link: `${origin}/set-password/${token}`, minutes: 60 }) });
+}
+
+/** Who a still-valid link belongs to, for the set-password page; null if used or expired. */
+export function findLinkHolder(token: string) {
+  const row = getDb()
+    .select({ name: users.name, email: users.email, purpose: passwordTokens.purpose })
+    .from(passwordTokens)
+    .innerJoin(users, eq(users.id, passwordTokens.userId))
+    .where(and(eq(passwordTokens.tokenHash, hashLinkToken(token)), isNull(passwordTokens.usedAt), gt(passwordTokens.expiresAt, new Date())))
+    .get();
+  return row ?? null;
+}
+
+/** Uses a link once: sets the password and ends every session the person had. */
+export async function setPasswordWithToken(token: string, password: string, t: Translate) {
+  const passwordHash = await hashPassword(password);
+  const db = getDb();
+  const userId = db.transaction((tx) => {
+    const row = tx
+      .select()
+      .from(passwordTokens)
+      .where(and(eq(passwordTokens.tokenHash, hashLinkToken(token)), isNull(passwordTokens.usedAt), gt(passwordTokens.expiresAt, new Date())))
+      .get();
+    if (!row) throw invalid({ token: [t("validation.linkExpired")] }, "This link has been used or has expired.");
+    tx.update(passwordTokens).set({ usedAt: new Date() }).where(eq(passwordTokens.id, row.id)).run();
+    tx.update(users).set({ passwordHash }).where(eq(users.id, row.userId)).run();
+    recordAudit(tx, { userId: row.userId, action: "user.password-set", subject: row.userId, detail: { via: row.purpose } });
+    return row.userId;
+  });
+  await lucia().invalidateUserSessions(userId);
+  const user = db.select().from(users).where(eq(users.id, userId)).get()!;
+  return { email: user.email };
+}
