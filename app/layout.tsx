@@ -6,7 +6,7 @@ import "./globals.css";
 
 export async function generateMetadata(): Promise<Metadata> {
   const t = await getTranslations("app");
-  return { title: { default: t("name"), template: `%s · ${t("name")}` }, description: t("tagline") };
+  return { title: { default: t("name"), template: `%s · ${t("name")}` }, description: t("tagline"), icons: { icon: "/grainline-mark.svg" } };
 }
 
 export const viewport: Viewport = { themeColor: "#2f5d50", width: "device-width", initialScale: 1 };

@@ -30,7 +30,8 @@ export function listFields(actor: SessionUser) {
 }
 
 export function createField(actor: SessionUser, input: FieldInput, t: Translate) {
-  const growerId = can(actor, "fields:write-any") ? input.growerId : actor.partyId;
+  // A grower may leave growerId out; naming another grower is refused, not silently changed.
+  const growerId = input.growerId ?? (can(actor, "fields:write-any") ? undefined : actor.partyId);
   if (!growerId) throw invalid({ growerId: [t("validation.required")] });
   if (!canRecordOnField(actor, { growerId })) throw forbidden("You can register fields only for your own farm.");
   const id = generateIdFromEntropySize(10);

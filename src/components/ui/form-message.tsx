@@ -4,7 +4,7 @@ import type { FormState } from "@/lib/form-state";
 export function FormMessage({ state }: { state: FormState }) {
   if (!state.message) return null;
   return (
-    <p role={state.ok ? "status" : "alert"} className={state.ok ? "notice" : "notice-warn font-semibold"}>
+    <p data-testid="form-message" role={state.ok ? "status" : "alert"} className={state.ok ? "notice" : "notice-warn font-semibold"}>
       {state.message}
     </p>
   );
