@@ -1,19 +1,19 @@
 import { getFormatter, getTranslations } from "next-intl/server";
-import type { LotCard } from "@/server/lots";
+import type { ApiLot } from "@/server/lots";
 
-export async function LotCardView({ lot, dark }: { lot: LotCard; dark?: boolean }) {
+export async function LotCardView({ lot, dark }: { lot: ApiLot; dark?: boolean }) {
   const t = await getTranslations("lot");
   const format = await getFormatter();
   const rows: [string, string | null][] = [
     [t("kind"), t(`kinds.${lot.kind}`)],
     [t("onHand"), `${format.number(lot.onHand, { maximumFractionDigits: 1 })} ${lot.unit}`],
-    [t("variety"), lot.variety],
+    [t("variety"), lot.variety ?? null],
     [t("cropYear"), lot.cropYear ? String(lot.cropYear) : null],
-    [t("grade"), lot.grade],
+    [t("grade"), lot.grade ? t(`grades.${lot.grade}`) : null],
     [t("polishingRatio"), lot.polishingRatioPct != null ? `${format.number(lot.polishingRatioPct, { maximumFractionDigits: 1 })} %` : null],
-    [t("holder"), lot.partyName],
-    [t("field"), lot.fieldName ? `${lot.fieldName} (${lot.region})` : null],
-    [t("received"), format.dateTime(lot.createdAt, { dateStyle: "medium" })],
+    [t("holder"), lot.party.name],
+    [t("field"), lot.field ? `${lot.field.name} (${lot.field.region})` : null],
+    [t("received"), format.dateTime(new Date(lot.createdAt), { dateStyle: "medium" })],
   ];
   return (
     <article data-testid="lot-card" className={`rounded-xl border-4 p-5 ${dark ? "border-koji bg-cedar-deep text-paper" : "border-husk bg-white"}`}>

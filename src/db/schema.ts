@@ -130,6 +130,8 @@ export const lots = sqliteTable(
     kind: text("kind", { enum: LOT_KINDS }).notNull(),
     unit: text("unit", { enum: LOT_UNITS }).notNull(),
     partyId: text("party_id").notNull().references(() => parties.id),
+    // The party whose event made the lot (the grower of a harvest, the mill of a polished lot).
+    originPartyId: text("origin_party_id").notNull().references(() => parties.id),
     fieldId: text("field_id").references(() => fields.id),
     variety: text("variety"),
     cropYear: integer("crop_year"),
@@ -146,3 +148,131 @@ export const lots = sqliteTable(
   },
   (t) => [uniqueIndex("lots_code_unique").on(t.code), index("lots_kind_idx").on(t.kind, t.createdAt), index("lots_party_idx").on(t.partyId)],
 );
+
+/** Steps of ../shared/api.md plus "registering", the commissioning of a harvest lot. */
+export const EVENT_STEPS = [
+  "registering", "receiving", "shipping", "polishing", "soaking", "steaming", "splitting", "koji-making",
+  "starter", "mash-addition", "pressing", "blending", "bottling", "measuring", "correcting",
+] as const;
+
+export const events = sqliteTable(
+  "events",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    step: text("step", { enum: EVENT_STEPS }).notNull(),
+    // When it happened on the floor, and when Grainline heard of it.
+    at: integer("at", { mode: "timestamp_ms" }).notNull(),
+    recordedAt: integer("recorded_at", { mode: "timestamp_ms" }).notNull(),
+    userId: text("user_id").notNull().references(() => users.id),
+    partyId: text("party_id").notNull().references(() => parties.id),
+    counterpartyId: text("counterparty_id").references(() => parties.id),
+    place: text("place").notNull().default(""),
+    referenceDoc: text("reference_doc").notNull().default(""),
+    note: text("note").notNull().default(""),
+    corrects: integer("corrects"),
+    reason: text("reason").notNull().default(""),
+    attributes: text("attributes").notNull().default("{}"),
+  },
+  (t) => [index("events_at_idx").on(t.at), uniqueIndex("events_corrects_unique").on(t.corrects)],
+);
+
+export const eventInputs = sqliteTable(
+  "event_inputs",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    eventId: integer("event_id").notNull().references(() => events.id),
+    lotId: integer("lot_id").notNull().references(() => lots.id),
+    // Drawn from on-hand (0 for a measurement or a receipt, which move nothing).
+    quantity: real("quantity").notNull(),
+    // The rice (or litres) this draw carried: its weight in the mix of the event's outputs.
+    content: real("content").notNull(),
+    // "draw" takes from on-hand; "move" hands the whole lot to another party (receipts,
+    // shipments between parties); "observe" touches nothing (measurements).
+    use: text("use", { enum: ["draw", "move", "observe"] }).notNull(),
+    // The holder before a move, kept so that a correction can hand the lot back.
+    previousPartyId: text("previous_party_id"),
+  },
+  (t) => [index("event_inputs_event_idx").on(t.eventId), index("event_inputs_lot_idx").on(t.lotId)],
+);
+
+export const eventOutputs = sqliteTable(
+  "event_outputs",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    eventId: integer("event_id").notNull().references(() => events.id),
+    lotId: integer("lot_id").notNull().references(() => lots.id),
+    quantity: real("quantity").notNull(),
+    content: real("content").notNull(),
+  },
+  (t) => [index("event_outputs_event_idx").on(t.eventId), index("event_outputs_lot_idx").on(t.lotId)],
+);
+
+/**
+ * Lineage edges: how much of a child lot's content an event brought from a parent lot.
+ * A child's share from a parent is the sum of its edges over its content_in; a reversal
+ * adds the same edge with a negative weight.
+ */
+export const lineageEdges = sqliteTable(
+  "lineage_edges",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    eventId: integer("event_id").notNull().references(() => events.id),
+    parentLotId: integer("parent_lot_id").notNull().references(() => lots.id),
+    childLotId: integer("child_lot_id").notNull().references(() => lots.id),
+    weight: real("weight").notNull(),
+  },
+  (t) => [index("lineage_child_idx").on(t.childLotId, t.parentLotId, t.weight), index("lineage_parent_idx").on(t.parentLotId, t.childLotId, t.weight)],
+);
+
+export const measurements = sqliteTable(
+  "measurements",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    eventId: integer("event_id").notNull().references(() => events.id),
+    lotId: integer("lot_id").references(() => lots.id),
+    name: text("name").notNull(),
+    value: real("value").notNull(),
+    unit: text("unit").notNull(),
+  },
+  (t) => [index("measurements_event_idx").on(t.eventId), index("measurements_lot_idx").on(t.lotId)],
+);
+
+/** The first answer to a write, replayed when the same Idempotency-Key comes again. */
+export const idempotencyKeys = sqliteTable("idempotency_keys", {
+  key: text("key").primaryKey(),
+  userId: text("user_id").notNull(),
+  requestHash: text("request_hash").notNull(),
+  status: integer("status").notNull(),
+  response: text("response").notNull(),
+  createdAt: integer("created_at", { mode: "timestamp_ms" }).notNull(),
+});
+
+export const lotCodeCounters = sqliteTable("lot_code_counters", {
+  prefix: text("prefix").primaryKey(),
+  last: integer("last").notNull(),
+});
+
+export const attachments = sqliteTable(
+  "attachments",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    lotId: integer("lot_id").references(() => lots.id),
+    eventId: integer("event_id").references(() => events.id),
+    sha256: text("sha256").notNull(),
+    fileName: text("file_name").notNull(),
+    contentType: text("content_type").notNull(),
+    size: integer("size").notNull(),
+    title: text("title").notNull().default(""),
+    userId: text("user_id").notNull().references(() => users.id),
+    createdAt: integer("created_at", { mode: "timestamp_ms" }).notNull(),
+  },
+  (t) => [index("attachments_lot_idx").on(t.lotId), index("attachments_event_idx").on(t.eventId)],
+);
+
+/** Brewery settings the office may change (bands, margins); defaults live in the code. */
+export const settings = sqliteTable("settings", {
+  key: text("key").primaryKey(),
+  value: text("value").notNull(),
+  updatedAt: integer("updated_at", { mode: "timestamp_ms" }).notNull(),
+  updatedBy: text("updated_by").notNull(),
+});

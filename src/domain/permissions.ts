@@ -20,6 +20,9 @@ export const PERMISSIONS = [
   "records:read-all",
   "ledger:read-own",
   "ledger:manage",
+  "lots:act-any",
+  "records:correct",
+  "settings:manage",
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
@@ -37,6 +40,9 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
     "provenance:read",
     "records:read-all",
     "ledger:manage",
+    "lots:act-any",
+    "records:correct",
+    "settings:manage",
   ],
   brewer: ["fields:read-all", "brewing:record", "provenance:read", "records:read-all"],
   grower: ["fields:write-own", "harvests:record-own", "ledger:read-own"],
@@ -83,3 +89,15 @@ export const HOME_FOR_ROLE: Record<Role, string> = {
   brewer: "/scan",
   sales: "/provenance",
 };
+
+/** Recording on a lot: the party holding it, or the office on anyone's behalf. */
+export function canActOnLot(actor: Actor | null, lot: { partyId: string }): boolean {
+  if (can(actor, "lots:act-any")) return true;
+  return Boolean(actor) && actor!.partyId === lot.partyId;
+}
+
+/** Corrections: the office, or the person who recorded the event. */
+export function canCorrect(actor: Actor | null, event: { userId: string }): boolean {
+  if (can(actor, "records:correct")) return true;
+  return Boolean(actor) && actor!.id === event.userId;
+}

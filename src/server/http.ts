@@ -103,3 +103,9 @@ export function appOrigin(request: { url: string; headers: Headers }): string {
   if (!host) return new URL(request.url).origin;
   return `${proto ?? new URL(request.url).protocol.replace(":", "")}://${host}`;
 }
+
+/** The floor's retry key: printable, at most 200 characters; anything else is ignored. */
+export function idempotencyKeyOf(request: Request): string | null {
+  const key = request.headers.get("idempotency-key")?.trim();
+  return key && key.length <= 200 && /^[\x21-\x7e]+$/.test(key) ? key : null;
+}

@@ -1,42 +1,128 @@
 import "server-only";
-import { and, desc, eq, gt } from "drizzle-orm";
+import { and, asc, desc, eq, gt, like, lt, or, sql, type SQL } from "drizzle-orm";
+import { alias } from "drizzle-orm/sqlite-core";
 import { fields, lots, parties } from "@/db/schema";
 import { can } from "@/domain/permissions";
 import { getDb } from "./db";
+import { notFound } from "./errors";
 import type { SessionUser } from "./session";
 
-const cardColumns = {
+const holder = alias(parties, "holder");
+
+/** Which lots a user may see: everything for roles that read all records, else their own party's. */
+export function visibleTo(actor: SessionUser): SQL | undefined {
+  if (can(actor, "records:read-all")) return undefined;
+  return or(eq(lots.partyId, actor.partyId), eq(lots.originPartyId, actor.partyId));
+}
+
+const lotColumns = {
+  id: lots.id,
   code: lots.code,
   kind: lots.kind,
   unit: lots.unit,
+  quantity: lots.quantityIn,
   onHand: lots.onHand,
   variety: lots.variety,
   cropYear: lots.cropYear,
   grade: lots.grade,
+  moisturePct: lots.moisturePct,
   polishingRatioPct: lots.polishingRatioPct,
-  partyName: parties.name,
+  attributes: lots.attributes,
+  partyId: holder.id,
+  partyName: holder.name,
+  fieldId: fields.id,
   fieldName: fields.name,
   region: fields.region,
   createdAt: lots.createdAt,
 };
 
-export type LotCard = { code: string; kind: string; unit: string; onHand: number; variety: string | null; cropYear: number | null; grade: string | null; polishingRatioPct: number | null; partyName: string; fieldName: string | null; region: string | null; createdAt: Date };
+type Row = { [K in keyof typeof lotColumns]: (typeof lotColumns)[K]["_"]["data"] | null } & { id: number; code: string; kind: string; unit: string; quantity: number; onHand: number; attributes: string; createdAt: Date };
 
-/** A lot as the scan and provenance screens show it; suppliers see only lots they hold. */
-export function findLotCard(actor: SessionUser, code: string): LotCard | null {
-  const where = can(actor, "records:read-all") ? eq(lots.code, code) : and(eq(lots.code, code), eq(lots.partyId, actor.partyId));
-  return getDb().select(cardColumns).from(lots).innerJoin(parties, eq(parties.id, lots.partyId)).leftJoin(fields, eq(fields.id, lots.fieldId)).where(where).get() ?? null;
+function selectLots() {
+  return getDb().select(lotColumns).from(lots).innerJoin(holder, eq(holder.id, lots.partyId)).leftJoin(fields, eq(fields.id, lots.fieldId));
+}
+
+/** The API's Lot shape (../shared/api.md). */
+export function toApiLot(r: Row) {
+  return {
+    code: r.code,
+    kind: r.kind,
+    unit: r.unit,
+    quantity: r.quantity,
+    onHand: r.onHand,
+    variety: r.variety ?? undefined,
+    cropYear: r.cropYear ?? undefined,
+    grade: r.grade ?? undefined,
+    moisturePct: r.moisturePct ?? undefined,
+    polishingRatioPct: r.polishingRatioPct ?? undefined,
+    party: { id: r.partyId!, name: r.partyName! },
+    field: r.fieldId ? { id: r.fieldId, name: r.fieldName!, region: r.region! } : undefined,
+    attributes: JSON.parse(r.attributes) as Record<string, unknown>,
+    createdAt: r.createdAt.toISOString(),
+  };
+}
+export type ApiLot = ReturnType<typeof toApiLot>;
+
+export function getLot(actor: SessionUser, code: string): ApiLot {
+  const row = selectLots().where(and(eq(lots.code, code), visibleTo(actor))).get();
+  if (!row) throw notFound(`Lot ${code}`);
+  return toApiLot(row as Row);
+}
+
+export function findLot(actor: SessionUser, code: string): ApiLot | null {
+  const row = selectLots().where(and(eq(lots.code, code), visibleTo(actor))).get();
+  return row ? toApiLot(row as Row) : null;
+}
+
+export function findLotId(actor: SessionUser, code: string): number | null {
+  return getDb().select({ id: lots.id }).from(lots).where(and(eq(lots.code, code), visibleTo(actor))).get()?.id ?? null;
+}
+
+export const LOT_SORTS = ["newest", "oldest", "code", "onHand"] as const;
+export type LotQuery = {
+  kind?: string;
+  q?: string;
+  variety?: string;
+  cropYear?: number;
+  partyId?: string;
+  grade?: string;
+  sort?: (typeof LOT_SORTS)[number];
+  limit: number;
+  offset?: number;
+  cursor?: number;
+};
+
+/** Lots for tables and the API: filters, search on code, keyset pages by id (newest first). */
+export function listLots(actor: SessionUser, query: LotQuery) {
+  const filters = and(
+    visibleTo(actor),
+    query.kind ? eq(lots.kind, query.kind as never) : undefined,
+    query.q ? like(lots.code, `%${query.q.replace(/[%_]/g, "")}%`) : undefined,
+    query.variety ? eq(lots.variety, query.variety) : undefined,
+    query.cropYear ? eq(lots.cropYear, query.cropYear) : undefined,
+    query.partyId ? eq(lots.partyId, query.partyId) : undefined,
+    query.grade ? eq(lots.grade, query.grade) : undefined,
+  );
+  const where = and(filters, query.cursor ? lt(lots.id, query.cursor) : undefined);
+  const order =
+    query.sort === "oldest" ? asc(lots.id) : query.sort === "code" ? asc(lots.code) : query.sort === "onHand" ? desc(lots.onHand) : desc(lots.id);
+  const rows = selectLots()
+    .where(where)
+    .orderBy(order)
+    .limit(query.limit + 1)
+    .offset(query.offset ?? 0)
+    .all() as Row[];
+  const page = rows.slice(0, query.limit);
+  const total = getDb().select({ n: sql<number>`count(*)` }).from(lots).where(filters).get()!.n;
+  return {
+    items: page.map(toApiLot),
+    nextCursor: rows.length > query.limit && (!query.sort || query.sort === "newest") ? String(page[page.length - 1]!.id) : null,
+    total,
+  };
 }
 
 /** Harvest lots a mill holds with rice still on hand: its polishing queue. */
-export function listAwaitingPolishing(millPartyId: string | null): LotCard[] {
-  const held = millPartyId ? eq(lots.partyId, millPartyId) : eq(parties.kind, "mill");
-  return getDb()
-    .select(cardColumns)
-    .from(lots)
-    .innerJoin(parties, eq(parties.id, lots.partyId))
-    .leftJoin(fields, eq(fields.id, lots.fieldId))
-    .where(and(eq(lots.kind, "harvest"), gt(lots.onHand, 0), held))
-    .orderBy(desc(lots.createdAt))
-    .all();
+export function listAwaitingPolishing(millPartyId: string | null) {
+  const held = millPartyId ? eq(lots.partyId, millPartyId) : eq(holder.kind, "mill");
+  return (selectLots().where(and(eq(lots.kind, "harvest"), gt(lots.onHand, 0), held)).orderBy(desc(lots.createdAt)).all() as Row[]).map(toApiLot);
 }

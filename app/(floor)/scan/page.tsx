@@ -2,7 +2,7 @@ import { getTranslations } from "next-intl/server";
 import { LotCardView } from "@/components/lot-card-view";
 import { LotLookupForm } from "@/components/lot-lookup-form";
 import { normaliseLotCode } from "@/domain/lot-code";
-import { findLotCard } from "@/server/lots";
+import { findLot } from "@/server/lots";
 import { requirePagePermission } from "@/server/page-guard";
 
 export async function generateMetadata() {
@@ -13,7 +13,7 @@ export default async function ScanPage({ searchParams }: { searchParams: Promise
   const user = await requirePagePermission("brewing:record");
   const t = await getTranslations();
   const code = normaliseLotCode((await searchParams).code ?? "");
-  const lot = code ? findLotCard(user, code) : null;
+  const lot = code ? findLot(user, code) : null;
   return (
     <div className="space-y-6">
       <header>

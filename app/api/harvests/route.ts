@@ -1,0 +1,10 @@
+import { harvestSchema } from "@/lib/validation/events";
+import { handle, idempotencyKeyOf, readJson, requireApiUser } from "@/server/http";
+import { registerHarvest } from "@/server/harvests";
+
+export const POST = handle(async (request, { t }) => {
+  const actor = await requireApiUser(request);
+  const input = await readJson(request, harvestSchema, t);
+  const { status, body } = registerHarvest(actor, input, t, idempotencyKeyOf(request));
+  return Response.json(body, { status });
+});

@@ -1,0 +1,90 @@
+import "server-only";
+import { eq, sql } from "drizzle-orm";
+import type { DbOrTx } from "@/db/client";
+import { eventInputs, eventOutputs, events, lineageEdges, lots } from "@/db/schema";
+import { canCorrect } from "@/domain/permissions";
+import type { EventInput } from "@/lib/validation/events";
+import type { Translate } from "@/lib/validation/field-errors";
+import { AppError, forbidden, invalid } from "./errors";
+import type { SessionUser } from "./session";
+
+const EPS = 1e-6;
+
+/**
+ * A correction is a new event that undoes an earlier one: what it made is taken back,
+ * what it drew is returned, lots it moved go back to their holder, and its lineage edges
+ * are cancelled by edges of opposite weight. The earlier event stays as it was.
+ */
+export function correctEvent(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Translate) {
+  const errors: Record<string, string[]> = {};
+  if (!input.corrects) errors.corrects = [t("validation.required")];
+  if (!input.reason || input.reason.length < 3) errors.reason = [t("validation.needsReason")];
+  if (input.inputs.length || input.outputs.length) errors.inputs = [t("validation.notForStep")];
+  if (Object.keys(errors).length) throw invalid(errors);
+
+  const original = tx.select().from(events).where(eq(events.id, input.corrects!)).get();
+  if (!original || original.step === "correcting") throw invalid({ corrects: [t("validation.cannotCorrect")] });
+  if (!canCorrect(actor, original)) throw forbidden("Only the office or the person who recorded it may correct this event.");
+  if (tx.select({ id: events.id }).from(events).where(eq(events.corrects, original.id)).get()) {
+    throw new AppError("conflict", "This event has already been corrected.", { corrects: [t("validation.alreadyCorrected")] });
+  }
+
+  const id = tx
+    .insert(events)
+    .values({
+      step: "correcting",
+      at: input.at ? new Date(input.at) : new Date(),
+      recordedAt: new Date(),
+      userId: actor.id,
+      partyId: actor.partyId,
+      counterpartyId: original.counterpartyId,
+      note: input.note ?? "",
+      corrects: original.id,
+      reason: input.reason!,
+    })
+    .returning({ id: events.id })
+    .get().id;
+
+  takeBackOutputs(tx, id, original.id);
+  returnInputs(tx, id, original);
+  const edges = tx.select().from(lineageEdges).where(eq(lineageEdges.eventId, original.id)).all();
+  if (edges.length) {
+    tx.insert(lineageEdges).values(edges.map((e) => ({ eventId: id, parentLotId: e.parentLotId, childLotId: e.childLotId, weight: -e.weight }))).run();
+  }
+  return { id, outputs: [], warnings: [] as string[] };
+}
+
+function takeBackOutputs(tx: DbOrTx, correctionId: number, originalId: number) {
+  for (const out of tx.select().from(eventOutputs).where(eq(eventOutputs.eventId, originalId)).all()) {
+    const changed = tx
+      .update(lots)
+      .set({
+        onHand: sql`${lots.onHand} - ${out.quantity}`,
+        quantityIn: sql`${lots.quantityIn} - ${out.quantity}`,
+        contentIn: sql`${lots.contentIn} - ${out.content}`,
+      })
+      .where(sql`${lots.id} = ${out.lotId} and ${lots.onHand} + ${EPS} >= ${out.quantity}`)
+      .run().changes;
+    if (changed === 0) {
+      const lot = tx.select({ code: lots.code }).from(lots).where(eq(lots.id, out.lotId)).get()!;
+      throw new AppError("conflict", `Lot ${lot.code} has already been used by later events; correct those first.`);
+    }
+    tx.insert(eventInputs).values({ eventId: correctionId, lotId: out.lotId, quantity: out.quantity, content: out.content, use: "draw" }).run();
+  }
+}
+
+function returnInputs(tx: DbOrTx, correctionId: number, original: typeof events.$inferSelect) {
+  // Where a move took the lot: the receiving party, or the party shipped to.
+  const destination = original.step === "receiving" ? original.partyId : original.counterpartyId;
+  for (const input of tx.select().from(eventInputs).where(eq(eventInputs.eventId, original.id)).all()) {
+    if (input.use === "draw") {
+      tx.update(lots).set({ onHand: sql`${lots.onHand} + ${input.quantity}` }).where(eq(lots.id, input.lotId)).run();
+      tx.insert(eventOutputs).values({ eventId: correctionId, lotId: input.lotId, quantity: input.quantity, content: input.content }).run();
+    } else if (input.use === "move" && input.previousPartyId) {
+      const lot = tx.select().from(lots).where(eq(lots.id, input.lotId)).get()!;
+      if (lot.partyId !== destination) throw new AppError("conflict", `Lot ${lot.code} has moved on since; correct the later move first.`);
+      tx.insert(eventInputs).values({ eventId: correctionId, lotId: lot.id, quantity: lot.onHand, content: 0, use: "move", previousPartyId: lot.partyId }).run();
+      tx.update(lots).set({ partyId: input.previousPartyId }).where(eq(lots.id, lot.id)).run();
+    }
+  }
+}

@@ -1,0 +1,300 @@
+import "server-only";
+import { eq, inArray, sql } from "drizzle-orm";
+import type { DbOrTx } from "@/db/client";
+import { eventInputs, eventOutputs, events, lineageEdges, lots, measurements, parties } from "@/db/schema";
+import { carryContent, contentOfDraw, edgesOf } from "@/domain/composition";
+import { lowestGrade, type Grade } from "@/domain/grades";
+import { can, canActOnLot, type Permission } from "@/domain/permissions";
+import { STEP_RULES, UNIT_OF_KIND, type LotKind, type RecordableStep } from "@/domain/steps";
+import type { EventInput, NewOutput } from "@/lib/validation/events";
+import type { Translate } from "@/lib/validation/field-errors";
+import { correctEvent } from "./corrections";
+import { getDb } from "./db";
+import { AppError, forbidden, invalid, type FieldErrors } from "./errors";
+import { remember, replay, requestHash, type StoredResponse } from "./idempotency";
+import { allocateLotCode } from "./lot-codes";
+import { checkPolishingRun } from "./polishing-runs";
+import type { SessionUser } from "./session";
+
+export type LotRow = typeof lots.$inferSelect;
+export type OutputSummary = { code: string; kind: LotKind; quantity: number; unit: string };
+export type EventResult = { id: number; outputs: OutputSummary[]; warnings: string[] };
+
+/** Tolerance for float sums of weights (a milligram). */
+const EPS = 1e-6;
+
+/**
+ * Records one event in one IMMEDIATE transaction: the write lock is taken up front, so two
+ * phones drawing from one lot are served one after the other, never both from the same kilo.
+ * The same Idempotency-Key with the same body answers the first response again.
+ */
+export function recordEvent(actor: SessionUser, input: EventInput, t: Translate, idempotencyKey: string | null = null): StoredResponse {
+  const hash = requestHash({ path: "events", input });
+  return getDb().transaction(
+    (tx) => {
+      const replayed = replay(tx, idempotencyKey, actor.id, hash);
+      if (replayed) return replayed;
+      const body = input.step === "correcting" ? correctEvent(tx, actor, input, t) : applyStep(tx, actor, input, t);
+      const response = { status: 201, body };
+      remember(tx, idempotencyKey, actor.id, hash, response);
+      return response;
+    },
+    { behavior: "immediate" },
+  );
+}
+
+export function lotByCode(tx: DbOrTx, code: string): LotRow | undefined {
+  return tx.select().from(lots).where(eq(lots.code, code)).get();
+}
+
+function requireAny(actor: SessionUser, permission: Permission | readonly Permission[]) {
+  const list = Array.isArray(permission) ? permission : [permission];
+  if (!list.some((p) => can(actor, p as Permission))) throw forbidden();
+}
+
+type ResolvedOutput = { existing: LotRow | null; spec: NewOutput | null; kind: LotKind; quantity: number };
+
+function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Translate): EventResult {
+  const step = input.step as RecordableStep;
+  const rule = STEP_RULES[step];
+  requireAny(actor, rule.permission);
+  const errors: FieldErrors = {};
+  const fail = (field: string, message: string) => (errors[field] ??= []).push(message);
+
+  if (input.corrects !== undefined) fail("corrects", t("validation.notForStep"));
+  if (input.inputs.length < rule.minInputs) fail("inputs", t("validation.needsInputs", { count: rule.minInputs }));
+
+  const inLots = input.inputs.map((i, n) => {
+    const lot = lotByCode(tx, i.lot);
+    if (!lot) fail(`inputs.${n}.lot`, t("validation.unknownLot"));
+    else if (rule.inputKinds !== "any" && !(rule.inputKinds as readonly string[]).includes(lot.kind)) {
+      fail(`inputs.${n}.lot`, t("validation.kindNotAllowed", { step, kind: lot.kind }));
+    }
+    return lot;
+  });
+
+  const outs: ResolvedOutput[] = input.outputs.map((o, n) => {
+    if ("lot" in o && typeof o.lot === "string") {
+      const existing = lotByCode(tx, o.lot) ?? null;
+      if (!existing) fail(`outputs.${n}.lot`, t("validation.unknownLot"));
+      else if (!("addsToExisting" in rule) || !(rule.outputKinds as readonly string[]).includes(existing.kind)) {
+        fail(`outputs.${n}.lot`, t("validation.outputKindNotAllowed", { step, kind: existing.kind }));
+      }
+      return { existing, spec: null, kind: (existing?.kind ?? "tank") as LotKind, quantity: o.quantity };
+    }
+    const spec = o as NewOutput;
+    if (!(rule.outputKinds as readonly string[]).includes(spec.kind)) fail(`outputs.${n}.kind`, t("validation.outputKindNotAllowed", { step, kind: spec.kind }));
+    if (spec.unit && spec.unit !== UNIT_OF_KIND[spec.kind]) fail(`outputs.${n}.unit`, t("validation.unitNotAllowed", { kind: spec.kind, unit: UNIT_OF_KIND[spec.kind] }));
+    if (spec.kind === "bottled" && !(typeof spec.bottleMl === "number" && spec.bottleMl > 0)) fail(`outputs.${n}.bottleMl`, t("validation.required"));
+    return { existing: null, spec, kind: spec.kind, quantity: spec.quantity };
+  });
+  if (rule.content !== "none" && outs.length === 0) fail("outputs", t("validation.required"));
+  if (rule.content === "none" && outs.length > 0) fail("outputs", t("validation.notForStep"));
+  const inIds = new Set(inLots.map((l) => l?.id));
+  outs.forEach((o, n) => o.existing && inIds.has(o.existing.id) && fail(`outputs.${n}.lot`, t("validation.notForStep")));
+  if (Object.keys(errors).length) throw invalid(errors);
+  const held = inLots as LotRow[];
+
+  const eventParty = resolveEventParty(tx, actor, input, t);
+  const counterparty = resolveCounterparty(tx, step, input, held, t);
+  const moves = step === "receiving" || (step === "shipping" && counterparty?.kind !== "buyer");
+  const observes = step === "measuring";
+
+  // Ownership: you record on lots your party holds (or, measuring, lots your party made).
+  // A receipt is of lots the sender holds, taken in by the recording party.
+  for (const lot of held) {
+    if (step === "receiving") {
+      if (lot.partyId !== counterparty!.id || lot.partyId === eventParty) throw new AppError("conflict", `Lot ${lot.code} is not held by the sender.`);
+    } else if (!canActOnLot(actor, lot) && !(observes && lot.originPartyId === actor.partyId)) {
+      throw forbidden("This lot is not held by your party.");
+    }
+  }
+  for (const o of outs) if (o.existing && !canActOnLot(actor, o.existing)) throw forbidden("This lot is not held by your party.");
+
+  const warnings: string[] = [];
+  const polishing = step === "polishing" ? checkPolishingRun(tx, input, held, outs, t) : null;
+  if (polishing) warnings.push(...polishing.warnings);
+
+  // Draw (or move, or observe) each input.
+  const at = input.at ? new Date(input.at) : new Date();
+  const draws = held.map((lot, n) => {
+    const quantity = input.inputs[n]!.quantity;
+    if (observes) {
+      if (quantity !== 0) throw invalid({ [`inputs.${n}.quantity`]: [t("validation.tooBig", { maximum: 0 })] });
+      return { lot, quantity: 0, content: 0, use: "observe" as const };
+    }
+    if (moves) {
+      if (Math.abs(quantity - lot.onHand) > EPS) throw invalid({ [`inputs.${n}.quantity`]: [t("validation.wholeLotOnly", { onHand: lot.onHand, unit: lot.unit })] });
+      return { lot, quantity, content: 0, use: "move" as const };
+    }
+    if (!(quantity > 0)) throw invalid({ [`inputs.${n}.quantity`]: [t("validation.tooSmall", { minimum: 0 })] });
+    return { lot, quantity, content: contentOfDraw(quantity, lot), use: "draw" as const };
+  });
+  drawFromOnHand(tx, draws, t);
+
+  const eventId = tx
+    .insert(events)
+    .values({
+      step,
+      at,
+      recordedAt: new Date(),
+      userId: actor.id,
+      partyId: eventParty,
+      counterpartyId: counterparty?.id ?? null,
+      place: input.place ?? "",
+      referenceDoc: input.referenceDoc ?? "",
+      note: input.note ?? "",
+      reason: "",
+      attributes: JSON.stringify(polishing?.attributes ?? {}),
+    })
+    .returning({ id: events.id })
+    .get().id;
+
+  for (const d of draws) {
+    const newHolder = d.use === "move" ? (step === "receiving" ? eventParty : counterparty!.id) : null;
+    tx.insert(eventInputs).values({ eventId, lotId: d.lot.id, quantity: d.quantity, content: d.content, use: d.use, previousPartyId: newHolder ? d.lot.partyId : null }).run();
+    if (newHolder) tx.update(lots).set({ partyId: newHolder }).where(eq(lots.id, d.lot.id)).run();
+  }
+
+  const outputs = writeOutputs(tx, { eventId, at, step, eventParty, draws, outs, polishedRatio: polishing?.achievedPct ?? null, rule: rule.content });
+  writeMeasurements(tx, eventId, input, held, outputs.lots, t);
+  return { id: eventId, outputs: outputs.summary, warnings };
+}
+
+function resolveEventParty(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Translate): string {
+  if (!input.partyId || input.partyId === actor.partyId) return actor.partyId;
+  // Only the office records on another party's behalf (e.g. a receipt at the mill).
+  if (!can(actor, "lots:act-any")) throw forbidden("You record events only for your own party.");
+  if (!tx.select({ id: parties.id }).from(parties).where(eq(parties.id, input.partyId)).get()) throw invalid({ partyId: [t("validation.unknownParty")] });
+  return input.partyId;
+}
+
+function resolveCounterparty(tx: DbOrTx, step: RecordableStep, input: EventInput, held: LotRow[], t: Translate) {
+  const id = input.counterpartyId ?? (step === "receiving" ? held[0]?.partyId : undefined);
+  if (!id) {
+    if (step === "shipping") throw invalid({ counterpartyId: [t("validation.needsCounterparty")] });
+    return null;
+  }
+  const party = tx.select({ id: parties.id, kind: parties.kind }).from(parties).where(eq(parties.id, id)).get();
+  if (!party) throw invalid({ counterpartyId: [t("validation.unknownCounterparty")] });
+  return party;
+}
+
+/** Takes each draw off on-hand only if that much is there; otherwise 409 and nothing changes. */
+function drawFromOnHand(tx: DbOrTx, draws: { lot: LotRow; quantity: number; use: string }[], t: Translate) {
+  const totals = new Map<number, { lot: LotRow; quantity: number; index: number }>();
+  draws.forEach((d, index) => {
+    if (d.use !== "draw") return;
+    const entry = totals.get(d.lot.id) ?? { lot: d.lot, quantity: 0, index };
+    entry.quantity += d.quantity;
+    totals.set(d.lot.id, entry);
+  });
+  for (const { lot, quantity, index } of totals.values()) {
+    const changed = tx
+      .update(lots)
+      .set({ onHand: sql`${lots.onHand} - ${quantity}` })
+      .where(sql`${lots.id} = ${lot.id} and ${lots.onHand} + ${EPS} >= ${quantity}`)
+      .run().changes;
+    if (changed === 0) {
+      const onHand = tx.select({ onHand: lots.onHand }).from(lots).where(eq(lots.id, lot.id)).get()!.onHand;
+      throw new AppError("conflict", `Lot ${lot.code} has only ${onHand} ${lot.unit} on hand.`, {
+        [`inputs.${index}.quantity`]: [t("validation.overdraw", { onHand, unit: lot.unit })],
+      });
+    }
+  }
+}
+
+type WriteContext = {
+  eventId: number;
+  at: Date;
+  step: RecordableStep;
+  eventParty: string;
+  draws: { lot: LotRow; content: number; use: string }[];
+  outs: ResolvedOutput[];
+  polishedRatio: number | null;
+  rule: "carry" | "restart" | "none";
+};
+
+/** Creates or tops up the output lots, with their content and lineage edges. */
+function writeOutputs(tx: DbOrTx, c: WriteContext) {
+  const inputsDrawn = c.draws.filter((d) => d.use === "draw");
+  const totalIn = inputsDrawn.reduce((a, d) => a + d.content, 0);
+  const contents =
+    c.rule === "carry"
+      ? carryContent(totalIn, c.outs.map((o) => o.quantity))
+      : c.outs.map((o) => (o.kind === "bottled" ? (o.quantity * Number(o.spec?.bottleMl ?? 0)) / 1000 : o.quantity));
+  const inherited = inheritAttributes(inputsDrawn.map((d) => d.lot));
+  const written: LotRow[] = [];
+  const summary: OutputSummary[] = [];
+  c.outs.forEach((o, n) => {
+    const content = contents[n]!;
+    let lot = o.existing;
+    if (!lot) {
+      const { kind, quantity: _q, unit: _u, ...attributes } = o.spec!;
+      lot = tx
+        .insert(lots)
+        .values({
+          code: allocateLotCode(tx, kind, c.at),
+          kind,
+          unit: UNIT_OF_KIND[kind],
+          partyId: c.eventParty,
+          originPartyId: c.eventParty,
+          ...inherited,
+          polishingRatioPct: kind === "polished" && c.polishedRatio != null ? c.polishedRatio : inherited.polishingRatioPct,
+          attributes: JSON.stringify(attributes),
+          createdAt: c.at,
+        })
+        .returning()
+        .get();
+    }
+    tx.update(lots)
+      .set({ quantityIn: sql`${lots.quantityIn} + ${o.quantity}`, onHand: sql`${lots.onHand} + ${o.quantity}`, contentIn: sql`${lots.contentIn} + ${content}` })
+      .where(eq(lots.id, lot.id))
+      .run();
+    tx.insert(eventOutputs).values({ eventId: c.eventId, lotId: lot.id, quantity: o.quantity, content }).run();
+    written.push(lot);
+    summary.push({ code: lot.code, kind: lot.kind, quantity: o.quantity, unit: lot.unit });
+  });
+  const edges = edgesOf(
+    inputsDrawn.map((d) => ({ lotId: d.lot.id, content: d.content })),
+    written.map((lot, n) => ({ lotId: lot.id, content: contents[n]! })),
+  );
+  if (edges.length) tx.insert(lineageEdges).values(edges.map((e) => ({ ...e, eventId: c.eventId }))).run();
+  return { lots: written, summary };
+}
+
+/**
+ * What a new lot inherits from the lots it was made from: a variety or crop year only when
+ * they all agree, the worst grade, and the highest (least polished) polishing ratio —
+ * the figure a label claim must stand on.
+ */
+export function inheritAttributes(sources: LotRow[]) {
+  const same = <T,>(values: T[]): T | null => (values.length && values.every((v) => v === values[0]) ? values[0]! : null);
+  const ratios = sources.map((l) => l.polishingRatioPct).filter((v): v is number => v != null);
+  const grades = sources.map((l) => l.grade).filter((g): g is Grade => g != null);
+  return {
+    variety: same(sources.map((l) => l.variety)),
+    cropYear: same(sources.map((l) => l.cropYear)),
+    grade: lowestGrade(grades),
+    moisturePct: null,
+    fieldId: same(sources.map((l) => l.fieldId)),
+    polishingRatioPct: ratios.length ? Math.max(...ratios) : null,
+  };
+}
+
+function writeMeasurements(tx: DbOrTx, eventId: number, input: EventInput, held: LotRow[], made: LotRow[], t: Translate) {
+  if (!input.measurements.length) return;
+  const known = new Map([...held, ...made].map((l) => [l.code, l.id]));
+  const rows = input.measurements.map((m, n) => {
+    let lotId: number | null = made[0]?.id ?? held[0]?.id ?? null;
+    if (m.lot) {
+      const id = known.get(m.lot);
+      if (id === undefined) throw invalid({ [`measurements.${n}.lot`]: [t("validation.unknownLot")] });
+      lotId = id;
+    }
+    return { eventId, lotId, name: m.name, value: m.value, unit: m.unit };
+  });
+  tx.insert(measurements).values(rows).run();
+  const moisture = input.measurements.find((m) => m.name === "moisturePct" && !m.lot);
+  if (moisture && made[0]) tx.update(lots).set({ moisturePct: moisture.value }).where(inArray(lots.id, [made[0].id])).run();
+}

@@ -1,0 +1,216 @@
+import { beforeAll, describe, expect, it } from "vitest";
+import { POST as postEvent } from "../../app/api/events/route";
+import { POST as postHarvest } from "../../app/api/harvests/route";
+import { GET as getLotRoute } from "../../app/api/lots/[code]/route";
+import { GET as getLotEvents } from "../../app/api/lots/[code]/events/route";
+import { getSqlite } from "@/server/db";
+import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
+
+let grower: string, grower2: string, miller: string, admin: string;
+
+const harvest = (cookie: string, body: Record<string, unknown>, headers: Record<string, string> = {}) =>
+  call(postHarvest, jsonRequest("/api/harvests", { cookie, body: { fieldId: "field-ikeda-terrace", variety: "Yamada Nishiki", cropYear: 2026, brownKg: 600, moisturePct: 14.8, grade: "1", bags: 10, ...body }, headers }));
+const event = (cookie: string, body: unknown, headers: Record<string, string> = {}) => call(postEvent, jsonRequest("/api/events", { cookie, body, headers }));
+const lot = async (cookie: string, code: string) => (await call(getLotRoute, jsonRequest(`/api/lots/${code}`, { cookie }), { code })).body;
+
+beforeAll(async () => {
+  [grower, grower2, miller, admin] = await Promise.all(["grower@example.com", "grower2@example.com", "miller@example.com", "admin@example.com"].map((e) => signInAs(e)));
+});
+
+describe("append-only at the database", () => {
+  it("refuses UPDATE and DELETE on events and their rows", async () => {
+    const res = await harvest(grower, {});
+    expect(res.status).toBe(201);
+    // One row in every ledger table, so that each trigger has something to guard.
+    await event(miller, { step: "receiving", inputs: [{ lot: res.body.code, quantity: 600 }] });
+    const measured = await event(miller, { step: "measuring", inputs: [{ lot: res.body.code, quantity: 0 }], measurements: [{ name: "moisturePct", value: 14.6, unit: "%" }] });
+    expect(measured.status).toBe(201);
+    const sqlite = getSqlite();
+    for (const table of ["events", "event_inputs", "event_outputs", "measurements"]) {
+      expect((sqlite.prepare(`select count(*) as n from ${table}`).get() as { n: number }).n, table).toBeGreaterThan(0);
+    }
+    for (const statement of [
+      "update events set note = 'changed'",
+      "delete from events",
+      "update event_outputs set quantity = 1",
+      "delete from event_outputs",
+      "update event_inputs set quantity = 1",
+      "delete from event_inputs",
+      "update measurements set value = 0",
+      "delete from measurements",
+    ]) {
+      expect(() => sqlite.prepare(statement).run(), statement).toThrow(/append-only/);
+    }
+  });
+});
+
+describe("harvest lots", () => {
+  it("registers on the grower's own field with a GS1-safe code", async () => {
+    const res = await harvest(grower, { brownKg: 720, bags: 12 });
+    expect(res.status).toBe(201);
+    expect(res.body.code).toMatch(/^H26-\d{4}$/);
+    const created = await lot(grower, res.body.code);
+    expect(created).toMatchObject({ kind: "harvest", unit: "kg", quantity: 720, onHand: 720, variety: "Yamada Nishiki", cropYear: 2026, grade: "1", moisturePct: 14.8, party: { id: "grower-ikeda" }, field: { id: "field-ikeda-terrace", region: "Hyogo" } });
+  });
+
+  it("refuses another grower's field with 403 and changes nothing", async () => {
+    const before = await tableDigests();
+    const res = await harvest(grower2, {});
+    expect(res.status).toBe(403);
+    expect(await tableDigests()).toEqual(before);
+  });
+
+  it("answers 422 with field errors for a bad harvest, changing nothing", async () => {
+    const before = await tableDigests();
+    const res = await harvest(grower, { brownKg: -5, grade: "premium", cropYear: 1890, variety: "" });
+    expect(res.status).toBe(422);
+    expect(Object.keys(res.body.error.fields).sort()).toEqual(["brownKg", "cropYear", "grade", "variety"]);
+    // MAFF: above 15.0 % moisture brown rice takes no grade.
+    const wet = await harvest(grower, { moisturePct: 16.2, grade: "2" });
+    expect(wet.status).toBe(422);
+    expect(wet.body.error.fields.grade).toBeDefined();
+    expect(await tableDigests()).toEqual(before);
+  });
+
+  it("is not visible to another grower", async () => {
+    const res = await harvest(grower, {});
+    expect((await call(getLotRoute, jsonRequest(`/api/lots/${res.body.code}`, { cookie: grower2 }), { code: res.body.code })).status).toBe(404);
+  });
+});
+
+describe("receipt and polishing run at the mill", () => {
+  let h1: string, h2: string;
+  beforeAll(async () => {
+    h1 = (await harvest(grower, { brownKg: 600 })).body.code;
+    h2 = (await harvest(admin, { fieldId: "field-nakase-river", brownKg: 400, grade: "2" })).body.code;
+    for (const [code, from] of [[h1, "grower-ikeda"], [h2, "grower-nakase"]] as const) {
+      const qty = (await lot(admin, code)).onHand;
+      const res = await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: qty }], counterpartyId: from, referenceDoc: `DS-${code}` });
+      expect(res.status).toBe(201);
+    }
+  });
+
+  it("moves the received lots to the mill", async () => {
+    expect((await lot(miller, h1)).party.id).toBe("mill-shirotae");
+  });
+
+  it("makes a polished lot and a bran lot from two harvest lots, with the achieved ratio", async () => {
+    const res = await event(miller, {
+      step: "polishing",
+      inputs: [{ lot: h1, quantity: 600 }, { lot: h2, quantity: 400 }],
+      outputs: [{ kind: "polished", quantity: 600 }, { kind: "bran", quantity: 385 }],
+      measurements: [
+        { name: "targetPolishingRatioPct", value: 60, unit: "%" },
+        { name: "thousandGrainWeightBrownG", value: 27, unit: "g" },
+        { name: "thousandGrainWeightPolishedG", value: 16.6, unit: "g" },
+      ],
+    });
+    expect(res.status).toBe(201);
+    expect(res.body.warnings).toEqual([]);
+    const [polished, bran] = res.body.outputs;
+    expect(polished).toMatchObject({ kind: "polished", quantity: 600, unit: "kg" });
+    expect(bran).toMatchObject({ kind: "bran", quantity: 385 });
+    const p = await lot(miller, polished.code);
+    expect(p.polishingRatioPct).toBe(60);
+    expect(p.grade).toBe("2"); // the worse of the two
+    const [run] = (await call(getLotEvents, jsonRequest(`/api/lots/${polished.code}/events`, { cookie: miller }), { code: polished.code })).body.items;
+    expect(run.attributes).toMatchObject({ brownKg: 1000, achievedPolishingRatioPct: 60, truePolishingRatioPct: 61.5, branYieldPct: 38.5 });
+    expect(run.inputs.map((i: { lot: string }) => i.lot).sort()).toEqual([h1, h2].sort());
+    // Lineage by brown weight: 60 % from the first harvest, 40 % from the second.
+    const edges = getSqlite()
+      .prepare("select p.code as parent, e.weight / c.content_in as share from lineage_edges e join lots p on p.id = e.parent_lot_id join lots c on c.id = e.child_lot_id where c.code = ?")
+      .all(polished.code) as { parent: string; share: number }[];
+    expect(Object.fromEntries(edges.map((e) => [e.parent, e.share]))).toEqual({ [h1]: 0.6, [h2]: 0.4 });
+    expect(() => getSqlite().prepare("update lineage_edges set weight = 0").run()).toThrow(/append-only/);
+    expect(() => getSqlite().prepare("delete from lineage_edges").run()).toThrow(/append-only/);
+  });
+
+  it("warns when the run misses its target by more than a point", async () => {
+    const h = (await harvest(grower, { brownKg: 500 })).body.code;
+    await event(miller, { step: "receiving", inputs: [{ lot: h, quantity: 500 }] });
+    const res = await event(miller, {
+      step: "polishing",
+      inputs: [{ lot: h, quantity: 500 }],
+      outputs: [{ kind: "polished", quantity: 310 }],
+      measurements: [{ name: "targetPolishingRatioPct", value: 60, unit: "%" }],
+    });
+    expect(res.status).toBe(201);
+    expect(res.body.warnings[0]).toMatch(/62 %.*target 60 %/);
+  });
+
+  it("refuses an over-draw with 409 and leaves every table as it was", async () => {
+    const h = (await harvest(grower, { brownKg: 300 })).body.code;
+    await event(miller, { step: "receiving", inputs: [{ lot: h, quantity: 300 }] });
+    const before = await tableDigests();
+    const res = await event(miller, { step: "polishing", inputs: [{ lot: h, quantity: 300.5 }], outputs: [{ kind: "polished", quantity: 200 }], measurements: [{ name: "targetPolishingRatioPct", value: 70, unit: "%" }] });
+    expect(res.status).toBe(409);
+    expect(res.body.error.fields["inputs.0.quantity"][0]).toMatch(/300 kg/);
+    expect(await tableDigests()).toEqual(before);
+  });
+
+  it("records an event once for one Idempotency-Key", async () => {
+    const h = (await harvest(grower, { brownKg: 200 })).body.code;
+    await event(miller, { step: "receiving", inputs: [{ lot: h, quantity: 200 }] });
+    const body = { step: "polishing", inputs: [{ lot: h, quantity: 100 }], outputs: [{ kind: "polished", quantity: 70 }], measurements: [{ name: "targetPolishingRatioPct", value: 70, unit: "%" }] };
+    const headers = { "idempotency-key": "floor-7f3a" };
+    const first = await event(miller, body, headers);
+    const again = await event(miller, body, headers);
+    expect(again.status).toBe(201);
+    expect(again.body).toEqual(first.body);
+    expect((await lot(miller, h)).onHand).toBe(100);
+    const other = await event(miller, { ...body, inputs: [{ lot: h, quantity: 50 }] }, headers);
+    expect(other.status).toBe(409);
+  });
+});
+
+describe("corrections", () => {
+  it("reverses a polishing run with a reason; both show on the lot's page; never twice", async () => {
+    const h = (await harvest(grower, { brownKg: 250 })).body.code;
+    await event(miller, { step: "receiving", inputs: [{ lot: h, quantity: 250 }] });
+    const run = await event(miller, { step: "polishing", inputs: [{ lot: h, quantity: 250 }], outputs: [{ kind: "polished", quantity: 175 }], measurements: [{ name: "targetPolishingRatioPct", value: 70, unit: "%" }] });
+    const polished = run.body.outputs[0].code;
+
+    const noReason = await event(admin, { step: "correcting", corrects: run.body.id });
+    expect(noReason.status).toBe(422);
+    expect(noReason.body.error.fields.reason).toBeDefined();
+    const notTheirs = await event(grower, { step: "correcting", corrects: run.body.id, reason: "wrong bag" });
+    expect(notTheirs.status).toBe(403);
+
+    const fix = await event(admin, { step: "correcting", corrects: run.body.id, reason: "Weighed on the wrong scale" });
+    expect(fix.status).toBe(201);
+    expect((await lot(miller, h)).onHand).toBe(250);
+    expect((await lot(miller, polished)).onHand).toBe(0);
+    const history = (await call(getLotEvents, jsonRequest(`/api/lots/${h}/events`, { cookie: admin }), { code: h })).body.items;
+    const steps = history.map((e: { step: string }) => e.step);
+    expect(steps).toEqual(["registering", "receiving", "polishing", "correcting"]);
+    expect(history[2].correctedBy).toBe(fix.body.id);
+    expect(history[3]).toMatchObject({ corrects: run.body.id, reason: "Weighed on the wrong scale", user: { name: "Mori Sachiko" } });
+    const twice = await event(admin, { step: "correcting", corrects: run.body.id, reason: "again" });
+    expect(twice.status).toBe(409);
+    // The reversed edges cancel: the emptied polished lot carries no share of anything.
+    const net = getSqlite().prepare("select sum(weight) as w from lineage_edges e join lots c on c.id = e.child_lot_id where c.code = ?").get(polished) as { w: number };
+    expect(Math.abs(net.w)).toBeLessThan(1e-9);
+  });
+
+  it("hands a received lot back to the sender", async () => {
+    const h = (await harvest(grower, { brownKg: 90 })).body.code;
+    const receipt = await event(miller, { step: "receiving", inputs: [{ lot: h, quantity: 90 }] });
+    await event(miller, { step: "correcting", corrects: receipt.body.id, reason: "Bag belonged to the next truck" });
+    expect((await lot(admin, h)).party.id).toBe("grower-ikeda");
+  });
+});
+
+describe("on hand follows from the events", () => {
+  it("equals what the event rows add up to, for every lot", () => {
+    const rows = getSqlite()
+      .prepare(
+        `select l.code, l.on_hand as onHand,
+           coalesce((select sum(quantity) from event_outputs o where o.lot_id = l.id), 0)
+         - coalesce((select sum(quantity) from event_inputs i where i.lot_id = l.id and i.use = 'draw'), 0) as fromEvents
+         from lots l`,
+      )
+      .all() as { code: string; onHand: number; fromEvents: number }[];
+    expect(rows.length).toBeGreaterThan(5);
+    for (const r of rows) expect(r.onHand, r.code).toBeCloseTo(r.fromEvents, 9);
+  });
+});
