@@ -1,6 +1,16 @@
 import { createTranslator } from "next-intl";
-import en from "./messages/en.json";
+import attachments from "./messages/en/attachments.json";
+import core from "./messages/en/core.json";
+import csv from "./messages/en/csv.json";
+import labels from "./messages/en/labels.json";
+import ledger from "./messages/en/ledger.json";
 import type { Locale } from "./locale";
+
+/**
+ * The English catalogue, kept in one file per area so that work on one area does not
+ * touch another's strings. Each file holds top-level namespaces; no two files share one.
+ */
+const en = { ...core, ...ledger, ...labels, ...csv, ...attachments };
 
 export type Messages = typeof en;
 const CATALOGUES: Record<Locale, Messages> = { en };

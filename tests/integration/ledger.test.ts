@@ -14,7 +14,10 @@ const event = (cookie: string, body: unknown, headers: Record<string, string> = 
 const lot = async (cookie: string, code: string) => (await call(getLotRoute, jsonRequest(`/api/lots/${code}`, { cookie }), { code })).body;
 
 beforeAll(async () => {
-  [grower, grower2, miller, admin] = await Promise.all(["grower@example.com", "grower2@example.com", "miller@example.com", "admin@example.com"].map((e) => signInAs(e)));
+  grower = await signInAs("grower@example.com");
+  grower2 = await signInAs("grower2@example.com");
+  miller = await signInAs("miller@example.com");
+  admin = await signInAs("admin@example.com");
 });
 
 describe("append-only at the database", () => {
