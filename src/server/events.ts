@@ -34,13 +34,17 @@ export function recordEvent(actor: SessionUser, input: EventInput, t: Translate,
     (tx) => {
       const replayed = replay(tx, idempotencyKey, actor.id, hash);
       if (replayed) return replayed;
-      const body = input.step === "correcting" ? correctEvent(tx, actor, input, t) : applyStep(tx, actor, input, t);
-      const response = { status: 201, body };
+      const response = { status: 201, body: applyEvent(tx, actor, input, t) };
       remember(tx, idempotencyKey, actor.id, hash, response);
       return response;
     },
     { behavior: "immediate" },
   );
+}
+
+/** Records one event inside a transaction the caller holds (an import commits many at once). */
+export function applyEvent(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Translate): EventResult {
+  return input.step === "correcting" ? correctEvent(tx, actor, input, t) : applyStep(tx, actor, input, t);
 }
 
 export function lotByCode(tx: DbOrTx, code: string): LotRow | undefined {

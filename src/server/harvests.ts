@@ -1,4 +1,5 @@
 import "server-only";
+import type { DbOrTx } from "@/db/client";
 import { eq } from "drizzle-orm";
 import { eventOutputs, events, fields, lots } from "@/db/schema";
 import { MAX_MOISTURE_PCT } from "@/domain/grades";
@@ -16,50 +17,55 @@ import type { SessionUser } from "./session";
  * grower. Its content is its brown weight — the basis polishing runs share by.
  */
 export function registerHarvest(actor: SessionUser, input: HarvestInput, t: Translate, idempotencyKey: string | null = null): StoredResponse {
-  if (!can(actor, "harvests:record-own") && !can(actor, "harvests:record-any")) throw forbidden();
-  // MAFF inspection standards: above 15.0 % moisture brown rice takes no grade.
-  if (input.moisturePct > MAX_MOISTURE_PCT && input.grade !== "out-of-grade") throw invalid({ grade: [t("validation.moistureTooHigh")] });
   const hash = requestHash({ path: "harvests", input });
   return getDb().transaction(
     (tx) => {
       const replayed = replay(tx, idempotencyKey, actor.id, hash);
       if (replayed) return replayed;
-      const field = tx.select().from(fields).where(eq(fields.id, input.fieldId)).get();
-      if (!field) throw invalid({ fieldId: [t("validation.unknownField")] });
-      if (!canRecordOnField(actor, field)) throw forbidden("You can record harvests only on your own fields.");
-      const at = input.at ? new Date(input.at) : new Date();
-      const eventId = tx
-        .insert(events)
-        .values({ step: "registering", at, recordedAt: new Date(), userId: actor.id, partyId: field.growerId, place: field.name, attributes: JSON.stringify({ bags: input.bags }) })
-        .returning({ id: events.id })
-        .get().id;
-      const lot = tx
-        .insert(lots)
-        .values({
-          code: allocateLotCode(tx, "harvest", at),
-          kind: "harvest",
-          unit: "kg",
-          partyId: field.growerId,
-          originPartyId: field.growerId,
-          fieldId: field.id,
-          variety: input.variety,
-          cropYear: input.cropYear,
-          grade: input.grade,
-          moisturePct: input.moisturePct,
-          attributes: JSON.stringify({ bags: input.bags }),
-          quantityIn: input.brownKg,
-          onHand: input.brownKg,
-          contentIn: input.brownKg,
-          createdAt: at,
-        })
-        .returning()
-        .get();
-      // A harvest lot is a source of the lineage graph: an output with no parents.
-      tx.insert(eventOutputs).values({ eventId, lotId: lot.id, quantity: input.brownKg, content: input.brownKg }).run();
-      const response = { status: 201, body: { code: lot.code, id: eventId } };
+      const response = { status: 201, body: registerHarvestInTx(tx, actor, input, t) };
       remember(tx, idempotencyKey, actor.id, hash, response);
       return response;
     },
     { behavior: "immediate" },
   );
+}
+
+/** Registers one harvest lot inside a transaction the caller holds. */
+export function registerHarvestInTx(tx: DbOrTx, actor: SessionUser, input: HarvestInput, t: Translate): { code: string; id: number } {
+  if (!can(actor, "harvests:record-own") && !can(actor, "harvests:record-any")) throw forbidden();
+  // MAFF inspection standards: above 15.0 % moisture brown rice takes no grade.
+  if (input.moisturePct > MAX_MOISTURE_PCT && input.grade !== "out-of-grade") throw invalid({ grade: [t("validation.moistureTooHigh")] });
+  const field = tx.select().from(fields).where(eq(fields.id, input.fieldId)).get();
+  if (!field) throw invalid({ fieldId: [t("validation.unknownField")] });
+  if (!canRecordOnField(actor, field)) throw forbidden("You can record harvests only on your own fields.");
+  const at = input.at ? new Date(input.at) : new Date();
+  const eventId = tx
+    .insert(events)
+    .values({ step: "registering", at, recordedAt: new Date(), userId: actor.id, partyId: field.growerId, place: field.name, attributes: JSON.stringify({ bags: input.bags }) })
+    .returning({ id: events.id })
+    .get().id;
+  const lot = tx
+    .insert(lots)
+    .values({
+      code: allocateLotCode(tx, "harvest", at),
+      kind: "harvest",
+      unit: "kg",
+      partyId: field.growerId,
+      originPartyId: field.growerId,
+      fieldId: field.id,
+      variety: input.variety,
+      cropYear: input.cropYear,
+      grade: input.grade,
+      moisturePct: input.moisturePct,
+      attributes: JSON.stringify({ bags: input.bags }),
+      quantityIn: input.brownKg,
+      onHand: input.brownKg,
+      contentIn: input.brownKg,
+      createdAt: at,
+    })
+    .returning()
+    .get();
+  // A harvest lot is a source of the lineage graph: an output with no parents.
+  tx.insert(eventOutputs).values({ eventId, lotId: lot.id, quantity: input.brownKg, content: input.brownKg }).run();
+  return { code: lot.code, id: eventId };
 }
