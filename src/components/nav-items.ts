@@ -1,24 +1,24 @@
-import { can, HOME_FOR_ROLE, type Actor, type Permission } from "@/domain/permissions";
+import { can, type Actor } from "@/domain/permissions";
 
-export type NavItem = { href: string; label: string; permission: Permission | null };
+export type NavItem = { href: string; label: string; show: (actor: Actor) => boolean };
+
+const everyone = () => true;
 
 /** Office navigation; an entry shows only to roles the server would let through. */
 export const OFFICE_NAV: NavItem[] = [
-  { href: "/overview", label: "overview", permission: "users:manage" },
-  { href: "/fields", label: "fields", permission: null },
-  { href: "/mill", label: "mill", permission: "polishing:record" },
-  { href: "/scan", label: "scan", permission: "brewing:record" },
-  { href: "/provenance", label: "provenance", permission: "provenance:read" },
-  { href: "/records", label: "records", permission: "audit:read" },
-  { href: "/admin/parties", label: "parties", permission: "parties:manage" },
-  { href: "/admin/users", label: "users", permission: "users:manage" },
-  { href: "/admin/outbox", label: "outbox", permission: "outbox:read" },
+  { href: "/overview", label: "overview", show: (a) => can(a, "users:manage") },
+  { href: "/fields", label: "fields", show: (a) => can(a, "fields:read-all") || can(a, "fields:write-own") },
+  { href: "/lots", label: "lots", show: everyone },
+  { href: "/mill", label: "mill", show: (a) => can(a, "polishing:record") },
+  { href: "/receive", label: "receive", show: (a) => can(a, "polishing:record") || can(a, "brewing:record") },
+  { href: "/scan", label: "scan", show: (a) => can(a, "brewing:record") },
+  { href: "/provenance", label: "provenance", show: (a) => can(a, "provenance:read") },
+  { href: "/records", label: "records", show: (a) => can(a, "audit:read") },
+  { href: "/admin/parties", label: "parties", show: (a) => can(a, "parties:manage") },
+  { href: "/admin/users", label: "users", show: (a) => can(a, "users:manage") },
+  { href: "/admin/outbox", label: "outbox", show: (a) => can(a, "outbox:read") },
 ];
 
 export function navFor(actor: Actor): NavItem[] {
-  return OFFICE_NAV.filter((item) =>
-    item.permission ? can(actor, item.permission) : can(actor, "fields:read-all") || can(actor, "fields:write-own"),
-  );
+  return OFFICE_NAV.filter((item) => item.show(actor));
 }
-
-export const homeFor = (actor: Actor) => HOME_FOR_ROLE[actor.role];

@@ -78,7 +78,8 @@ export function findLotId(actor: SessionUser, code: string): number | null {
   return getDb().select({ id: lots.id }).from(lots).where(and(eq(lots.code, code), visibleTo(actor))).get()?.id ?? null;
 }
 
-export const LOT_SORTS = ["newest", "oldest", "code", "onHand"] as const;
+export const LOT_SORTS = ["createdAt", "code", "kind", "variety", "cropYear", "grade", "onHand"] as const;
+const SORT_COLUMNS = { createdAt: lots.id, code: lots.code, kind: lots.kind, variety: lots.variety, cropYear: lots.cropYear, grade: lots.grade, onHand: lots.onHand };
 export type LotQuery = {
   kind?: string;
   q?: string;
@@ -87,6 +88,7 @@ export type LotQuery = {
   partyId?: string;
   grade?: string;
   sort?: (typeof LOT_SORTS)[number];
+  dir?: "asc" | "desc";
   limit: number;
   offset?: number;
   cursor?: number;
@@ -104,11 +106,12 @@ export function listLots(actor: SessionUser, query: LotQuery) {
     query.grade ? eq(lots.grade, query.grade) : undefined,
   );
   const where = and(filters, query.cursor ? lt(lots.id, query.cursor) : undefined);
-  const order =
-    query.sort === "oldest" ? asc(lots.id) : query.sort === "code" ? asc(lots.code) : query.sort === "onHand" ? desc(lots.onHand) : desc(lots.id);
+  const column = SORT_COLUMNS[query.sort ?? "createdAt"];
+  const direction = query.dir ?? (query.sort && query.sort !== "createdAt" && query.sort !== "onHand" ? "asc" : "desc");
+  const keyset = !query.sort || (query.sort === "createdAt" && direction === "desc");
   const rows = selectLots()
-    .where(where)
-    .orderBy(order)
+    .where(keyset ? where : filters)
+    .orderBy(direction === "asc" ? asc(column) : desc(column), desc(lots.id))
     .limit(query.limit + 1)
     .offset(query.offset ?? 0)
     .all() as Row[];
@@ -116,7 +119,8 @@ export function listLots(actor: SessionUser, query: LotQuery) {
   const total = getDb().select({ n: sql<number>`count(*)` }).from(lots).where(filters).get()!.n;
   return {
     items: page.map(toApiLot),
-    nextCursor: rows.length > query.limit && (!query.sort || query.sort === "newest") ? String(page[page.length - 1]!.id) : null,
+    // Keyset cursors for the default order (newest first); other orders page by offset.
+    nextCursor: rows.length > query.limit && keyset ? String(page[page.length - 1]!.id) : null,
     total,
   };
 }

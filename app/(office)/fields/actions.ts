@@ -1,10 +1,13 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
+import { z } from "zod";
 import { formValues, type FormState } from "@/lib/form-state";
+import { harvestSchema } from "@/lib/validation/events";
 import { fieldSchema } from "@/lib/validation/fields";
 import { guardAction } from "@/server/action";
 import { createField } from "@/server/fields";
+import { registerHarvest } from "@/server/harvests";
 import { requireUser } from "@/server/session";
 
 export async function createFieldAction(_prev: FormState, formData: FormData): Promise<FormState> {
@@ -14,5 +17,27 @@ export async function createFieldAction(_prev: FormState, formData: FormData): P
     createField(actor, fieldSchema.parse(values), t);
     revalidatePath("/fields");
     return { ok: true, message: t("fields.saved") };
+  });
+}
+
+const harvestForm = z.object({
+  fieldId: z.string().min(1).max(64),
+  variety: z.string(),
+  cropYear: z.coerce.number(),
+  brownKg: z.coerce.number(),
+  moisturePct: z.coerce.number(),
+  grade: z.string(),
+  bags: z.coerce.number(),
+});
+
+export async function registerHarvestAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const values = formValues(formData);
+  return guardAction(values, async (t) => {
+    const actor = await requireUser();
+    const input = harvestSchema.parse(harvestForm.parse(values));
+    const { body } = registerHarvest(actor, input, t);
+    revalidatePath("/fields");
+    const code = (body as { code: string }).code;
+    return { ok: true, message: t("harvest.saved", { code }), values: { code } };
   });
 }

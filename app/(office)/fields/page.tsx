@@ -3,7 +3,10 @@ import { getTranslations } from "next-intl/server";
 import { can } from "@/domain/permissions";
 import { listFields } from "@/server/fields";
 import { requirePageUser } from "@/server/page-guard";
+import { listLots } from "@/server/lots";
 import { listParties } from "@/server/parties";
+import { LotsTable } from "@/components/lots-table";
+import { HarvestForm } from "./harvest-form";
 import { FieldForm, FieldsTable } from "./components";
 
 export async function generateMetadata() {
@@ -16,6 +19,7 @@ export default async function FieldsPage() {
   if (!readsAll && !can(user, "fields:write-own")) forbidden();
   const t = await getTranslations();
   const rows = listFields(user).map(({ id, name, region, areaHa, growerName }) => ({ id, name, region, areaHa, growerName }));
+  const harvestLots = listLots(user, { kind: "harvest", limit: 200 }).items;
   const canWrite = can(user, "fields:write-any") || can(user, "fields:write-own");
   const growers = can(user, "fields:write-any") ? listParties("grower").map(({ id, name }) => ({ id, name })) : null;
   return (
@@ -25,6 +29,17 @@ export default async function FieldsPage() {
         <p className="text-ink-soft">{readsAll ? t("home.fieldsIntroAll") : t("home.fieldsIntro")}</p>
       </header>
       <FieldsTable rows={rows} showGrower={readsAll} />
+      {can(user, "harvests:record-own") || can(user, "harvests:record-any") ? (
+        <section className="panel">
+          <h2 className="text-xl font-bold">{t("harvest.title")}</h2>
+          <p className="mb-4 text-sm text-ink-soft">{t("harvest.intro")}</p>
+          <HarvestForm fields={rows.map(({ id, name, growerName }) => ({ id, name: readsAll ? `${growerName} — ${name}` : name }))} defaultYear={new Date().getFullYear()} />
+        </section>
+      ) : null}
+      <section>
+        <h2 className="mb-3 text-xl font-bold">{readsAll ? t("harvest.lots") : t("harvest.myLots")}</h2>
+        <LotsTable rows={harvestLots} />
+      </section>
       {canWrite ? (
         <section className="panel">
           <h2 className="mb-4 text-xl font-bold">{t("fields.add")}</h2>

@@ -3,6 +3,7 @@ import { can } from "@/domain/permissions";
 import { listAwaitingPolishing } from "@/server/lots";
 import { requirePagePermission } from "@/server/page-guard";
 import { LotsTable } from "@/components/lots-table";
+import { PolishingRunForm } from "./components";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("home"))("millTitle") };
@@ -10,16 +11,21 @@ export async function generateMetadata() {
 
 export default async function MillPage() {
   const user = await requirePagePermission("polishing:record");
-  const t = await getTranslations("home");
+  const t = await getTranslations();
   // A miller sees their own mill's queue; the office sees every mill's.
   const rows = listAwaitingPolishing(can(user, "records:read-all") ? null : user.partyId);
   return (
-    <div className="space-y-6">
+    <div className="space-y-8">
       <header>
-        <h1 className="text-3xl font-bold">{t("millTitle")}</h1>
-        <p className="text-ink-soft">{t("millIntro")}</p>
+        <h1 className="text-3xl font-bold">{t("home.millTitle")}</h1>
+        <p className="text-ink-soft">{t("home.millIntro")}</p>
       </header>
       <LotsTable rows={rows} />
+      <section className="panel max-w-4xl">
+        <h2 className="text-xl font-bold">{t("polishing.title")}</h2>
+        <p className="mb-4 text-sm text-ink-soft">{t("polishing.intro")}</p>
+        <PolishingRunForm />
+      </section>
     </div>
   );
 }

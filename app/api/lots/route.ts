@@ -12,6 +12,7 @@ const querySchema = z.object({
   partyId: z.string().max(64).optional(),
   grade: z.string().max(20).optional(),
   sort: z.enum(LOT_SORTS).optional(),
+  dir: z.enum(["asc", "desc"]).optional(),
   limit: z.coerce.number().int().min(1).max(500).default(50),
   cursor: z.coerce.number().int().positive().optional(),
 });

@@ -1,0 +1,89 @@
+import Link from "next/link";
+import { getFormatter, getTranslations } from "next-intl/server";
+import type { Neighbour } from "@/server/lineage";
+import type { LotEvent } from "@/server/lot-events";
+
+export async function LineageList({ title, empty, items, direction, testId }: { title: string; empty: string; items: Neighbour[]; direction: "back" | "forward"; testId: string }) {
+  const t = await getTranslations();
+  const format = await getFormatter();
+  const pct = (share: number) => format.number(share, { style: "percent", maximumFractionDigits: 1 });
+  return (
+    <div className="panel" data-testid={testId}>
+      <h2 className="mb-3 text-lg font-bold">{title}</h2>
+      {items.length === 0 ? (
+        <p className="text-ink-soft">{empty}</p>
+      ) : (
+        <ul className="space-y-2">
+          {items.map((n) => (
+            <li key={n.code} className="flex flex-wrap items-center gap-3">
+              {n.visible ? (
+                <Link href={`/lots/${n.code}`} className="code-chip no-underline">{n.code}</Link>
+              ) : (
+                <span className="code-chip opacity-60" title={t("lotPage.hidden")}>{n.code}</span>
+              )}
+              <span>{t(`lot.kinds.${n.kind}`)}</span>
+              <span className="ml-auto font-semibold">
+                {direction === "back" ? t("lotPage.shareOfThis", { share: pct(n.share) }) : t("lotPage.shareOfThat", { share: pct(n.share) })}
+              </span>
+            </li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}
+
+export async function EventTimeline({ events, lotCode }: { events: LotEvent[]; lotCode: string }) {
+  const t = await getTranslations();
+  const format = await getFormatter();
+  const qty = (q: number, unit: string) => `${format.number(q, { maximumFractionDigits: 3 })} ${unit}`;
+  return (
+    <ol className="relative space-y-4 border-l-4 border-husk pl-6" data-testid="event-timeline">
+      {events.map((e) => (
+        <li key={e.id} id={`event-${e.id}`} className={`panel relative ${e.correctedBy ? "opacity-70" : ""}`}>
+          <span className={`absolute top-5 -left-[34px] h-4 w-4 rotate-45 ${e.step === "correcting" ? "bg-persimmon" : "bg-cedar"}`} aria-hidden="true" />
+          <div className="flex flex-wrap items-baseline gap-x-4 gap-y-1">
+            <h3 className="text-lg font-bold">{t(`steps.${e.step}`)} <span className="text-sm font-normal text-ink-soft">#{e.id}</span></h3>
+            <time dateTime={e.at} className="text-sm">{format.dateTime(new Date(e.at), { dateStyle: "medium", timeStyle: "short" })}</time>
+            <span className="text-sm text-ink-soft">
+              {t("lotPage.by", { user: e.user.name, party: e.party.name })}
+              {e.counterparty ? ` · ${t("lotPage.to", { counterparty: e.counterparty.name })}` : ""}
+            </span>
+          </div>
+          {e.correctedBy ? <p className="mt-2 font-semibold text-persimmon">{t("lotPage.corrected", { id: e.correctedBy })}</p> : null}
+          {e.corrects ? <p className="mt-2 font-semibold">{t("lotPage.corrects", { id: e.corrects, reason: e.reason })}</p> : null}
+          <div className="mt-3 grid gap-3 text-sm sm:grid-cols-3">
+            {e.inputs.length ? (
+              <div>
+                <p className="font-semibold">{t("lotPage.inputs")}</p>
+                <ul>{e.inputs.map((i) => <li key={`${i.lot}-${i.use}`}><LotRef code={i.lot} current={lotCode} /> {i.use === "draw" ? qty(i.quantity, i.unit) : t(`lotPage.uses.${i.use}`)}</li>)}</ul>
+              </div>
+            ) : null}
+            {e.outputs.length ? (
+              <div>
+                <p className="font-semibold">{t("lotPage.outputs")}</p>
+                <ul>{e.outputs.map((o) => <li key={o.lot}><LotRef code={o.lot} current={lotCode} /> {qty(o.quantity, o.unit)}</li>)}</ul>
+              </div>
+            ) : null}
+            {e.measurements.length ? (
+              <div>
+                <p className="font-semibold">{t("lotPage.measurements")}</p>
+                <ul>{e.measurements.map((m, n) => <li key={n}>{m.name}: {format.number(m.value, { maximumFractionDigits: 3 })} {m.unit}</li>)}</ul>
+              </div>
+            ) : null}
+          </div>
+          {e.referenceDoc || e.place || e.note ? (
+            <p className="mt-2 text-sm text-ink-soft">
+              {[e.referenceDoc && t("lotPage.ref", { ref: e.referenceDoc }), e.place && t("lotPage.place", { place: e.place }), e.note].filter(Boolean).join(" · ")}
+            </p>
+          ) : null}
+        </li>
+      ))}
+    </ol>
+  );
+}
+
+function LotRef({ code, current }: { code: string; current: string }) {
+  if (code === current) return <span className="code-chip">{code}</span>;
+  return <Link href={`/lots/${code}`} className="code-chip no-underline">{code}</Link>;
+}

@@ -1,0 +1,87 @@
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { getFormatter, getTranslations } from "next-intl/server";
+import { LotCardView } from "@/components/lot-card-view";
+import { canCorrect } from "@/domain/permissions";
+import { normaliseLotCode } from "@/domain/lot-code";
+import { roundPct } from "@/domain/polishing";
+import { neighbours } from "@/server/lineage";
+import { listLotEvents } from "@/server/lot-events";
+import { findLot, findLotId } from "@/server/lots";
+import { requirePageUser } from "@/server/page-guard";
+import { EventTimeline, LineageList } from "./components";
+import { CorrectionForm } from "./correction-form";
+
+export async function generateMetadata({ params }: { params: Promise<{ code: string }> }) {
+  return { title: normaliseLotCode((await params).code) };
+}
+
+export default async function LotPage({ params }: { params: Promise<{ code: string }> }) {
+  const user = await requirePageUser();
+  const code = normaliseLotCode(decodeURIComponent((await params).code));
+  const lot = findLot(user, code);
+  const lotId = findLotId(user, code);
+  if (!lot || lotId === null) notFound();
+  const t = await getTranslations("lotPage");
+  const format = await getFormatter();
+  const history = listLotEvents(user, code);
+  const lineage = neighbours(user, lotId);
+  const making = history.find((e) => e.outputs.some((o) => o.lot === code) && e.step === "polishing");
+  const run = making?.attributes as { targetPolishingRatioPct?: number; achievedPolishingRatioPct?: number; missedTarget?: boolean; marginPts?: number } | undefined;
+  const correctable = history.filter((e) => e.step !== "correcting" && !e.correctedBy && canCorrect(user, { userId: e.user.id }));
+
+  return (
+    <div className="space-y-8">
+      <div className="flex flex-wrap items-start gap-6">
+        <div className="w-full max-w-md">
+          <LotCardView lot={lot} />
+        </div>
+        <div className="flex flex-col gap-3">
+          <Link className="btn" href={`/labels?codes=${encodeURIComponent(code)}&layout=bag`}>{t("printLabel")}</Link>
+          <Link className="btn-quiet" href={`/labels?codes=${encodeURIComponent(code)}`}>{t("labelSheet")}</Link>
+        </div>
+      </div>
+      {run?.missedTarget ? (
+        <p className="notice-warn" role="alert" data-testid="missed-target">
+          {t("missedTarget", { target: run.targetPolishingRatioPct ?? 0, margin: run.marginPts ?? 1, achieved: run.achievedPolishingRatioPct ?? 0 })}
+        </p>
+      ) : null}
+      {making ? <PolishingFigures attributes={making.attributes} format={format} /> : null}
+      <section className="grid gap-6 md:grid-cols-2">
+        <LineageList title={t("back")} empty={t("noBack")} items={lineage.back} direction="back" testId="one-step-back" />
+        <LineageList title={t("forward")} empty={t("noForward")} items={lineage.forward} direction="forward" testId="one-step-forward" />
+      </section>
+      <section>
+        <h2 className="mb-3 text-xl font-bold">{t("history")}</h2>
+        <EventTimeline events={history} lotCode={code} />
+      </section>
+      {correctable.length ? (
+        <section className="panel max-w-2xl">
+          <h2 className="text-xl font-bold">{t("correctTitle")}</h2>
+          <p className="mb-4 text-sm text-ink-soft">{t("correctIntro")}</p>
+          <CorrectionForm code={code} events={correctable.map((e) => ({ id: e.id, step: e.step, at: e.at }))} />
+        </section>
+      ) : null}
+    </div>
+  );
+}
+
+async function PolishingFigures({ attributes, format }: { attributes: Record<string, unknown>; format: Awaited<ReturnType<typeof getFormatter>> }) {
+  const t = await getTranslations("lot");
+  const pct = (v: unknown) => (typeof v === "number" ? `${format.number(roundPct(v), { maximumFractionDigits: 1 })} %` : "—");
+  return (
+    <dl className="grid max-w-2xl grid-cols-2 gap-3 sm:grid-cols-4" data-testid="polishing-figures">
+      {[
+        [t("targetRatio"), pct(attributes.targetPolishingRatioPct)],
+        [t("polishingRatio"), pct(attributes.achievedPolishingRatioPct)],
+        [t("trueRatio"), pct(attributes.truePolishingRatioPct)],
+        [t("branYield"), pct(attributes.branYieldPct)],
+      ].map(([k, v]) => (
+        <div key={k} className="panel p-3">
+          <dt className="text-xs font-semibold text-ink-soft">{k}</dt>
+          <dd className="text-2xl font-bold">{v}</dd>
+        </div>
+      ))}
+    </dl>
+  );
+}

@@ -1,0 +1,40 @@
+import { getTranslations } from "next-intl/server";
+import { z } from "zod";
+import { GRADES } from "@/domain/grades";
+import { LOT_KIND_LIST } from "@/domain/steps";
+import { LOT_SORTS, listLots } from "@/server/lots";
+import { requirePageUser } from "@/server/page-guard";
+import { LedgerLotsTable } from "./components";
+
+export async function generateMetadata() {
+  return { title: (await getTranslations("lotsPage"))("title") };
+}
+
+const PAGE_SIZE = 25;
+const blank = (v: unknown) => (v === "" ? undefined : v);
+const searchSchema = z.object({
+  kind: z.preprocess(blank, z.enum(LOT_KIND_LIST).optional()).catch(undefined),
+  grade: z.preprocess(blank, z.enum(GRADES).optional()).catch(undefined),
+  variety: z.preprocess(blank, z.string().max(60).optional()).catch(undefined),
+  cropYear: z.preprocess(blank, z.coerce.number().int().min(2000).max(2100).optional()).catch(undefined),
+  q: z.preprocess(blank, z.string().max(20).optional()).catch(undefined),
+  sort: z.enum(LOT_SORTS).optional().catch(undefined),
+  dir: z.enum(["asc", "desc"]).optional().catch(undefined),
+  page: z.coerce.number().int().min(1).max(100_000).default(1).catch(1),
+});
+
+export default async function LotsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+  const user = await requirePageUser();
+  const t = await getTranslations("lotsPage");
+  const query = searchSchema.parse(await searchParams);
+  const { items, total } = listLots(user, { ...query, limit: PAGE_SIZE, offset: (query.page - 1) * PAGE_SIZE });
+  return (
+    <div className="space-y-6">
+      <header>
+        <h1 className="text-3xl font-bold">{t("title")}</h1>
+        <p className="text-ink-soft">{t("intro")}</p>
+      </header>
+      <LedgerLotsTable rows={items} total={total} pageSize={PAGE_SIZE} query={{ ...query, cropYear: query.cropYear?.toString() }} />
+    </div>
+  );
+}
