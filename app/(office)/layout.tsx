@@ -13,7 +13,7 @@ export default async function OfficeLayout({ children }: { children: React.React
   const t = await getTranslations();
   return (
     <div className="min-h-dvh">
-      <header className="border-b-4 border-koji bg-cedar-deep text-paper">
+      <header className="border-b-4 border-koji bg-cedar-deep text-paper print:hidden">
         <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-2">
           <Link href="/" className="flex items-center gap-2 text-paper no-underline">
             <BrandMark className="h-8 w-8" />
@@ -29,7 +29,7 @@ export default async function OfficeLayout({ children }: { children: React.React
           <UserBar user={user} signOut={signOutAction} />
         </div>
       </header>
-      <main id="content" className="mx-auto max-w-7xl px-4 py-6">
+      <main id="content" className="mx-auto max-w-7xl px-4 py-6 print:m-0 print:max-w-none print:p-0">
         {children}
       </main>
     </div>

@@ -9,6 +9,7 @@ export const OFFICE_NAV: NavItem[] = [
   { href: "/overview", label: "overview", show: (a) => can(a, "users:manage") },
   { href: "/fields", label: "fields", show: (a) => can(a, "fields:read-all") || can(a, "fields:write-own") },
   { href: "/lots", label: "lots", show: everyone },
+  { href: "/labels", label: "labels", show: everyone },
   { href: "/mill", label: "mill", show: (a) => can(a, "polishing:record") },
   { href: "/receive", label: "receive", show: (a) => can(a, "polishing:record") || can(a, "brewing:record") },
   { href: "/scan", label: "scan", show: (a) => can(a, "brewing:record") },

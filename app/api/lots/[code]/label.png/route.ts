@@ -1,0 +1,17 @@
+import { normaliseLotCode } from "@/domain/lot-code";
+import { appOrigin, handle, requireApiUser } from "@/server/http";
+import { renderLabelPng } from "@/server/labels";
+
+export const GET = handle(async (request, { params }) => {
+  const actor = await requireApiUser(request);
+  const code = normaliseLotCode(params.code ?? "");
+  const png = await renderLabelPng(actor, code, appOrigin(request));
+  return new Response(new Uint8Array(png), {
+    headers: {
+      "Content-Type": "image/png",
+      // Only for this signed-in user: shared caches must not hand one party's label to another.
+      "Cache-Control": "private, max-age=300",
+      "Content-Disposition": `inline; filename="label-${encodeURIComponent(code)}.png"`,
+    },
+  });
+});
