@@ -1,0 +1,61 @@
+/**
+ * Weights of the brew floor, on the dry (polished-rice) basis. Definitions from the Nada
+ * brewers' research association glossary as summarised in ../shared/references.md.
+ */
+
+/** Water absorption (%) = (drained soaked weight − dry weight) ÷ dry weight × 100. */
+export function waterAbsorptionPct(dryKg: number, drainedKg: number): number {
+  if (!(dryKg > 0)) throw new RangeError("dry weight must be positive");
+  return ((drainedKg - dryKg) / dryKg) * 100;
+}
+
+/** Steaming gain (%) on the dry basis: (steamed weight − dry weight) ÷ dry weight × 100. */
+export function steamedGainPct(dryKg: number, steamedKg: number): number {
+  if (!(dryKg > 0)) throw new RangeError("dry weight must be positive");
+  return ((steamedKg - dryKg) / dryKg) * 100;
+}
+
+/** Koji-rice ratio (%) of a tank: koji rice ÷ total polished rice × 100, both dry. */
+export function kojiRatioPct(kojiRiceKg: number, totalRiceKg: number): number {
+  if (!(totalRiceKg > 0)) throw new RangeError("total rice must be positive");
+  return (kojiRiceKg / totalRiceKg) * 100;
+}
+
+/** Water ratio (%) of a mash: litres of water ÷ kg of total rice × 100. */
+export function waterRatioPct(waterL: number, totalRiceKg: number): number {
+  if (!(totalRiceKg > 0)) throw new RangeError("total rice must be positive");
+  return (waterL / totalRiceKg) * 100;
+}
+
+/** Litres in a bottling: bottle count × bottle size. */
+export function litresOfBottles(count: number, bottleMl: number): number {
+  return (count * bottleMl) / 1000;
+}
+
+/** Whole bottles a volume fills (partly filled bottles are not counted). */
+export function bottlesFromLitres(litres: number, bottleMl: number): number {
+  if (!(bottleMl > 0)) throw new RangeError("bottle size must be positive");
+  return Math.floor((litres * 1000 + 1e-6) / bottleMl);
+}
+
+export type Band = { min: number; max: number };
+export type BandCheck = "below" | "within" | "above";
+
+export function checkBand(value: number, band: Band): BandCheck {
+  if (value < band.min - 1e-9) return "below";
+  if (value > band.max + 1e-9) return "above";
+  return "within";
+}
+
+export const RICE_USES = ["koji", "starter", "mash"] as const;
+export type RiceUse = (typeof RICE_USES)[number];
+
+/**
+ * Default target bands (trade practice, from memory, per ../shared/references.md): water
+ * absorption koji 30–35 %, mash 25–30 %; starter between the two. The brewery sets its own.
+ */
+export const DEFAULT_ABSORPTION_BANDS: Record<RiceUse, Band> = {
+  koji: { min: 30, max: 35 },
+  starter: { min: 28, max: 33 },
+  mash: { min: 25, max: 30 },
+};
