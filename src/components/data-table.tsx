@@ -9,15 +9,18 @@ import {
   useReactTable,
   type ColumnDef,
   type SortingState,
+  type Table,
 } from "@tanstack/react-table";
 import { useState } from "react";
 import { useTranslations } from "next-intl";
+import { csvText, saveCsvFile } from "@/lib/validation/csv";
 
-type Props<T> = { data: T[]; columns: ColumnDef<T, any>[]; pageSize?: number; label: string; testId?: string };
+type Props<T> = { data: T[]; columns: ColumnDef<T, any>[]; pageSize?: number; label: string; testId?: string; exportName?: string };
 
-/** The office's table: sortable headers, one filter box over every column, pages. */
-export function DataTable<T>({ data, columns, pageSize = 25, label, testId }: Props<T>) {
+/** The office's table: sortable headers, one filter box over every column, pages, and a CSV of what it shows. */
+export function DataTable<T>({ data, columns, pageSize = 25, label, testId, exportName = "grainline-export" }: Props<T>) {
   const t = useTranslations("table");
+  const tc = useTranslations("csv");
   const [sorting, setSorting] = useState<SortingState>([]);
   const [globalFilter, setGlobalFilter] = useState("");
   const table = useReactTable({
@@ -42,7 +45,12 @@ export function DataTable<T>({ data, columns, pageSize = 25, label, testId }: Pr
           <span className="field-label">{t("filter")}</span>
           <input value={globalFilter} onChange={(e) => setGlobalFilter(e.target.value)} placeholder={t("filterPlaceholder")} className="field-input w-72" aria-label={`${t("filter")}: ${label}`} />
         </label>
-        <p className="text-sm text-ink-soft">{t("rows", { count: table.getFilteredRowModel().rows.length })}</p>
+        <div className="flex items-center gap-3">
+          <p className="text-sm text-ink-soft">{t("rows", { count: table.getFilteredRowModel().rows.length })}</p>
+          <button type="button" className="btn-quiet" title={tc("downloadTitle")} onClick={() => saveCsvFile(`${exportName}.csv`, tableCsv(table))}>
+            {tc("download")}
+          </button>
+        </div>
       </div>
       <div className="overflow-x-auto rounded-lg border-2 border-paper-deep bg-white">
         <table className="w-full border-collapse text-sm" aria-label={label}>
@@ -101,4 +109,23 @@ export function DataTable<T>({ data, columns, pageSize = 25, label, testId }: Pr
       ) : null}
     </div>
   );
+}
+
+/**
+ * The rows the table holds after its filter and sort, every page, in its visible columns:
+ * each cell's plain value (what the column reads from the row, not what it draws), dates
+ * as ISO 8601. Columns that only draw (no accessor) are left out.
+ */
+export function tableCsv<T>(table: Table<T>): string {
+  const columns = table.getVisibleLeafColumns().filter((c) => c.accessorFn);
+  const headers = columns.map((c) => (typeof c.columnDef.header === "string" ? c.columnDef.header : c.id));
+  const rows = table.getPrePaginationRowModel().rows.map((row) => columns.map((c) => plainValue(row.getValue(c.id))));
+  return csvText(headers, rows);
+}
+
+function plainValue(value: unknown): unknown {
+  if (value == null) return "";
+  if (value instanceof Date) return value.toISOString();
+  if (typeof value === "object") return JSON.stringify(value);
+  return value;
 }

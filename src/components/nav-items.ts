@@ -1,8 +1,9 @@
-import { can, type Actor } from "@/domain/permissions";
+import { can, type Actor, type Permission } from "@/domain/permissions";
 
 export type NavItem = { href: string; label: string; show: (actor: Actor) => boolean };
 
 const everyone = () => true;
+const IMPORTERS: Permission[] = ["harvests:record-own", "harvests:record-any", "polishing:record", "brewing:record"];
 
 /** Office navigation; an entry shows only to roles the server would let through. */
 export const OFFICE_NAV: NavItem[] = [
@@ -10,6 +11,8 @@ export const OFFICE_NAV: NavItem[] = [
   { href: "/fields", label: "fields", show: (a) => can(a, "fields:read-all") || can(a, "fields:write-own") },
   { href: "/lots", label: "lots", show: everyone },
   { href: "/labels", label: "labels", show: everyone },
+  { href: "/import", label: "import", show: (a) => IMPORTERS.some((p) => can(a, p)) },
+  { href: "/records/transactions", label: "transactions", show: everyone },
   { href: "/mill", label: "mill", show: (a) => can(a, "polishing:record") },
   { href: "/receive", label: "receive", show: (a) => can(a, "polishing:record") || can(a, "brewing:record") },
   { href: "/scan", label: "scan", show: (a) => can(a, "brewing:record") },

@@ -23,6 +23,7 @@ export const PERMISSIONS = [
   "lots:act-any",
   "records:correct",
   "settings:manage",
+  "attachments:add",
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
@@ -43,10 +44,11 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
     "lots:act-any",
     "records:correct",
     "settings:manage",
+    "attachments:add",
   ],
-  brewer: ["fields:read-all", "brewing:record", "provenance:read", "records:read-all"],
-  grower: ["fields:write-own", "harvests:record-own", "ledger:read-own"],
-  miller: ["polishing:record", "ledger:read-own"],
+  brewer: ["fields:read-all", "brewing:record", "provenance:read", "records:read-all", "attachments:add"],
+  grower: ["fields:write-own", "harvests:record-own", "ledger:read-own", "attachments:add"],
+  miller: ["polishing:record", "ledger:read-own", "attachments:add"],
   sales: ["fields:read-all", "provenance:read", "records:read-all"],
   auditor: ["audit:read", "fields:read-all", "provenance:read", "records:read-all"],
 };
@@ -100,4 +102,14 @@ export function canActOnLot(actor: Actor | null, lot: { partyId: string }): bool
 export function canCorrect(actor: Actor | null, event: { userId: string }): boolean {
   if (can(actor, "records:correct")) return true;
   return Boolean(actor) && actor!.id === event.userId;
+}
+
+/**
+ * Who may attach a certificate or report to a lot: whoever may record on it (its holder,
+ * the office), or the party that made it — a grower still files the inspection
+ * certificate of a harvest the mill now holds. Sales and auditors read, never add.
+ */
+export function canAttachToLot(actor: Actor | null, lot: { partyId: string; originPartyId: string }): boolean {
+  if (!can(actor, "attachments:add")) return false;
+  return canActOnLot(actor, lot) || actor!.partyId === lot.originPartyId;
 }

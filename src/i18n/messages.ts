@@ -1,4 +1,5 @@
-import { createTranslator } from "next-intl";
+// use-intl/core has no React in it, so the CLI (seed) can load it outside Next.js.
+import { createTranslator } from "use-intl/core";
 import attachments from "./messages/en/attachments.json";
 import core from "./messages/en/core.json";
 import csv from "./messages/en/csv.json";

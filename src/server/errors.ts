@@ -5,7 +5,8 @@ export type ErrorCode =
   | "not_found"
   | "conflict"
   | "invalid"
-  | "rate_limited";
+  | "rate_limited"
+  | "too_large";
 
 export const STATUS_FOR_CODE: Record<ErrorCode, number> = {
   unauthenticated: 401,
@@ -14,6 +15,7 @@ export const STATUS_FOR_CODE: Record<ErrorCode, number> = {
   conflict: 409,
   invalid: 422,
   rate_limited: 429,
+  too_large: 413,
 };
 
 export type FieldErrors = Record<string, string[]>;

@@ -1,10 +1,12 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getFormatter, getTranslations } from "next-intl/server";
+import { AttachmentsPanel } from "@/components/attachments-panel";
 import { LotCardView } from "@/components/lot-card-view";
 import { canCorrect } from "@/domain/permissions";
 import { normaliseLotCode } from "@/domain/lot-code";
 import { roundPct } from "@/domain/polishing";
+import { lotAttachments } from "@/server/attachments";
 import { neighbours } from "@/server/lineage";
 import { listLotEvents } from "@/server/lot-events";
 import { findLot, findLotId } from "@/server/lots";
@@ -28,6 +30,7 @@ export default async function LotPage({ params }: { params: Promise<{ code: stri
   const lineage = neighbours(user, lotId);
   const making = history.find((e) => e.outputs.some((o) => o.lot === code) && e.step === "polishing");
   const run = making?.attributes as { targetPolishingRatioPct?: number; achievedPolishingRatioPct?: number; missedTarget?: boolean; marginPts?: number } | undefined;
+  const files = lotAttachments(user, code);
   const correctable = history.filter((e) => e.step !== "correcting" && !e.correctedBy && canCorrect(user, { userId: e.user.id }));
 
   return (
@@ -50,6 +53,10 @@ export default async function LotPage({ params }: { params: Promise<{ code: stri
       <section className="grid gap-6 md:grid-cols-2">
         <LineageList title={t("back")} empty={t("noBack")} items={lineage.back} direction="back" testId="one-step-back" />
         <LineageList title={t("forward")} empty={t("noForward")} items={lineage.forward} direction="forward" testId="one-step-forward" />
+      </section>
+      <section>
+        <h2 className="mb-3 text-xl font-bold">{t("attachments")}</h2>
+        <AttachmentsPanel code={code} canUpload={files.canUpload} items={files.items} />
       </section>
       <section>
         <h2 className="mb-3 text-xl font-bold">{t("history")}</h2>

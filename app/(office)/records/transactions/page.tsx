@@ -1,0 +1,52 @@
+import { getTranslations } from "next-intl/server";
+import { FormField } from "@/components/ui/form-field";
+import { can } from "@/domain/permissions";
+import { dayInJapan } from "@/lib/validation/csv";
+import { actionTranslator } from "@/server/action";
+import { AppError } from "@/server/errors";
+import { requirePageUser } from "@/server/page-guard";
+import { listTransactionRecords, parseDateRange, type TransactionRecord } from "@/server/transactions-export";
+import { TransactionsTable } from "./components";
+
+export async function generateMetadata() {
+  return { title: (await getTranslations("csv.records"))("title") };
+}
+
+type Search = Promise<Record<string, string | string[] | undefined>>;
+const one = (v: string | string[] | undefined) => (Array.isArray(v) ? v[0] : v);
+
+export default async function TransactionsPage({ searchParams }: { searchParams: Search }) {
+  const user = await requirePageUser();
+  const t = await getTranslations("csv.records");
+  const query = await searchParams;
+  // Unless asked otherwise: this calendar year so far, in Japan.
+  const today = dayInJapan(new Date());
+  const from = one(query.from) ?? `${today.slice(0, 4)}-01-01`;
+  const to = one(query.to) ?? today;
+  let records: TransactionRecord[] | null = null;
+  let errors: Record<string, string[]> = {};
+  try {
+    const translate = await actionTranslator();
+    records = listTransactionRecords(user, parseDateRange({ from, to }, translate), translate);
+  } catch (error) {
+    if (!(error instanceof AppError)) throw error;
+    errors = error.fields ?? { _: [error.message] };
+  }
+  const download = `/api/records/transactions.csv?${new URLSearchParams({ from, to })}`;
+  return (
+    <div className="space-y-6">
+      <header>
+        <h1 className="text-3xl font-bold">{t("title")}</h1>
+        <p className="max-w-3xl text-ink-soft">{t("intro")}</p>
+        {can(user, "records:read-all") ? null : <p className="mt-2 text-sm text-ink-soft">{t("scopeOwn")}</p>}
+      </header>
+      <form method="get" className="panel flex flex-wrap items-end gap-4" noValidate>
+        <FormField label={t("from")} name="from" type="date" required defaultValue={from} errors={errors.from} />
+        <FormField label={t("to")} name="to" type="date" required defaultValue={to} errors={errors.to} />
+        <button type="submit" className="btn">{t("show")}</button>
+        {records ? <a href={download} download className="btn-quiet" data-testid="transactions-download">{t("download")}</a> : null}
+      </form>
+      {records ? <TransactionsTable rows={records} exportName={`grainline-transactions-${from}-to-${to}`} /> : null}
+    </div>
+  );
+}
