@@ -8,10 +8,10 @@ import { GRADES } from "@/domain/grades";
 import { LOT_KIND_LIST } from "@/domain/steps";
 import type { ApiLot } from "@/server/lots";
 
-type Query = { kind?: string; grade?: string; variety?: string; cropYear?: string; q?: string; sort?: string; dir?: string; page: number };
+type Query = { kind?: string; grade?: string; partyId?: string; variety?: string; cropYear?: string; q?: string; sort?: string; dir?: string; page: number };
 
 /** The ledger's lot table: sorting, filters and pages are done by the server, kept in the URL. */
-export function LedgerLotsTable({ rows, total, pageSize, query }: { rows: ApiLot[]; total: number; pageSize: number; query: Query }) {
+export function LedgerLotsTable({ rows, total, pageSize, query, holders }: { rows: ApiLot[]; total: number; pageSize: number; query: Query; holders: [string, string][] }) {
   const t = useTranslations();
   const format = useFormatter();
   const router = useRouter();
@@ -54,6 +54,7 @@ export function LedgerLotsTable({ rows, total, pageSize, query }: { rows: ApiLot
       <form className="panel flex flex-wrap items-end gap-3" action={pathname} method="get" data-testid="lot-filters">
         <Select name="kind" label={t("lot.kind")} value={query.kind} all={t("lotsPage.allKinds")} options={LOT_KIND_LIST.map((k) => [k, t(`lot.kinds.${k}`)])} />
         <Select name="grade" label={t("lot.grade")} value={query.grade} all={t("lotsPage.allGrades")} options={GRADES.map((g) => [g, t(`lot.grades.${g}`)])} />
+        {holders.length ? <Select name="partyId" label={t("lot.holder")} value={query.partyId} all={t("lotsPage.allHolders")} options={holders} /> : null}
         <label><span className="field-label">{t("lotsPage.variety")}</span><input name="variety" defaultValue={query.variety} className="field-input w-40" /></label>
         <label><span className="field-label">{t("lotsPage.cropYear")}</span><input name="cropYear" inputMode="numeric" defaultValue={query.cropYear} className="field-input w-24" /></label>
         <label><span className="field-label">{t("lotsPage.search")}</span><input name="q" defaultValue={query.q} className="field-input w-36 font-[family-name:var(--font-code)] uppercase" /></label>

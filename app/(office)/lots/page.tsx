@@ -4,6 +4,8 @@ import { GRADES } from "@/domain/grades";
 import { LOT_KIND_LIST } from "@/domain/steps";
 import { LOT_SORTS, listLots } from "@/server/lots";
 import { requirePageUser } from "@/server/page-guard";
+import { listParties } from "@/server/parties";
+import { can } from "@/domain/permissions";
 import { LedgerLotsTable } from "./components";
 
 export async function generateMetadata() {
@@ -18,6 +20,7 @@ const searchSchema = z.object({
   variety: z.preprocess(blank, z.string().max(60).optional()).catch(undefined),
   cropYear: z.preprocess(blank, z.coerce.number().int().min(2000).max(2100).optional()).catch(undefined),
   q: z.preprocess(blank, z.string().max(20).optional()).catch(undefined),
+  partyId: z.preprocess(blank, z.string().max(64).optional()).catch(undefined),
   sort: z.enum(LOT_SORTS).optional().catch(undefined),
   dir: z.enum(["asc", "desc"]).optional().catch(undefined),
   page: z.coerce.number().int().min(1).max(100_000).default(1).catch(1),
@@ -34,7 +37,13 @@ export default async function LotsPage({ searchParams }: { searchParams: Promise
         <h1 className="text-3xl font-bold">{t("title")}</h1>
         <p className="text-ink-soft">{t("intro")}</p>
       </header>
-      <LedgerLotsTable rows={items} total={total} pageSize={PAGE_SIZE} query={{ ...query, cropYear: query.cropYear?.toString() }} />
+      <LedgerLotsTable
+        rows={items}
+        total={total}
+        pageSize={PAGE_SIZE}
+        query={{ ...query, cropYear: query.cropYear?.toString() }}
+        holders={can(user, "records:read-all") ? listParties().filter((p) => p.kind !== "buyer").map(({ id, name }) => [id, name]) : []}
+      />
     </div>
   );
 }

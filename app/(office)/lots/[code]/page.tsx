@@ -55,7 +55,6 @@ export default async function LotPage({ params }: { params: Promise<{ code: stri
         <LineageList title={t("forward")} empty={t("noForward")} items={lineage.forward} direction="forward" testId="one-step-forward" />
       </section>
       <section>
-        <h2 className="mb-3 text-xl font-bold">{t("attachments")}</h2>
         <AttachmentsPanel code={code} canUpload={files.canUpload} items={files.items} />
       </section>
       <section>
