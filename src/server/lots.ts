@@ -58,6 +58,8 @@ export function toApiLot(r: Row) {
     party: { id: r.partyId!, name: r.partyName! },
     field: r.fieldId ? { id: r.fieldId, name: r.fieldName!, region: r.region! } : undefined,
     attributes: JSON.parse(r.attributes) as Record<string, unknown>,
+    // For the floor's "days rested since polishing" (polished lots only).
+    polishedAt: r.kind === "polished" ? r.createdAt.toISOString() : undefined,
     createdAt: r.createdAt.toISOString(),
   };
 }
