@@ -59,3 +59,31 @@ export const DEFAULT_ABSORPTION_BANDS: Record<RiceUse, Band> = {
   starter: { min: 28, max: 33 },
   mash: { min: 25, max: 30 },
 };
+
+/** Steaming gain on the dry basis, by use (trade practice, from memory; the brewery sets its own). */
+export const DEFAULT_STEAM_GAIN_BANDS: Record<RiceUse, Band> = {
+  koji: { min: 35, max: 42 },
+  starter: { min: 35, max: 42 },
+  mash: { min: 33, max: 40 },
+};
+
+/**
+ * Checkpoints of a koji batch and their temperature bands in °C. Trade practice, from the
+ * schedule summarised in ../shared/references.md: brought in at about 33–36 °C, about 30 °C
+ * after inoculation, then warming to the high 30s over about two days. Configurable.
+ */
+export const KOJI_CHECKPOINTS = ["bringingIn", "inoculation", "rebreaking", "mounding", "finish"] as const;
+export type KojiCheckpoint = (typeof KOJI_CHECKPOINTS)[number];
+export const DEFAULT_KOJI_BANDS: Record<KojiCheckpoint, Band> = {
+  bringingIn: { min: 33, max: 36 },
+  inoculation: { min: 29, max: 32 },
+  rebreaking: { min: 30, max: 34 },
+  mounding: { min: 34, max: 38 },
+  finish: { min: 38, max: 42 },
+};
+
+/** The measurement name a koji checkpoint is logged under, e.g. "kojiTempBringingIn". */
+export const kojiMeasurementName = (c: KojiCheckpoint) => `kojiTemp${c[0]!.toUpperCase()}${c.slice(1)}`;
+
+export const ADDITIONS = ["first", "middle", "final"] as const;
+export type Addition = (typeof ADDITIONS)[number];

@@ -13,6 +13,7 @@ import { getDb } from "./db";
 import { AppError, forbidden, invalid, type FieldErrors } from "./errors";
 import { remember, replay, requestHash, type StoredResponse } from "./idempotency";
 import { allocateLotCode } from "./lot-codes";
+import { checkFloorStep } from "./floor-steps";
 import { checkPolishingRun } from "./polishing-runs";
 import type { SessionUser } from "./session";
 
@@ -118,6 +119,8 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
   const warnings: string[] = [];
   const polishing = step === "polishing" ? checkPolishingRun(tx, input, held, outs, t) : null;
   if (polishing) warnings.push(...polishing.warnings);
+  const floor = checkFloorStep(tx, step, input, held, outs, t);
+  if (floor) warnings.push(...floor.warnings);
 
   // Draw (or move, or observe) each input.
   const at = input.at ? new Date(input.at) : new Date();
@@ -149,7 +152,7 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
       referenceDoc: input.referenceDoc ?? "",
       note: input.note ?? "",
       reason: "",
-      attributes: JSON.stringify(polishing?.attributes ?? {}),
+      attributes: JSON.stringify({ ...input.attributes, ...polishing?.attributes, ...floor?.attributes }),
     })
     .returning({ id: events.id })
     .get().id;
@@ -160,7 +163,7 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
     if (newHolder) tx.update(lots).set({ partyId: newHolder }).where(eq(lots.id, d.lot.id)).run();
   }
 
-  const outputs = writeOutputs(tx, { eventId, at, step, eventParty, draws, outs, polishedRatio: polishing?.achievedPct ?? null, rule: rule.content });
+  const outputs = writeOutputs(tx, { eventId, at, step, eventParty, draws, outs, polishedRatio: polishing?.achievedPct ?? null, rule: rule.content, carried: floor?.outputAttributes ?? {} });
   writeMeasurements(tx, eventId, input, held, outputs.lots, t);
   return { id: eventId, outputs: outputs.summary, warnings };
 }
@@ -217,6 +220,8 @@ type WriteContext = {
   outs: ResolvedOutput[];
   polishedRatio: number | null;
   rule: "carry" | "restart" | "none";
+  /** Attributes every new output takes from its inputs (e.g. the use of soaked rice). */
+  carried: Record<string, unknown>;
 };
 
 /** Creates or tops up the output lots, with their content and lineage edges. */
@@ -245,7 +250,7 @@ function writeOutputs(tx: DbOrTx, c: WriteContext) {
           originPartyId: c.eventParty,
           ...inherited,
           polishingRatioPct: kind === "polished" && c.polishedRatio != null ? c.polishedRatio : inherited.polishingRatioPct,
-          attributes: JSON.stringify(attributes),
+          attributes: JSON.stringify({ ...c.carried, ...attributes }),
           createdAt: c.at,
         })
         .returning()

@@ -41,6 +41,8 @@ export const eventSchema = z
     note: text(2000).optional(),
     corrects: z.number().int().positive().optional(),
     reason: text(500).optional(),
+    // Step details that belong to the event, not to one lot (e.g. which mash addition).
+    attributes: z.record(z.string().regex(/^[A-Za-z][A-Za-z0-9]*$/).max(40), attributeValue).optional(),
   })
   .strict();
 export type EventInput = z.infer<typeof eventSchema>;

@@ -1,0 +1,148 @@
+import "server-only";
+import type { DbOrTx } from "@/db/client";
+import { ADDITIONS, KOJI_CHECKPOINTS, RICE_USES, checkBand, kojiMeasurementName, steamedGainPct, waterAbsorptionPct, type Band, type RiceUse } from "@/domain/brewing";
+import { contentOfDraw } from "@/domain/composition";
+import { isValidGtin } from "@/domain/gtin";
+import { roundPct } from "@/domain/polishing";
+import type { RecordableStep } from "@/domain/steps";
+import type { EventInput } from "@/lib/validation/events";
+import type { Translate } from "@/lib/validation/field-errors";
+import { invalid, type FieldErrors } from "./errors";
+import type { LotRow } from "./events";
+import { readSetting } from "./settings";
+
+type Out = { kind: string; quantity: number; existing: LotRow | null; spec: Record<string, unknown> | null };
+export type FloorCheck = { attributes: Record<string, unknown>; warnings: string[]; outputAttributes: Record<string, unknown> };
+
+const EPS = 1e-6;
+const sum = (xs: number[]) => xs.reduce((a, b) => a + b, 0);
+
+/**
+ * What each brew-floor step must carry, and the figures it yields on the dry basis
+ * (definitions in src/domain/brewing.ts), compared with the brewery's bands.
+ */
+export function checkFloorStep(tx: DbOrTx, step: RecordableStep, input: EventInput, held: LotRow[], outs: Out[], t: Translate): FloorCheck | null {
+  const errors: FieldErrors = {};
+  const fail = (field: string, message: string) => (errors[field] ??= []).push(message);
+  const m = (name: string) => input.measurements.find((x) => x.name === name && !x.lot)?.value;
+  const need = (name: string) => (m(name) === undefined ? fail(`measurements.${name}`, t("validation.required")) : undefined);
+  const drawn = input.inputs.map((i) => i.quantity);
+  const dryKg = sum(held.map((lot, n) => contentOfDraw(drawn[n]!, lot)));
+  const result: FloorCheck = { attributes: {}, warnings: [], outputAttributes: {} };
+  const band = (label: string, value: number, b: Band) => {
+    const check = checkBand(value, b);
+    if (check !== "within") result.warnings.push(t("floor.outOfBand", { what: label, value: roundPct(value), min: b.min, max: b.max }));
+    return check;
+  };
+  const bandCheckOf = (label: string, value: number, b: Band) => {
+    const check = checkBand(value, b);
+    if (check !== "within") result.warnings.push(t("floor.outOfBandC", { what: label, value, min: b.min, max: b.max }));
+    return check;
+  };
+  const useOf = (o: Out | undefined) => (o?.spec?.use as string | undefined) ?? undefined;
+
+  switch (step) {
+    case "soaking": {
+      const use = useOf(outs[0]);
+      if (held.length !== 1 || outs.length !== 1) fail("outputs", t("floor.oneInOneOut"));
+      if (!RICE_USES.includes(use as RiceUse)) fail("outputs.0.use", t("validation.oneOf", { options: RICE_USES.join(", ") }));
+      need("soakMinutes");
+      need("waterTempC");
+      if (Object.keys(errors).length) throw invalid(errors);
+      const drained = outs[0]!.quantity;
+      if (drained < drawn[0]! - EPS) throw invalid({ "outputs.0.quantity": [t("floor.drainedBelowDry")] });
+      const absorption = waterAbsorptionPct(drawn[0]!, drained);
+      const b = readSetting(tx, "absorptionBands")[use as RiceUse];
+      result.attributes = { use, dryKg: drawn[0], drainedKg: drained, absorptionPct: roundPct(absorption), band: b, bandCheck: band(t("floor.absorption"), absorption, b) };
+      result.outputAttributes = { use };
+      break;
+    }
+    case "steaming": {
+      if (outs.length !== 1) fail("outputs", t("floor.oneInOneOut"));
+      need("steamMinutes");
+      if (Object.keys(errors).length) throw invalid(errors);
+      const uses = [...new Set(held.map((l) => JSON.parse(l.attributes).use as string | undefined))];
+      const use = (uses.length === 1 ? uses[0] : undefined) ?? useOf(outs[0]);
+      const gain = steamedGainPct(dryKg, outs[0]!.quantity);
+      const b = use && RICE_USES.includes(use as RiceUse) ? readSetting(tx, "steamGainBands")[use as RiceUse] : null;
+      result.attributes = { use: use ?? null, dryKg, steamedKg: outs[0]!.quantity, gainPct: roundPct(gain), band: b, bandCheck: b ? band(t("floor.gain"), gain, b) : null };
+      result.outputAttributes = use ? { use } : {};
+      break;
+    }
+    case "splitting": {
+      if (held.length !== 1) fail("inputs", t("floor.oneInOneOut"));
+      outs.forEach((o, n) => {
+        if (!RICE_USES.includes(useOf(o) as RiceUse)) fail(`outputs.${n}.use`, t("validation.oneOf", { options: RICE_USES.join(", ") }));
+        if (useOf(o) === "mash" && !ADDITIONS.includes(o.spec?.addition as never)) fail(`outputs.${n}.addition`, t("validation.oneOf", { options: ADDITIONS.join(", ") }));
+      });
+      // A split moves rice, it makes none: the portions weigh what was taken from the lot.
+      if (Math.abs(sum(outs.map((o) => o.quantity)) - sum(drawn)) > 0.001) fail("outputs", t("floor.portionsMustAddUp", { kg: sum(drawn) }));
+      if (Object.keys(errors).length) throw invalid(errors);
+      result.attributes = { portions: outs.map((o) => ({ use: useOf(o), kg: o.quantity, tank: o.spec?.tank ?? null, addition: o.spec?.addition ?? null })) };
+      break;
+    }
+    case "koji-making": {
+      need("sporeG");
+      if (outs.length !== 1) fail("outputs", t("floor.oneInOneOut"));
+      if (Object.keys(errors).length) throw invalid(errors);
+      result.attributes = { steamedKg: sum(drawn), kojiKg: outs[0]!.quantity, riceKg: dryKg, startedAt: input.attributes?.startedAt ?? null };
+      break;
+    }
+    case "starter":
+    case "mash-addition": {
+      need("waterL");
+      if (step === "mash-addition") {
+        const addition = input.attributes?.addition;
+        if (!ADDITIONS.includes(addition as never)) fail("attributes.addition", t("validation.oneOf", { options: ADDITIONS.join(", ") }));
+        const intoNew = outs.length === 1 && !outs[0]!.existing;
+        if (addition === "first" && !intoNew) fail("outputs", t("floor.firstMakesTank"));
+        if (addition !== "first" && addition !== undefined && intoNew) fail("outputs", t("floor.laterAddsToTank"));
+      }
+      if (outs.length !== 1) fail("outputs", t("floor.oneInOneOut"));
+      if (Object.keys(errors).length) throw invalid(errors);
+      const byKind = (kind: string) => sum(held.map((l, n) => (l.kind === kind ? drawn[n]! : 0)));
+      result.attributes = { addition: input.attributes?.addition ?? null, kojiKg: byKind("koji"), steamedKg: byKind("steamed"), starterKg: byKind("starter"), waterL: m("waterL"), riceKg: dryKg };
+      break;
+    }
+    case "pressing": {
+      if (!outs.some((o) => o.kind === "sake")) fail("outputs", t("floor.pressMakesSake"));
+      if (Object.keys(errors).length) throw invalid(errors);
+      result.attributes = { mashKg: sum(drawn), sakeL: sum(outs.filter((o) => o.kind === "sake").map((o) => o.quantity)), leesKg: sum(outs.filter((o) => o.kind === "lees").map((o) => o.quantity)) };
+      break;
+    }
+    case "blending": {
+      // Volumes of sake add up (the small contraction of alcohol and water is ignored).
+      if (outs[0] && outs[0].quantity > sum(drawn) + 0.001) fail("outputs.0.quantity", t("validation.tooBig", { maximum: sum(drawn) }));
+      if (Object.keys(errors).length) throw invalid(errors);
+      result.attributes = { litresIn: sum(drawn), litresOut: outs[0]?.quantity ?? 0 };
+      break;
+    }
+    case "bottling": {
+      if (held.length !== 1 || outs.length !== 1) fail("outputs", t("floor.oneInOneOut"));
+      const spec = outs[0]?.spec ?? {};
+      if (typeof spec.gtin !== "string" || !isValidGtin(spec.gtin)) fail("outputs.0.gtin", t("floor.badGtin"));
+      const ml = Number(spec.bottleMl);
+      if (!(ml > 0 && ml <= 20_000)) fail("outputs.0.bottleMl", t("validation.tooBig", { maximum: 20_000 }));
+      const count = outs[0]?.quantity ?? 0;
+      if (!Number.isInteger(count)) fail("outputs.0.quantity", t("floor.wholeBottles"));
+      const litres = (count * ml) / 1000;
+      if (ml > 0 && Math.abs(litres - (drawn[0] ?? 0)) > 0.001) fail("inputs.0.quantity", t("floor.bottlesNeedLitres", { litres }));
+      if (Object.keys(errors).length) throw invalid(errors);
+      result.attributes = { gtin: spec.gtin, bottleMl: ml, bottles: count, litres };
+      break;
+    }
+    case "measuring": {
+      const bands = readSetting(tx, "kojiBands");
+      const checks = KOJI_CHECKPOINTS.flatMap((c) => {
+        const value = m(kojiMeasurementName(c));
+        return value === undefined ? [] : [{ checkpoint: c, value, band: bands[c], bandCheck: bandCheckOf(t("floor.kojiTemp", { checkpoint: t(`floor.checkpoints.${c}`) }), value, bands[c]) }];
+      });
+      if (!checks.length) return null;
+      result.attributes = { kojiChecks: checks };
+      break;
+    }
+    default:
+      return null;
+  }
+  return result;
+}
