@@ -63,3 +63,11 @@ describe("labelSheetPath", () => {
     expect(new URL(labelSheetPath(["H26-0001"], "bag"), "https://g.example").searchParams.get("layout")).toBe("bag");
   });
 });
+
+describe("what a label's QR holds", () => {
+  it("is the GS1 Digital Link URI for a bottle with a valid GTIN, the lot page otherwise", async () => {
+    const { labelUrl } = await import("./label-url");
+    expect(labelUrl("https://kirinoha.example", { code: "BT26-0001", kind: "bottled", attributes: { gtin: "4006381333931" } })).toBe("https://kirinoha.example/01/04006381333931/10/BT26-0001");
+    expect(labelUrl("https://kirinoha.example", { code: "P26-0001", kind: "polished", attributes: {} })).toBe("https://kirinoha.example/lots/P26-0001");
+  });
+});

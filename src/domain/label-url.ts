@@ -1,3 +1,4 @@
+import { digitalLinkUri, isValidGtin } from "./gtin";
 import { normaliseLotCode } from "./lot-code";
 
 /**
@@ -29,4 +30,14 @@ export function labelSheetPath(codes: readonly string[], layout: "sheet" | "bag"
   const query = new URLSearchParams({ codes: codes.join(",") });
   if (layout === "bag") query.set("layout", "bag");
   return `/labels?${query.toString()}`;
+}
+
+/**
+ * What a lot's QR code holds: a bottle carries its GS1 Digital Link URI (GTIN + lot, the
+ * public provenance page); every other lot carries the address of its page in Grainline.
+ */
+export function labelUrl(origin: string, lot: { code: string; kind: string; attributes: Record<string, unknown> }): string {
+  const gtin = lot.attributes.gtin;
+  if (lot.kind === "bottled" && typeof gtin === "string" && isValidGtin(gtin)) return digitalLinkUri(origin, gtin, lot.code);
+  return lotPageUrl(origin, lot.code);
 }

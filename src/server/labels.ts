@@ -1,6 +1,6 @@
 import "server-only";
 import QRCode from "qrcode";
-import { lotPageUrl, MAX_LABEL_CODES } from "@/domain/label-url";
+import { labelUrl, MAX_LABEL_CODES } from "@/domain/label-url";
 import { notFound } from "./errors";
 import { findLot, listLots } from "./lots";
 import type { SessionUser } from "./session";
@@ -40,7 +40,7 @@ export function parseLabelLayout(raw: string | string[] | undefined): LabelLayou
 export async function renderLabelPng(actor: SessionUser, code: string, origin: string): Promise<Buffer> {
   const lot = findLot(actor, code);
   if (!lot) throw notFound(`Lot ${code}`);
-  const url = lotPageUrl(origin, lot.code);
+  const url = labelUrl(origin, lot);
   return QRCode.toBuffer(url, {
     type: "png",
     errorCorrectionLevel: pickErrorCorrection(url, QR_WIDTH_MM.sheet),
@@ -77,7 +77,7 @@ export async function buildLabelSheet(actor: SessionUser, codes: readonly string
       missing.push(code);
       continue;
     }
-    const url = lotPageUrl(origin, lot.code);
+    const url = labelUrl(origin, lot);
     const errorCorrection = pickErrorCorrection(url, QR_WIDTH_MM[layout]);
     const svg = await QRCode.toString(url, { type: "svg", errorCorrectionLevel: errorCorrection, margin: QUIET_ZONE_MODULES });
     labels.push({

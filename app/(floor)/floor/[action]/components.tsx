@@ -1,0 +1,253 @@
+"use client";
+
+import Link from "next/link";
+import { useState } from "react";
+import { useTranslations } from "next-intl";
+import { checkBand, KOJI_CHECKPOINTS, kojiMeasurementName, RICE_USES, waterAbsorptionPct, type Band, type KojiCheckpoint, type RiceUse } from "@/domain/brewing";
+import type { FloorAction } from "@/domain/floor-actions";
+import { roundPct } from "@/domain/polishing";
+import { BOTTLE_SIZES_ML } from "@/domain/steps";
+import { postJson } from "@/lib/api-client";
+import type { ApiLot } from "@/server/lots";
+
+type Bands = { absorption: Record<RiceUse, Band>; gain: Record<RiceUse, Band>; koji: Record<KojiCheckpoint, Band> };
+type V = Record<string, string>;
+type Field = { name: string; type: "number" | "text" | "code" | "select" | "datetime" | "checkbox"; options?: readonly string[]; show?: (v: V) => boolean };
+type Result = { id: number; outputs: { code: string; kind: string; quantity: number; unit: string }[]; warnings: string[] };
+
+const n = (s: string | undefined) => (s && s.trim() !== "" ? Number(s.replace(",", ".")) : NaN);
+const nowLocal = () => new Date(Date.now() - new Date().getTimezoneOffset() * 60000).toISOString().slice(0, 16);
+const iso = (local: string) => (local ? new Date(local).toISOString() : undefined);
+const ms = (name: string, value: number, unit: string) => (Number.isFinite(value) ? [{ name, value, unit }] : []);
+const code = (s: string | undefined) => (s ?? "").trim().toUpperCase();
+const sum = (...xs: number[]) => xs.filter(Number.isFinite).reduce((a, b) => a + b, 0);
+
+/** Fields of each floor screen, and how its values become one event of ../shared/api.md. */
+const ACTIONS: Record<FloorAction, { fields: Field[]; defaults: (lot: ApiLot) => V; build: (v: V, lot: ApiLot) => unknown }> = {
+  soak: {
+    fields: [{ name: "use", type: "select", options: RICE_USES }, { name: "dryKg", type: "number" }, { name: "drainedKg", type: "number" }, { name: "soakMinutes", type: "number" }, { name: "waterTempC", type: "number" }],
+    defaults: () => ({ use: "koji" }),
+    build: (v, lot) => ({ step: "soaking", inputs: [{ lot: lot.code, quantity: n(v.dryKg) }], outputs: [{ kind: "soaked", quantity: n(v.drainedKg), use: v.use }], measurements: [...ms("soakMinutes", n(v.soakMinutes), "min"), ...ms("waterTempC", n(v.waterTempC), "°C")] }),
+  },
+  steam: {
+    fields: [{ name: "drawKg", type: "number" }, { name: "steamedKg", type: "number" }, { name: "steamMinutes", type: "number" }],
+    defaults: (lot) => ({ drawKg: String(lot.onHand) }),
+    build: (v, lot) => ({ step: "steaming", inputs: [{ lot: lot.code, quantity: n(v.drawKg) }], outputs: [{ kind: "steamed", quantity: n(v.steamedKg) }], measurements: ms("steamMinutes", n(v.steamMinutes), "min") }),
+  },
+  split: {
+    fields: ["kojiKg", "starterKg", "firstKg", "middleKg", "finalKg"].map((name) => ({ name, type: "number" as const })),
+    defaults: () => ({}),
+    build: (v, lot) => {
+      const portions = [
+        ["kojiKg", { use: "koji" }],
+        ["starterKg", { use: "starter" }],
+        ["firstKg", { use: "mash", addition: "first" }],
+        ["middleKg", { use: "mash", addition: "middle" }],
+        ["finalKg", { use: "mash", addition: "final" }],
+      ] as const;
+      const outputs = portions.filter(([k]) => Number.isFinite(n(v[k]))).map(([k, a]) => ({ kind: "steamed", quantity: n(v[k]), ...a }));
+      return { step: "splitting", inputs: [{ lot: lot.code, quantity: sum(...outputs.map((o) => o.quantity)) }], outputs };
+    },
+  },
+  "koji-check": {
+    fields: [{ name: "checkpoint", type: "select", options: KOJI_CHECKPOINTS }, { name: "tempC", type: "number" }, { name: "at", type: "datetime" }],
+    defaults: () => ({ checkpoint: "bringingIn", at: nowLocal() }),
+    build: (v, lot) => ({ step: "measuring", at: iso(v.at!), inputs: [{ lot: lot.code, quantity: 0 }], measurements: ms(kojiMeasurementName(v.checkpoint as KojiCheckpoint), n(v.tempC), "°C") }),
+  },
+  koji: {
+    fields: [{ name: "drawKg", type: "number" }, { name: "kojiKg", type: "number" }, { name: "sporeG", type: "number" }, { name: "startedAt", type: "datetime" }],
+    defaults: (lot) => ({ drawKg: String(lot.onHand) }),
+    build: (v, lot) => ({ step: "koji-making", inputs: [{ lot: lot.code, quantity: n(v.drawKg) }], outputs: [{ kind: "koji", quantity: n(v.kojiKg) }], measurements: ms("sporeG", n(v.sporeG), "g"), ...(v.startedAt ? { attributes: { startedAt: iso(v.startedAt) } } : {}) }),
+  },
+  starter: {
+    fields: [{ name: "kojiCode", type: "code" }, { name: "kojiKg", type: "number" }, { name: "steamedCode", type: "code" }, { name: "steamedKg", type: "number" }, { name: "waterL", type: "number" }, { name: "starterKg", type: "number" }],
+    defaults: (lot): V => (lot.kind === "koji" ? { kojiCode: lot.code } : { steamedCode: lot.code, steamedKg: String(lot.onHand) }),
+    build: (v) => ({
+      step: "starter",
+      inputs: [{ lot: code(v.kojiCode), quantity: n(v.kojiKg) }, { lot: code(v.steamedCode), quantity: n(v.steamedKg) }],
+      outputs: [{ kind: "starter", quantity: Number.isFinite(n(v.starterKg)) ? n(v.starterKg) : sum(n(v.kojiKg), n(v.steamedKg), n(v.waterL)) }],
+      measurements: ms("waterL", n(v.waterL), "L"),
+    }),
+  },
+  add: {
+    fields: [
+      { name: "addition", type: "select", options: ["first", "middle", "final"] },
+      { name: "tankName", type: "text", show: (v) => v.addition === "first" },
+      { name: "ginjoMethod", type: "checkbox", show: (v) => v.addition === "first" },
+      { name: "tankCode", type: "code", show: (v) => v.addition !== "first" },
+      { name: "starterCode", type: "code", show: (v) => v.addition === "first" },
+      { name: "starterKg", type: "number", show: (v) => v.addition === "first" },
+      { name: "kojiCode", type: "code" },
+      { name: "kojiKg", type: "number" },
+      { name: "steamedCode", type: "code" },
+      { name: "steamedKg", type: "number" },
+      { name: "waterL", type: "number" },
+    ],
+    defaults: (lot): V => {
+      const addition = String(lot.attributes.addition ?? (lot.kind === "tank" ? "middle" : "first"));
+      if (lot.kind === "tank") return { addition, tankCode: lot.code };
+      if (lot.kind === "koji") return { addition, kojiCode: lot.code };
+      if (lot.kind === "starter") return { addition, starterCode: lot.code, starterKg: String(lot.onHand) };
+      return { addition, steamedCode: lot.code, steamedKg: String(lot.onHand) };
+    },
+    build: (v) => {
+      const first = v.addition === "first";
+      const inputs = [
+        ...(first && v.starterCode ? [{ lot: code(v.starterCode), quantity: n(v.starterKg) }] : []),
+        ...(v.kojiCode ? [{ lot: code(v.kojiCode), quantity: n(v.kojiKg) }] : []),
+        ...(v.steamedCode ? [{ lot: code(v.steamedCode), quantity: n(v.steamedKg) }] : []),
+      ];
+      // The mash grows by everything put in: rice, koji, starter and water (1 L ≈ 1 kg).
+      const quantity = sum(...inputs.map((i) => i.quantity), n(v.waterL));
+      const output = first ? { kind: "tank", quantity, tankName: v.tankName || undefined, ginjoMethod: v.ginjoMethod === "on" } : { lot: code(v.tankCode), quantity };
+      return { step: "mash-addition", attributes: { addition: v.addition }, inputs, outputs: [output], measurements: ms("waterL", n(v.waterL), "L") };
+    },
+  },
+  measure: {
+    fields: [{ name: "addedAlcoholL", type: "number" }, { name: "alcoholPct", type: "number" }, { name: "tempC", type: "number" }],
+    defaults: () => ({}),
+    build: (v, lot) => ({ step: "measuring", inputs: [{ lot: lot.code, quantity: 0 }], measurements: [...ms("addedAlcoholL", n(v.addedAlcoholL), "L"), ...ms("alcoholPct", n(v.alcoholPct), "%"), ...ms("mashTempC", n(v.tempC), "°C")] }),
+  },
+  press: {
+    fields: [{ name: "drawKg", type: "number" }, { name: "sakeL", type: "number" }, { name: "leesKg", type: "number" }],
+    defaults: (lot) => ({ drawKg: String(lot.onHand) }),
+    build: (v, lot) => ({ step: "pressing", inputs: [{ lot: lot.code, quantity: n(v.drawKg) }], outputs: [{ kind: "sake", quantity: n(v.sakeL) }, ...(Number.isFinite(n(v.leesKg)) ? [{ kind: "lees", quantity: n(v.leesKg) }] : [])] }),
+  },
+  blend: {
+    fields: [{ name: "thisL", type: "number" }, { name: "otherCode", type: "code" }, { name: "otherL", type: "number" }, { name: "blendL", type: "number" }],
+    defaults: () => ({}),
+    build: (v, lot) => ({ step: "blending", inputs: [{ lot: lot.code, quantity: n(v.thisL) }, { lot: code(v.otherCode), quantity: n(v.otherL) }], outputs: [{ kind: "blend", quantity: Number.isFinite(n(v.blendL)) ? n(v.blendL) : sum(n(v.thisL), n(v.otherL)) }] }),
+  },
+  bottle: {
+    fields: [{ name: "bottleMl", type: "select", options: [...BOTTLE_SIZES_ML.map(String), "custom"] }, { name: "customMl", type: "number", show: (v) => v.bottleMl === "custom" }, { name: "count", type: "number" }, { name: "gtin", type: "text" }],
+    defaults: () => ({ bottleMl: "720" }),
+    build: (v, lot) => {
+      const ml = v.bottleMl === "custom" ? n(v.customMl) : n(v.bottleMl);
+      const count = n(v.count);
+      return { step: "bottling", inputs: [{ lot: lot.code, quantity: Math.round(count * ml) / 1000 }], outputs: [{ kind: "bottled", quantity: count, bottleMl: ml, gtin: (v.gtin ?? "").replace(/\s/g, "") }] };
+    },
+  },
+};
+
+export function FloorActionForm({ action, lot, bands }: { action: FloorAction; lot: ApiLot; bands: Bands }) {
+  const t = useTranslations("floorForms");
+  const def = ACTIONS[action];
+  const [values, setValues] = useState<V>(() => def.defaults(lot));
+  const [key, setKey] = useState(() => crypto.randomUUID());
+  const [pending, setPending] = useState(false);
+  const [result, setResult] = useState<Result | null>(null);
+  const [problem, setProblem] = useState<{ message: string; fields: Record<string, string[]> } | null>(null);
+  const set = (name: string, value: string) => setValues((v) => ({ ...v, [name]: value }));
+
+  const submit = async (e: React.FormEvent) => {
+    e.preventDefault();
+    setPending(true);
+    const res = await postJson<Result>("/api/events", def.build(values, lot), key);
+    setPending(false);
+    if (res.ok) {
+      setResult(res.body);
+      setProblem(null);
+      setKey(crypto.randomUUID());
+    } else {
+      setProblem({ message: res.status === 0 ? t("offline") : res.error.message, fields: res.error.fields ?? {} });
+    }
+  };
+
+  if (result) return <FloorResult result={result} />;
+  return (
+    <form onSubmit={submit} className="space-y-4" noValidate data-testid="floor-form">
+      <LotLine lot={lot} />
+      {problem ? (
+        <div role="alert" className="notice-warn text-ink" data-testid="floor-error">
+          <p className="font-bold">{problem.message}</p>
+          <ul className="mt-1 text-base">{Object.entries(problem.fields).map(([k, msgs]) => <li key={k}>{msgs.join(" ")}</li>)}</ul>
+        </div>
+      ) : null}
+      {def.fields.filter((f) => !f.show || f.show(values)).map((f) => (
+        <FieldInput key={f.name} field={f} label={t(`${action}.${f.name}`)} value={values[f.name] ?? ""} onChange={(v) => set(f.name, v)} optionLabel={(o) => t(`options.${o}`)} />
+      ))}
+      <Preview action={action} values={values} bands={bands} />
+      <button type="submit" className="btn min-h-16 w-full text-2xl" disabled={pending}>{t(`${action}.submit`)}</button>
+    </form>
+  );
+}
+
+function LotLine({ lot }: { lot: ApiLot }) {
+  const t = useTranslations("lot");
+  return (
+    <p className="text-lg">
+      <span className="code-chip text-xl">{lot.code}</span> {t(`kinds.${lot.kind}`)} · {t("onHand")}: <strong>{lot.onHand} {lot.unit}</strong>
+    </p>
+  );
+}
+
+function FieldInput({ field, label, value, onChange, optionLabel }: { field: Field; label: string; value: string; onChange: (v: string) => void; optionLabel: (o: string) => string }) {
+  const id = `f-${field.name}`;
+  const big = "field-input min-h-14 text-2xl";
+  if (field.type === "checkbox") {
+    return (
+      <label className="flex min-h-12 items-center gap-3 text-lg">
+        <input id={id} type="checkbox" className="h-8 w-8" checked={value === "on"} onChange={(e) => onChange(e.target.checked ? "on" : "")} />
+        {label}
+      </label>
+    );
+  }
+  return (
+    <div>
+      <label htmlFor={id} className="block text-lg font-semibold">{label}</label>
+      {field.type === "select" ? (
+        <select id={id} className={big} value={value} onChange={(e) => onChange(e.target.value)}>
+          {field.options!.map((o) => <option key={o} value={o}>{optionLabel(o)}</option>)}
+        </select>
+      ) : (
+        <input
+          id={id}
+          className={`${big} ${field.type === "code" ? "font-[family-name:var(--font-code)] uppercase" : ""}`}
+          type={field.type === "datetime" ? "datetime-local" : "text"}
+          inputMode={field.type === "number" ? "decimal" : undefined}
+          autoComplete="off"
+          value={value}
+          onChange={(e) => onChange(e.target.value)}
+        />
+      )}
+    </div>
+  );
+}
+
+/** Live figures before saving: absorption against its band, portions against what there is. */
+function Preview({ action, values, bands }: { action: FloorAction; values: V; bands: Bands }) {
+  const t = useTranslations("floorForms");
+  if (action === "soak" && Number.isFinite(n(values.dryKg)) && n(values.dryKg) > 0 && Number.isFinite(n(values.drainedKg))) {
+    const pct = waterAbsorptionPct(n(values.dryKg), n(values.drainedKg));
+    const band = bands.absorption[values.use as RiceUse];
+    const within = checkBand(pct, band) === "within";
+    return <p data-testid="absorption-preview" className={within ? "notice text-ink" : "notice-warn text-ink"}>{t("absorptionPreview", { pct: roundPct(pct), min: band.min, max: band.max })}</p>;
+  }
+  if (action === "bottle") {
+    const ml = values.bottleMl === "custom" ? n(values.customMl) : n(values.bottleMl);
+    const litres = (n(values.count) * ml) / 1000;
+    return Number.isFinite(litres) ? <p className="notice text-ink">{t("bottlePreview", { litres })}</p> : null;
+  }
+  return null;
+}
+
+function FloorResult({ result }: { result: Result }) {
+  const t = useTranslations("floorForms");
+  return (
+    <div className="space-y-4" data-testid="floor-result">
+      <p role="status" className="notice text-ink">{t("recorded")}</p>
+      {result.warnings.map((w) => <p key={w} role="alert" className="notice-warn text-ink font-bold">{w}</p>)}
+      <ul className="space-y-3">
+        {result.outputs.map((o) => (
+          <li key={o.code} className="flex flex-wrap items-center gap-3">
+            <span className="code-chip text-xl">{o.code}</span>
+            <span>{o.quantity} {o.unit}</span>
+            <Link href={`/scan?code=${o.code}`} className="btn min-h-12">{t("openLot")}</Link>
+            <Link href={`/labels?codes=${o.code}&layout=bag`} className="btn-quiet min-h-12">{t("label")}</Link>
+          </li>
+        ))}
+      </ul>
+      <Link href="/scan" className="btn-quiet min-h-12 w-full">{t("scanNext")}</Link>
+    </div>
+  );
+}

@@ -1,0 +1,43 @@
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { getTranslations } from "next-intl/server";
+import { Caution, type CautionKind } from "@/components/caution";
+import { FLOOR_ACTIONS, type FloorAction } from "@/domain/floor-actions";
+import { normaliseLotCode } from "@/domain/lot-code";
+import { getDb } from "@/server/db";
+import { findLot } from "@/server/lots";
+import { requirePagePermission } from "@/server/page-guard";
+import { readSetting } from "@/server/settings";
+import { FloorActionForm } from "./components";
+
+const CAUTIONS: Partial<Record<FloorAction, CautionKind>> = { steam: "steam", split: "steam", "koji-check": "koji", koji: "koji", add: "tank", measure: "tank", press: "tank" };
+
+export async function generateMetadata({ params }: { params: Promise<{ action: string }> }) {
+  const { action } = await params;
+  const t = await getTranslations("floorForms");
+  return { title: FLOOR_ACTIONS.includes(action as FloorAction) ? t(`${action}.title`) : "404" };
+}
+
+export default async function FloorActionPage({ params, searchParams }: { params: Promise<{ action: string }>; searchParams: Promise<{ lot?: string }> }) {
+  const user = await requirePagePermission("brewing:record");
+  const { action } = await params;
+  if (!FLOOR_ACTIONS.includes(action as FloorAction)) notFound();
+  const t = await getTranslations();
+  const code = normaliseLotCode((await searchParams).lot ?? "");
+  const lot = code ? findLot(user, code) : null;
+  const caution = CAUTIONS[action as FloorAction];
+  const db = getDb();
+  const bands = { absorption: readSetting(db, "absorptionBands"), gain: readSetting(db, "steamGainBands"), koji: readSetting(db, "kojiBands") };
+  return (
+    <div className="space-y-5">
+      <p><Link href={code ? `/scan?code=${code}` : "/scan"} className="text-paper">← {t("floorForms.back")}</Link></p>
+      <h1 className="text-3xl font-bold">{t(`floorForms.${action}.title`)}</h1>
+      {caution ? <Caution kind={caution} /> : null}
+      {lot ? (
+        <FloorActionForm action={action as FloorAction} lot={lot} bands={bands} />
+      ) : (
+        <p role="alert" className="notice-warn text-ink">{code ? t("lookup.notFound", { code }) : t("floorForms.scanFirst")}</p>
+      )}
+    </div>
+  );
+}
