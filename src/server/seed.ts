@@ -4,6 +4,7 @@ import type { Db } from "@/db/client";
 import { fields, parties, users } from "@/db/schema";
 import type { PartyKind, Role } from "@/domain/roles";
 import { hashPassword } from "./passwords";
+import { seedBrewSeason } from "./seed-brewing";
 import { seedSeason } from "./seed-season";
 import type { SessionUser } from "./session";
 
@@ -54,6 +55,8 @@ export async function seedDemo(db: Db): Promise<boolean> {
     tx.insert(users).values(DEMO_USERS.map((u) => ({ ...u, passwordHash, createdAt: now }))).run();
     tx.insert(fields).values(FIELDS.map((f) => ({ ...f, createdAt: now }))).run();
     const actor = (id: string): SessionUser => DEMO_USERS.find((u) => u.id === id)!;
+    const people = { admin: actor("user-admin"), grower: actor("user-grower"), grower2: actor("user-grower2"), miller: actor("user-miller"), brewer: actor("user-brewer") };
+    seedBrewSeason(tx, people);
     seedSeason(tx, { admin: actor("user-admin"), grower: actor("user-grower"), grower2: actor("user-grower2"), miller: actor("user-miller"), brewer: actor("user-brewer") });
   });
   return true;

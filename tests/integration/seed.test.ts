@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { isValidGtin } from "@/domain/gtin";
 import { getDb, getSqlite } from "@/server/db";
 import { listAwaitingPolishing } from "@/server/lots";
 import { seedDemo } from "@/server/seed";
@@ -8,14 +9,25 @@ const count = (sql: string) => (getSqlite().prepare(sql).get() as { n: number })
 
 describe("the demo scenario", () => {
   it("seeds one season: two varieties, runs to 50/60/70 %, a correction, receipts at mill and brewery", () => {
-    expect(count("select count(*) as n from lots where kind = 'harvest'")).toBe(6);
-    expect(count("select count(distinct variety) as n from lots where kind = 'harvest'")).toBe(2);
-    const ratios = getSqlite().prepare("select polishing_ratio_pct as r from lots where kind = 'polished' and on_hand > 0 order by r").all() as { r: number }[];
+    expect(count("select count(*) as n from lots where kind = 'harvest' and crop_year = 2026")).toBe(6);
+    expect(count("select count(distinct variety) as n from lots where kind = 'harvest' and crop_year = 2026")).toBe(2);
+    const ratios = getSqlite().prepare("select polishing_ratio_pct as r from lots where kind = 'polished' and on_hand > 0 and code like 'P26-%' order by r").all() as { r: number }[];
     expect(ratios.map((x) => x.r)).toEqual([50, 60, 60, 70]);
     expect(count("select count(*) as n from events where step = 'correcting'")).toBe(1);
-    expect(count("select count(*) as n from events e join parties p on p.id = e.party_id where e.step = 'receiving' and p.kind = 'mill'")).toBe(6);
-    expect(count("select count(*) as n from events e join parties p on p.id = e.party_id where e.step = 'receiving' and p.kind = 'brewery'")).toBe(4);
+    const received = (kind: string) => count(`select count(*) as n from events e join parties p on p.id = e.party_id where e.step = 'receiving' and p.kind = '${kind}' and e.at >= ${Date.parse("2026-01-01")}`);
+    expect(received("mill")).toBe(6);
+    expect(received("brewery")).toBe(4);
     expect(listAwaitingPolishing("mill-shirotae").map((l) => l.variety)).toEqual(["Omachi"]);
+  });
+
+  it("seeds the finished 2024–25 season: three tanks pressed, a blend, bottlings with valid GTINs, a shipment", () => {
+    expect(count("select count(*) as n from lots where kind = 'tank'")).toBe(3);
+    expect(count("select count(*) as n from events where step = 'pressing'")).toBe(3);
+    expect(count("select count(*) as n from lots where kind = 'blend'")).toBe(1);
+    const gtins = getSqlite().prepare("select json_extract(attributes, '$.gtin') as g from lots where kind = 'bottled'").all() as { g: string }[];
+    expect(gtins.length).toBe(4);
+    expect(gtins.every(({ g }) => isValidGtin(g))).toBe(true);
+    expect(count("select count(*) as n from events e join parties p on p.id = e.counterparty_id where e.step = 'shipping' and p.kind = 'buyer'")).toBe(1);
   });
 
   it("seeds nothing twice", async () => {

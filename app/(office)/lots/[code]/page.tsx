@@ -7,6 +7,8 @@ import { canCorrect } from "@/domain/permissions";
 import { normaliseLotCode } from "@/domain/lot-code";
 import { roundPct } from "@/domain/polishing";
 import { lotAttachments } from "@/server/attachments";
+import { tankSummary } from "@/server/tanks";
+import { TankPanel } from "./tank-panel";
 import { neighbours } from "@/server/lineage";
 import { listLotEvents } from "@/server/lot-events";
 import { findLot, findLotId } from "@/server/lots";
@@ -49,6 +51,7 @@ export default async function LotPage({ params }: { params: Promise<{ code: stri
           {t("missedTarget", { target: run.targetPolishingRatioPct ?? 0, margin: run.marginPts ?? 1, achieved: run.achievedPolishingRatioPct ?? 0 })}
         </p>
       ) : null}
+      {lot.kind === "tank" ? <TankPanel tank={tankSummary(user, code)} /> : null}
       {making ? <PolishingFigures attributes={making.attributes} format={format} /> : null}
       <section className="grid gap-6 md:grid-cols-2">
         <LineageList title={t("back")} empty={t("noBack")} items={lineage.back} direction="back" testId="one-step-back" />

@@ -1,0 +1,47 @@
+import { getFormatter, getTranslations } from "next-intl/server";
+import type { TankSummary } from "@/server/tanks";
+
+/** A tank at a glance: rice, koji and water on the dry basis, and its additions in order. */
+export async function TankPanel({ tank }: { tank: TankSummary }) {
+  const t = await getTranslations("tank");
+  const format = await getFormatter();
+  const kg = (v: number) => `${format.number(v, { maximumFractionDigits: 1 })} kg`;
+  const figures: [string, string][] = [
+    [t("totalRice"), kg(tank.totalRiceKg)],
+    [t("kojiRice"), kg(tank.kojiRiceKg)],
+    [t("kojiRatio"), tank.kojiRatioPct === null ? "—" : `${tank.kojiRatioPct} %`],
+    [t("water"), `${format.number(tank.waterL, { maximumFractionDigits: 1 })} L`],
+    [t("waterRatio"), tank.waterRatioPct === null ? "—" : `${tank.waterRatioPct} %`],
+    [t("addedAlcohol"), `${format.number(tank.addedAlcoholL, { maximumFractionDigits: 1 })} L`],
+  ];
+  const max = Math.max(1, ...tank.additions.map((a) => a.riceKg));
+  return (
+    <section className="panel space-y-4" data-testid="tank-panel">
+      <h2 className="text-xl font-bold">{t("title", { name: tank.name })}</h2>
+      <dl className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-6">
+        {figures.map(([k, v]) => (
+          <div key={k} className="rounded-md bg-paper p-3">
+            <dt className="text-xs font-semibold text-ink-soft">{k}</dt>
+            <dd className="text-xl font-bold">{v}</dd>
+          </div>
+        ))}
+      </dl>
+      <p className="text-sm text-ink-soft">{t("basis")}</p>
+      <ol className="space-y-2" aria-label={t("timeline")}>
+        {tank.additions.map((a) => (
+          <li key={a.eventId} className={`grid grid-cols-[8rem_1fr] items-center gap-3 ${a.corrected ? "line-through opacity-60" : ""}`}>
+            <span className="text-sm">
+              <strong>{t(`additions.${a.addition}`)}</strong>
+              <br />
+              {format.dateTime(new Date(a.at), { dateStyle: "medium" })}
+            </span>
+            <span>
+              <span className="block h-4 rounded bg-cedar" style={{ width: `${(a.riceKg / max) * 100}%` }} aria-hidden="true" />
+              <span className="text-sm">{t("additionLine", { rice: format.number(a.riceKg, { maximumFractionDigits: 1 }), koji: a.kojiKg, steamed: a.steamedKg, starter: a.starterKg, water: a.waterL })}</span>
+            </span>
+          </li>
+        ))}
+      </ol>
+    </section>
+  );
+}
