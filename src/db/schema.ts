@@ -276,3 +276,21 @@ export const settings = sqliteTable("settings", {
   updatedAt: integer("updated_at", { mode: "timestamp_ms" }).notNull(),
   updatedBy: text("updated_by").notNull(),
 });
+
+/**
+ * Composition kept as it is made: how much of a lot's content each harvest lot accounts
+ * for, one row per event, lot and source. A lot's shares are the sums over its content_in;
+ * a correction appends the negated rows. Backward trace and forward trace from a harvest
+ * lot are then a single indexed query, with no walk through history.
+ */
+export const lotSourceDeltas = sqliteTable(
+  "lot_source_deltas",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    eventId: integer("event_id").notNull().references(() => events.id),
+    lotId: integer("lot_id").notNull().references(() => lots.id),
+    sourceLotId: integer("source_lot_id").notNull().references(() => lots.id),
+    amount: real("amount").notNull(),
+  },
+  (t) => [index("lot_source_by_lot").on(t.lotId, t.sourceLotId, t.amount), index("lot_source_by_source").on(t.sourceLotId, t.lotId, t.amount)],
+);

@@ -82,3 +82,27 @@ describe("outputs accumulating into one lot", () => {
     expect(Object.fromEntries(composition(30, g.parentsOf, g.contentInOf))).toEqual({ 1: 1 });
   });
 });
+
+describe("composition carried forward by events", async () => {
+  const { propagateComposition } = await import("./composition");
+  it("gives the same shares as walking the edges (merge, split, blend)", () => {
+    // Polished lot 10 from harvests 1 (600 kg brown) and 2 (400 kg): 700 kg polished.
+    const polished = propagateComposition(
+      [
+        { content: 600, contentIn: 1000, sources: new Map([[1, 1000]]) },
+        { content: 400, contentIn: 400, sources: new Map([[2, 400]]) },
+      ],
+      [{ lotId: 10, content: 700 }],
+    );
+    expect(polished).toEqual([{ lotId: 10, sourceLotId: 1, amount: 420 }, { lotId: 10, sourceLotId: 2, amount: 280 }]);
+    // A blend by volume: 40 L of sake A (all harvest 1) and 60 L of sake B (half 1, half 2).
+    const blend = propagateComposition(
+      [
+        { content: 40, contentIn: 100, sources: new Map([[1, 100]]) },
+        { content: 60, contentIn: 200, sources: new Map([[1, 100], [2, 100]]) },
+      ],
+      [{ lotId: 30, content: 100 }],
+    );
+    expect(Object.fromEntries(blend.map((d) => [d.sourceLotId, d.amount]))).toEqual({ 1: 70, 2: 30 });
+  });
+});

@@ -76,3 +76,31 @@ export function composition(
   walk(lotId, 1);
   return result;
 }
+
+export type SourceAmounts = Map<number, number>;
+export type CompositionDelta = { lotId: number; sourceLotId: number; amount: number };
+
+/**
+ * Composition carried by one event: each output's content is shared over the harvest lots
+ * behind the inputs, in proportion to what each input brought and to that input's own
+ * composition (amounts over its content_in).
+ */
+export function propagateComposition(
+  inputs: { content: number; contentIn: number; sources: SourceAmounts }[],
+  outputs: Portion[],
+): CompositionDelta[] {
+  const totalIn = inputs.reduce((a, i) => a + i.content, 0);
+  if (totalIn <= 0) return [];
+  const mix = new Map<number, number>();
+  for (const input of inputs) {
+    if (input.content === 0 || input.contentIn <= 0) continue;
+    for (const [source, amount] of input.sources) {
+      mix.set(source, (mix.get(source) ?? 0) + (input.content / totalIn) * (amount / input.contentIn));
+    }
+  }
+  const deltas: CompositionDelta[] = [];
+  for (const out of outputs) {
+    for (const [source, share] of mix) if (share !== 0) deltas.push({ lotId: out.lotId, sourceLotId: source, amount: out.content * share });
+  }
+  return deltas;
+}

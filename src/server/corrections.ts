@@ -1,7 +1,7 @@
 import "server-only";
 import { eq, sql } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
-import { eventInputs, eventOutputs, events, lineageEdges, lots } from "@/db/schema";
+import { eventInputs, eventOutputs, events, lineageEdges, lotSourceDeltas, lots } from "@/db/schema";
 import { canCorrect } from "@/domain/permissions";
 import type { EventInput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
@@ -50,6 +50,10 @@ export function correctEvent(tx: DbOrTx, actor: SessionUser, input: EventInput, 
   const edges = tx.select().from(lineageEdges).where(eq(lineageEdges.eventId, original.id)).all();
   if (edges.length) {
     tx.insert(lineageEdges).values(edges.map((e) => ({ eventId: id, parentLotId: e.parentLotId, childLotId: e.childLotId, weight: -e.weight }))).run();
+  }
+  const deltas = tx.select().from(lotSourceDeltas).where(eq(lotSourceDeltas.eventId, original.id)).all();
+  if (deltas.length) {
+    tx.insert(lotSourceDeltas).values(deltas.map((d) => ({ eventId: id, lotId: d.lotId, sourceLotId: d.sourceLotId, amount: -d.amount }))).run();
   }
   return { id, outputs: [], warnings: [] as string[] };
 }

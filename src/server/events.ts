@@ -1,8 +1,8 @@
 import "server-only";
 import { eq, inArray, sql } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
-import { eventInputs, eventOutputs, events, lineageEdges, lots, measurements, parties } from "@/db/schema";
-import { carryContent, contentOfDraw, edgesOf } from "@/domain/composition";
+import { eventInputs, eventOutputs, events, lineageEdges, lotSourceDeltas, lots, measurements, parties } from "@/db/schema";
+import { carryContent, contentOfDraw, edgesOf, propagateComposition, type SourceAmounts } from "@/domain/composition";
 import { lowestGrade, type Grade } from "@/domain/grades";
 import { can, canActOnLot, type Permission } from "@/domain/permissions";
 import { STEP_RULES, UNIT_OF_KIND, type LotKind, type RecordableStep } from "@/domain/steps";
@@ -269,7 +269,23 @@ function writeOutputs(tx: DbOrTx, c: WriteContext) {
     written.map((lot, n) => ({ lotId: lot.id, content: contents[n]! })),
   );
   if (edges.length) tx.insert(lineageEdges).values(edges.map((e) => ({ ...e, eventId: c.eventId }))).run();
+  const deltas = propagateComposition(
+    inputsDrawn.map((d) => ({ content: d.content, contentIn: d.lot.contentIn, sources: sourceAmounts(tx, d.lot.id) })),
+    written.map((lot, n) => ({ lotId: lot.id, content: contents[n]! })),
+  );
+  if (deltas.length) tx.insert(lotSourceDeltas).values(deltas.map((d) => ({ ...d, eventId: c.eventId }))).run();
   return { lots: written, summary };
+}
+
+/** How much of a lot's content each harvest lot accounts for (sums of its composition rows). */
+export function sourceAmounts(tx: DbOrTx, lotId: number): SourceAmounts {
+  const rows = tx
+    .select({ source: lotSourceDeltas.sourceLotId, amount: sql<number>`sum(${lotSourceDeltas.amount})` })
+    .from(lotSourceDeltas)
+    .where(eq(lotSourceDeltas.lotId, lotId))
+    .groupBy(lotSourceDeltas.sourceLotId)
+    .all();
+  return new Map(rows.map((r) => [r.source, r.amount]));
 }
 
 /**

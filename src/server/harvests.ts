@@ -1,7 +1,7 @@
 import "server-only";
 import type { DbOrTx } from "@/db/client";
 import { eq } from "drizzle-orm";
-import { eventOutputs, events, fields, lots } from "@/db/schema";
+import { eventOutputs, events, fields, lotSourceDeltas, lots } from "@/db/schema";
 import { MAX_MOISTURE_PCT } from "@/domain/grades";
 import { can, canRecordOnField } from "@/domain/permissions";
 import type { HarvestInput } from "@/lib/validation/events";
@@ -67,5 +67,6 @@ export function registerHarvestInTx(tx: DbOrTx, actor: SessionUser, input: Harve
     .get();
   // A harvest lot is a source of the lineage graph: an output with no parents.
   tx.insert(eventOutputs).values({ eventId, lotId: lot.id, quantity: input.brownKg, content: input.brownKg }).run();
+  tx.insert(lotSourceDeltas).values({ eventId, lotId: lot.id, sourceLotId: lot.id, amount: input.brownKg }).run();
   return { code: lot.code, id: eventId };
 }
