@@ -50,7 +50,7 @@ export function seedBrewSeason(tx: DbOrTx, u: Users) {
   const p60 = polish("2024-11-04", [[b, 500], [c, 1800]], 1380, 880, 60);
 
   /** One tank from its first soak to pressing, scaled to `rice` kg of polished rice. */
-  const brewTank = (polished: string, rice: number, start: string, name: string, ginjo: boolean, alcoholL: number) => {
+  const brewTank = (polished: string, rice: number, start: string, name: string, ginjo: boolean, alcoholKg: number) => {
     const soakKoji = first(rec(u.brewer, { step: "soaking", at: day(start, 0), inputs: [{ lot: polished, quantity: 0.2 * rice }], outputs: [{ kind: "soaked", quantity: r1(0.2 * rice * 1.32), use: "koji" }], measurements: [m("soakMinutes", 12, "min"), m("waterTempC", 9, "°C")] }));
     const soakMash = first(rec(u.brewer, { step: "soaking", at: day(start, 0), inputs: [{ lot: polished, quantity: 0.8 * rice }], outputs: [{ kind: "soaked", quantity: r1(0.8 * rice * 1.27), use: "mash" }], measurements: [m("soakMinutes", 45, "min"), m("waterTempC", 9, "°C")] }));
     const stKoji = first(rec(u.brewer, { step: "steaming", at: day(start, 1), inputs: [{ lot: soakKoji, quantity: r1(0.2 * rice * 1.32) }], outputs: [{ kind: "steamed", quantity: r1(0.2 * rice * 1.38) }], measurements: [m("steamMinutes", 50, "min")] }));
@@ -76,7 +76,7 @@ export function seedBrewSeason(tx: DbOrTx, u: Users) {
     rec(u.brewer, { step: "mash-addition", at: day(start, 19), attributes: { addition: "middle" }, inputs: [{ lot: koji, quantity: kojiPart(0.3) }, { lot: mid!, quantity: parts[1]! }], outputs: [{ lot: tank, quantity: r1(kojiPart(0.3) + parts[1]! + (2 * water) / 7) }], measurements: [m("waterL", (2 * water) / 7, "L")] });
     const lastKoji = r1(kojiKg - kojiPart(0.1) - kojiPart(0.2) - kojiPart(0.3));
     rec(u.brewer, { step: "mash-addition", at: day(start, 20), attributes: { addition: "final" }, inputs: [{ lot: koji, quantity: lastKoji }, { lot: fin!, quantity: parts[2]! }], outputs: [{ lot: tank, quantity: r1(lastKoji + parts[2]! + (4 * water) / 7) }], measurements: [m("waterL", (4 * water) / 7, "L")] });
-    if (alcoholL > 0) rec(u.brewer, { step: "measuring", at: day(start, 44), inputs: [{ lot: tank, quantity: 0 }], measurements: [m("addedAlcoholL", alcoholL, "L")] });
+    if (alcoholKg > 0) rec(u.brewer, { step: "measuring", at: day(start, 44), inputs: [{ lot: tank, quantity: 0 }], measurements: [m("addedAlcoholKg", alcoholKg, "kg")] });
     return tank;
   };
   const press = (tank: string, onHand: number, rice: number, date: string) =>

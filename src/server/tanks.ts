@@ -1,6 +1,6 @@
 import "server-only";
-import { and, asc, eq, inArray, sql } from "drizzle-orm";
-import { eventOutputs, events, lots, measurements } from "@/db/schema";
+import { and, asc, eq, sql } from "drizzle-orm";
+import { eventOutputs, events, lots } from "@/db/schema";
 import { kojiRatioPct, waterRatioPct } from "@/domain/brewing";
 import { roundPct } from "@/domain/polishing";
 import { getDb } from "./db";
@@ -47,6 +47,14 @@ function waterInto(tankId: number): number {
   return (direct?.w ?? 0) + (viaStarter?.w ?? 0);
 }
 
+/** Distilled alcohol recorded on a tank (kg), leaving out readings that were corrected. */
+export function addedAlcoholKg(tankId: number): number {
+  const row = getDb().get<{ kg: number | null }>(sql`
+    select sum(m.value) as kg from measurements m join events e on e.id = m.event_id
+    where m.lot_id = ${tankId} and m.name = 'addedAlcoholKg' and not exists (select 1 from events c where c.corrects = e.id)`);
+  return row?.kg ?? 0;
+}
+
 export function tankSummary(actor: SessionUser, code: string) {
   const id = findLotId(actor, code);
   if (id === null) throw notFound(`Lot ${code}`);
@@ -67,7 +75,6 @@ export function tankSummary(actor: SessionUser, code: string) {
   const totalRiceKg = tank.contentIn;
   const kojiRiceKg = kojiFraction(id) * totalRiceKg;
   const waterL = waterInto(id);
-  const alcohol = db.select({ v: measurements.value }).from(measurements).where(and(eq(measurements.lotId, id), inArray(measurements.name, ["addedAlcoholL"]))).all();
   return {
     code: tank.code,
     name: (JSON.parse(tank.attributes).tankName as string | undefined) ?? tank.code,
@@ -77,7 +84,7 @@ export function tankSummary(actor: SessionUser, code: string) {
     kojiRatioPct: totalRiceKg > 0 ? roundPct(kojiRatioPct(kojiRiceKg, totalRiceKg)) : null,
     waterL,
     waterRatioPct: totalRiceKg > 0 ? roundPct(waterRatioPct(waterL, totalRiceKg)) : null,
-    addedAlcoholL: alcohol.reduce((a, r) => a + r.v, 0),
+    addedAlcoholKg: addedAlcoholKg(id),
     additions,
   };
 }

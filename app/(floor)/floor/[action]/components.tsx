@@ -104,9 +104,9 @@ const ACTIONS: Record<FloorAction, { fields: Field[]; defaults: (lot: ApiLot) =>
     },
   },
   measure: {
-    fields: [{ name: "addedAlcoholL", type: "number" }, { name: "alcoholPct", type: "number" }, { name: "tempC", type: "number" }],
+    fields: [{ name: "addedAlcoholKg", type: "number" }, { name: "alcoholPct", type: "number" }, { name: "tempC", type: "number" }],
     defaults: () => ({}),
-    build: (v, lot) => ({ step: "measuring", inputs: [{ lot: lot.code, quantity: 0 }], measurements: [...ms("addedAlcoholL", n(v.addedAlcoholL), "L"), ...ms("alcoholPct", n(v.alcoholPct), "%"), ...ms("mashTempC", n(v.tempC), "°C")] }),
+    build: (v, lot) => ({ step: "measuring", inputs: [{ lot: lot.code, quantity: 0 }], measurements: [...ms("addedAlcoholKg", n(v.addedAlcoholKg), "kg"), ...ms("alcoholPct", n(v.alcoholPct), "%"), ...ms("mashTempC", n(v.tempC), "°C")] }),
   },
   press: {
     fields: [{ name: "drawKg", type: "number" }, { name: "sakeL", type: "number" }, { name: "leesKg", type: "number" }],

@@ -12,7 +12,7 @@ export async function TankPanel({ tank }: { tank: TankSummary }) {
     [t("kojiRatio"), tank.kojiRatioPct === null ? "—" : `${tank.kojiRatioPct} %`],
     [t("water"), `${format.number(tank.waterL, { maximumFractionDigits: 1 })} L`],
     [t("waterRatio"), tank.waterRatioPct === null ? "—" : `${tank.waterRatioPct} %`],
-    [t("addedAlcohol"), `${format.number(tank.addedAlcoholL, { maximumFractionDigits: 1 })} L`],
+    [t("addedAlcohol"), `${format.number(tank.addedAlcoholKg, { maximumFractionDigits: 1 })} kg`],
   ];
   const max = Math.max(1, ...tank.additions.map((a) => a.riceKg));
   return (

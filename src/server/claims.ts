@@ -1,0 +1,80 @@
+import "server-only";
+import { sql } from "drizzle-orm";
+import { assessCategories, type CategoryFacts, type CategoryVerdict } from "@/domain/categories";
+import { lowestGrade, type Grade } from "@/domain/grades";
+import { getDb } from "./db";
+import { invalid } from "./errors";
+import { addedAlcoholKg, kojiFraction } from "./tanks";
+import { sourcesOf, traceHead } from "./trace";
+import type { SessionUser } from "./session";
+import type { Translate } from "@/lib/validation/field-errors";
+
+const CLAIMABLE = ["tank", "sake", "blend", "bottled"];
+
+/**
+ * Lots of one kind behind a lot, by the fraction of its content they gave, walking the
+ * lineage up until that kind. Reversed edges cancel in the sums, so corrected links drop out.
+ */
+function ancestorsOfKind(lotId: number, kind: "tank" | "polished") {
+  return getDb().all<{ id: number; code: string; contentIn: number; attributes: string; polishingRatioPct: number | null }>(sql`
+    with recursive up(lot_id, frac) as (
+      select ${lotId}, 1.0
+      union all
+      select e.parent_lot_id, up.frac * e.weight / c.content_in
+      from up join lots c on c.id = up.lot_id join lineage_edges e on e.child_lot_id = up.lot_id
+      where c.kind not in (${kind}, 'harvest') and c.content_in > 0
+    )
+    select l.id, l.code, l.content_in as contentIn, l.attributes, l.polishing_ratio_pct as polishingRatioPct
+    from up join lots l on l.id = up.lot_id
+    where l.kind = ${kind}
+    group by l.id having abs(sum(up.frac)) > 1e-9`);
+}
+
+/** The least-polished rice in a tank: its label may claim no better ratio. */
+function highestPolishingRatio(tankId: number): number | null {
+  const ratios = ancestorsOfKind(tankId, "polished").map((p) => p.polishingRatioPct).filter((r): r is number => r !== null);
+  return ratios.length ? Math.max(...ratios) : null;
+}
+
+export function tankFacts(tank: { id: number; contentIn: number; attributes: string }): CategoryFacts {
+  const grades = sourcesOf(tank.id, tank.contentIn).map((s) => s.grade).filter((g): g is Grade => g !== null);
+  const attributes = JSON.parse(tank.attributes) as { ginjoMethod?: boolean; specialMethod?: boolean };
+  return {
+    polishingRatioPct: highestPolishingRatio(tank.id),
+    kojiRatioPct: tank.contentIn > 0 ? kojiFraction(tank.id) * 100 : null,
+    lowestGrade: lowestGrade(grades),
+    addedAlcoholKg: addedAlcoholKg(tank.id),
+    polishedRiceKg: tank.contentIn,
+    ginjoMethod: attributes.ginjoMethod === true,
+    specialMethod: attributes.specialMethod === true,
+  };
+}
+
+/**
+ * Premium-category eligibility from the actual lineage. A lot from several tanks earns a
+ * category only if every tank behind it does; its figures are the least favourable ones.
+ */
+export function claimsFor(actor: SessionUser, code: string, t: Translate) {
+  const lot = traceHead(actor, code);
+  if (!CLAIMABLE.includes(lot.kind)) throw invalid({ code: [t("validation.notClaimable")] }, "Claims apply to tanks, sake, blends and bottlings.");
+  const tanks = ancestorsOfKind(lot.id, "tank").map((tank) => ({ code: tank.code, facts: tankFacts(tank) }));
+  const verdicts = tanks.map((x) => assessCategories(x.facts));
+  const categories: CategoryVerdict[] = (verdicts[0] ?? assessCategories(emptyFacts)).map((v, n) => {
+    const reasons = [...new Set(verdicts.flatMap((per, i) => per[n]!.reasons.map((r) => (tanks.length > 1 ? `${tanks[i]!.code}: ${r}` : r))))];
+    return { name: v.name, eligible: verdicts.length > 0 && reasons.length === 0, reasons: verdicts.length ? reasons : ["no tank behind this lot"] };
+  });
+  const facts = tanks.map((x) => x.facts);
+  const worst = <T,>(values: T[], pick: (a: T, b: T) => T) => (values.length ? values.reduce(pick) : null);
+  return {
+    lot: { code: lot.code, kind: lot.kind },
+    polishingRatioPct: worst(facts.map((f) => f.polishingRatioPct).filter((v): v is number => v !== null), Math.max),
+    kojiRatioPct: worst(facts.map((f) => f.kojiRatioPct).filter((v): v is number => v !== null), Math.min),
+    lowestGrade: lowestGrade(facts.map((f) => f.lowestGrade).filter((g): g is Grade => g !== null)),
+    addedAlcoholKg: facts.reduce((a, f) => a + f.addedAlcoholKg, 0),
+    ginjoMethod: facts.length > 0 && facts.every((f) => f.ginjoMethod),
+    tanks: tanks.map((x) => ({ code: x.code, ...x.facts })),
+    categories,
+  };
+}
+
+const emptyFacts: CategoryFacts = { polishingRatioPct: null, kojiRatioPct: null, lowestGrade: null, addedAlcoholKg: 0, polishedRiceKg: 0, ginjoMethod: false };

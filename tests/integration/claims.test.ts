@@ -1,0 +1,55 @@
+import { describe, expect, it } from "vitest";
+import { GET as claimsRoute } from "../../app/api/claims/[code]/route";
+import { getSqlite } from "@/server/db";
+import { call, jsonRequest, signInAs } from "../support/api";
+
+// The seeded 2024–25 season: Tank 1 of 50 % rice by the ginjo method, Tank 2 of 60 % rice by
+// the ginjo method, Tank 3 of 60 % rice with 40 kg of distilled alcohol on 600 kg of rice.
+// Categories per the NTA labelling standard (../shared/references.md).
+const codeOf = (sql: string) => (getSqlite().prepare(sql).get() as { code: string }).code;
+const tank = (name: string) => codeOf(`select code from lots where kind = 'tank' and json_extract(attributes, '$.tankName') = '${name}'`);
+const bottledOf = (gtin: string) => codeOf(`select code from lots where kind = 'bottled' and json_extract(attributes, '$.gtin') = '${gtin}' order by id limit 1`);
+
+async function claims(code: string) {
+  const cookie = await signInAs("sales@example.com");
+  const res = await call(claimsRoute, jsonRequest(`/api/claims/${code}`, { cookie }), { code });
+  return res;
+}
+const eligible = (body: { categories: { name: string; eligible: boolean }[] }) => body.categories.filter((c) => c.eligible).map((c) => c.name);
+
+describe("premium-category claims from the lineage", () => {
+  it("Tank 1: 50 %, koji 20 % on the dry basis, 1st grade at worst, no alcohol → junmai daiginjo", async () => {
+    const { status, body } = await claims(tank("Tank 1"));
+    expect(status).toBe(200);
+    expect(body.polishingRatioPct).toBeCloseTo(50, 9);
+    expect(body.kojiRatioPct).toBeCloseTo(20, 6);
+    expect(body.lowestGrade).toBe("1");
+    expect(body.addedAlcoholKg).toBe(0);
+    expect(eligible(body)).toEqual(["junmai daiginjo", "junmai ginjo", "tokubetsu junmai", "junmai"]);
+  });
+
+  it("the bottling of Tank 1 carries the same claims", async () => {
+    const { body } = await claims(bottledOf("9506000134352"));
+    expect(eligible(body)).toEqual(["junmai daiginjo", "junmai ginjo", "tokubetsu junmai", "junmai"]);
+  });
+
+  it("Tank 3: alcohol 6.7 % of the rice, no ginjo method → tokubetsu honjozo and honjozo", async () => {
+    const { body } = await claims(tank("Tank 3"));
+    expect(body.addedAlcoholKg).toBe(40);
+    expect(eligible(body)).toEqual(["tokubetsu honjozo", "honjozo"]);
+    expect(body.categories.find((c: { name: string }) => c.name === "junmai").reasons).toEqual(["distilled alcohol was added"]);
+  });
+
+  it("a blend of Tank 2 and Tank 3 earns only what both tanks earn: nothing here", async () => {
+    const { body } = await claims(bottledOf("9506000134376"));
+    expect(body.tanks.map((t: { code: string }) => t.code).sort()).toEqual([tank("Tank 2"), tank("Tank 3")].sort());
+    expect(eligible(body)).toEqual([]);
+    expect(body.categories.find((c: { name: string }) => c.name === "junmai ginjo").reasons.some((r: string) => r.endsWith("distilled alcohol was added"))).toBe(true);
+  });
+
+  it("refuses lots that are not tanks, sake, blends or bottlings", async () => {
+    const { status, body } = await claims("P26-0001");
+    expect(status).toBe(422);
+    expect(body.error.fields.code).toBeDefined();
+  });
+});
