@@ -96,6 +96,8 @@ export async function submitFloorWrite<T>(url: string, body: unknown, label: str
     await changeQueue((items) => [...items, item]);
     return { state: "queued", id: item.id };
   };
+  // Without an owner (a page outside the floor layout) a queued write could never be shown or sent.
+  if (!owner) return { state: "sent", result: await postJson<T>(url, body, item.id) };
   if (offline()) return queue();
   if ((await readQueue()).some((i) => !refused(i))) {
     await flushQueue();

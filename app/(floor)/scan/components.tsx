@@ -21,6 +21,7 @@ export function ScanScreen({ userId, initial, typed }: { userId: string; initial
   const format = useFormatter();
   const [view, setView] = useState<ScanView>(initial);
   const latest = useRef(0);
+  const resultRef = useRef<HTMLDivElement>(null);
   // A lot opened by the typed-code form (a full page load) counts as scanned on this phone too.
   useEffect(() => {
     if (initial.state === "lot") rememberScan(userId, initial.lot);
@@ -31,6 +32,7 @@ export function ScanScreen({ userId, initial, typed }: { userId: string; initial
       const request = ++latest.current;
       const show = (next: ScanView) => request === latest.current && setView(next);
       show({ state: "loading", code });
+      resultRef.current?.scrollIntoView({ block: "start" });
       window.history.replaceState(null, "", `/scan?code=${encodeURIComponent(code)}`);
       let response: Response;
       try {
@@ -65,6 +67,10 @@ export function ScanScreen({ userId, initial, typed }: { userId: string; initial
 
   return (
     <div className="space-y-6">
+      {/* The answer comes first: after a scan it is what the brewer looks at, without scrolling. */}
+      <div aria-live="polite" data-testid="scan-result" ref={resultRef} className="scroll-mt-4 empty:hidden">
+        <ScanResult view={view} asOf={view.state === "lot" && view.asOf ? format.dateTime(new Date(view.asOf), { dateStyle: "short", timeStyle: "short" }) : ""} />
+      </div>
       <div className="grid gap-5 sm:grid-cols-2">
         <Scanner onText={read} />
         <form
@@ -87,16 +93,13 @@ export function ScanScreen({ userId, initial, typed }: { userId: string; initial
               autoComplete="off"
               spellCheck={false}
               maxLength={200}
-              className="field-input min-h-14 font-[family-name:var(--font-code)] text-2xl uppercase"
+              className="field-input min-h-14 font-[family-name:var(--font-code)] text-2xl uppercase placeholder:normal-case"
             />
           </label>
           <button type="submit" className="btn min-h-14 w-full text-xl">
             {t("manual.open")}
           </button>
         </form>
-      </div>
-      <div aria-live="polite" data-testid="scan-result">
-        <ScanResult view={view} asOf={view.state === "lot" && view.asOf ? format.dateTime(new Date(view.asOf), { dateStyle: "short", timeStyle: "short" }) : ""} />
       </div>
       <RecentScans userId={userId} onOpen={(code) => void open(code)} />
     </div>

@@ -44,7 +44,7 @@ export function FloorLotCard({ lot }: { lot: ApiLot }) {
         <ul className="grid gap-3 sm:grid-cols-2">
           {actions.map((action) => (
             <li key={action}>
-              <Link href={`/floor/${action}?lot=${encodeURIComponent(lot.code)}`} prefetch={false} className="btn min-h-16 w-full text-xl no-underline">
+              <Link href={`/floor/${action}?lot=${encodeURIComponent(lot.code)}`} prefetch={false} className="btn min-h-16 w-full border-koji bg-koji text-xl text-ink no-underline hover:bg-koji-pale">
                 {t(`floorScan.actions.${action}`)}
               </Link>
             </li>

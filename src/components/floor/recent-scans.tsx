@@ -64,7 +64,7 @@ export function RecentScans({ userId, onOpen }: { userId: string; onOpen: (code:
               }}
               className="flex min-h-14 items-center justify-between gap-3 rounded-md border-2 border-paper/30 px-4 py-2 text-paper no-underline hover:border-koji"
             >
-              <span className="font-[family-name:var(--font-code)] text-xl font-bold">{scan.code}</span>
+              <span className="whitespace-nowrap font-[family-name:var(--font-code)] text-xl font-bold">{scan.code}</span>
               <span className="text-right text-base opacity-80">
                 {t(`lot.kinds.${scan.kind}`)} · {format.dateTime(new Date(scan.at), { month: "short", day: "numeric", hour: "2-digit", minute: "2-digit" })}
               </span>

@@ -54,7 +54,7 @@ export function RecordMoisture({ code }: { code: string }) {
             className="field-input min-h-14 text-2xl"
           />
         </label>
-        <button type="submit" disabled={busy} className="btn min-h-14 px-5 text-lg">
+        <button type="submit" disabled={busy} className="btn min-h-14 border-paper bg-paper px-5 text-lg text-ink hover:bg-paper-deep">
           {busy ? t("recording") : t("record")}
         </button>
       </div>
