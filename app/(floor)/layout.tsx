@@ -2,6 +2,7 @@ import Link from "next/link";
 import { redirect } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { BrandMark } from "@/components/brand-mark";
+import { QueuePanel } from "@/components/floor/queue-panel";
 import { UserBar } from "@/components/user-bar";
 import { currentUser } from "@/server/session";
 import { signOutAction } from "../(auth)/sign-out/actions";
@@ -20,6 +21,7 @@ export default async function FloorLayout({ children }: { children: React.ReactN
         </Link>
         <UserBar user={user} signOut={signOutAction} />
       </header>
+      <QueuePanel userId={user.id} />
       <main id="content" className="mx-auto max-w-xl px-4 py-5 text-lg">
         {children}
       </main>

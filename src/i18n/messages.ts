@@ -3,6 +3,7 @@ import { createTranslator } from "use-intl/core";
 import attachments from "./messages/en/attachments.json";
 import core from "./messages/en/core.json";
 import csv from "./messages/en/csv.json";
+import floor from "./messages/en/floor.json";
 import labels from "./messages/en/labels.json";
 import ledger from "./messages/en/ledger.json";
 import type { Locale } from "./locale";
@@ -11,7 +12,7 @@ import type { Locale } from "./locale";
  * The English catalogue, kept in one file per area so that work on one area does not
  * touch another's strings. Each file holds top-level namespaces; no two files share one.
  */
-const en = { ...core, ...ledger, ...labels, ...csv, ...attachments };
+const en = { ...core, ...ledger, ...labels, ...csv, ...attachments, ...floor };
 
 export type Messages = typeof en;
 const CATALOGUES: Record<Locale, Messages> = { en };

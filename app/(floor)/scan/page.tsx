@@ -1,28 +1,35 @@
 import { getTranslations } from "next-intl/server";
-import { LotCardView } from "@/components/lot-card-view";
-import { LotLookupForm } from "@/components/lot-lookup-form";
-import { normaliseLotCode } from "@/domain/lot-code";
+import { readScanText } from "@/lib/scan-text";
 import { findLot } from "@/server/lots";
 import { requirePagePermission } from "@/server/page-guard";
+import { ScanScreen, type ScanView } from "./components";
 
 export async function generateMetadata() {
-  return { title: (await getTranslations("home"))("scanTitle") };
+  return { title: (await getTranslations("floorScan"))("title") };
 }
 
-export default async function ScanPage({ searchParams }: { searchParams: Promise<{ code?: string }> }) {
+/** The brewer's home. `/scan?code=` answers the typed-code form even without JavaScript. */
+export default async function ScanPage({ searchParams }: { searchParams: Promise<{ code?: string | string[] }> }) {
   const user = await requirePagePermission("brewing:record");
-  const t = await getTranslations();
-  const code = normaliseLotCode((await searchParams).code ?? "");
-  const lot = code ? findLot(user, code) : null;
+  const t = await getTranslations("floorScan");
+  const raw = (await searchParams).code;
+  const typed = (Array.isArray(raw) ? raw[0] : raw)?.trim() ?? "";
+  const reading = typed ? readScanText(typed) : null;
+  const lot = reading ? findLot(user, reading.code) : null;
+  const initial: ScanView = !typed
+    ? { state: "idle" }
+    : !reading
+      ? { state: "not-ours", text: typed.slice(0, 80) }
+      : lot
+        ? { state: "lot", lot }
+        : { state: "not-found", code: reading.code };
   return (
     <div className="space-y-6">
       <header>
-        <h1 className="text-3xl font-bold">{t("home.scanTitle")}</h1>
-        <p className="opacity-80">{t("home.scanIntro")}</p>
+        <h1 className="text-3xl font-bold">{t("title")}</h1>
+        <p className="opacity-80">{t("intro")}</p>
       </header>
-      <LotLookupForm action="/scan" defaultCode={code} large />
-      {code && !lot ? <p role="alert" className="notice-warn text-ink">{t("lookup.notFound", { code })}</p> : null}
-      {lot ? <LotCardView lot={lot} dark /> : null}
+      <ScanScreen userId={user.id} initial={initial} typed={reading?.code ?? typed} />
     </div>
   );
 }

@@ -1,0 +1,62 @@
+"use client";
+
+import Link from "next/link";
+import { useFormatter, useTranslations } from "next-intl";
+import { actionsFor, daysSince } from "@/domain/floor-actions";
+import type { LotKind } from "@/domain/steps";
+import type { ApiLot } from "@/server/lots";
+import { RecordMoisture } from "./record-moisture";
+
+/** What a brewer needs at arm's length after a scan, and the next steps as big buttons. */
+export function FloorLotCard({ lot }: { lot: ApiLot }) {
+  const t = useTranslations();
+  const format = useFormatter();
+  const rested = lot.polishedAt ? Math.max(0, daysSince(lot.polishedAt)) : null;
+  const rows: [string, string, string][] = [
+    ["kind", t("floorScan.card.kind"), t(`lot.kinds.${lot.kind}`)],
+    ["variety", t("floorScan.card.variety"), lot.variety ?? ""],
+    ["on-hand", t("floorScan.card.onHand"), `${format.number(lot.onHand, { maximumFractionDigits: 1 })} ${lot.unit}`],
+    ["polishing-ratio", t("floorScan.card.polishingRatio"), lot.polishingRatioPct != null ? `${format.number(lot.polishingRatioPct, { maximumFractionDigits: 1 })} %` : ""],
+    ["rested", t("floorScan.card.rested"), rested !== null ? t("floorScan.card.restedDays", { days: rested }) : ""],
+  ];
+  const actions = actionsFor(lot.kind as LotKind, lot.attributes);
+
+  return (
+    <article data-testid="floor-lot-card" aria-labelledby="floor-lot-code" className="space-y-5 rounded-xl border-4 border-koji bg-cedar-deep p-5 text-paper">
+      <h2 id="floor-lot-code" className="m-0">
+        <span className="code-chip text-3xl font-bold" data-testid="lot-code">{lot.code}</span>
+      </h2>
+      <dl className="grid grid-cols-[auto_1fr] gap-x-5 gap-y-2 text-xl">
+        {rows
+          .filter(([, , value]) => value)
+          .map(([id, label, value]) => (
+            <div key={id} className="contents">
+              <dt className="opacity-80">{label}</dt>
+              <dd className="font-bold" data-testid={`lot-${id}`} suppressHydrationWarning={id === "rested"}>
+                {value}
+              </dd>
+            </div>
+          ))}
+      </dl>
+      <nav aria-label={t("floorScan.card.nextStep")}>
+        <h3 className="mb-2 text-lg font-semibold opacity-80">{t("floorScan.card.nextStep")}</h3>
+        {actions.length === 0 ? <p>{t("floorScan.card.noActions")}</p> : null}
+        <ul className="grid gap-3 sm:grid-cols-2">
+          {actions.map((action) => (
+            <li key={action}>
+              <Link href={`/floor/${action}?lot=${encodeURIComponent(lot.code)}`} prefetch={false} className="btn min-h-16 w-full border-koji bg-koji text-xl text-ink no-underline hover:bg-koji-pale">
+                {t(`floorScan.actions.${action}`)}
+              </Link>
+            </li>
+          ))}
+        </ul>
+      </nav>
+      {lot.kind === "polished" ? <RecordMoisture key={lot.code} code={lot.code} /> : null}
+      <p>
+        <Link href={`/lots/${encodeURIComponent(lot.code)}`} className="inline-flex min-h-12 items-center text-koji-pale">
+          {t("floorScan.card.fullRecord", { code: lot.code })}
+        </Link>
+      </p>
+    </article>
+  );
+}
