@@ -14,7 +14,7 @@ export default defineConfig({
   },
   test: {
     environment: "node",
-    include: ["src/**/*.test.ts", "tests/integration/**/*.test.ts"],
+    include: ["src/**/*.test.ts", "tests/integration/**/*.test.ts", "tests/support/**/*.test.ts"],
     setupFiles: [path.join(root, "tests/support/fresh-database.ts")],
     testTimeout: 30_000,
     hookTimeout: 60_000,

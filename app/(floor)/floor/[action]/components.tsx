@@ -7,7 +7,7 @@ import { checkBand, KOJI_CHECKPOINTS, kojiMeasurementName, RICE_USES, waterAbsor
 import type { FloorAction } from "@/domain/floor-actions";
 import { roundPct } from "@/domain/polishing";
 import { BOTTLE_SIZES_ML } from "@/domain/steps";
-import { postJson } from "@/lib/api-client";
+import { submitFloorWrite } from "@/lib/offline-queue";
 import type { ApiLot } from "@/server/lots";
 
 type Bands = { absorption: Record<RiceUse, Band>; gain: Record<RiceUse, Band>; koji: Record<KojiCheckpoint, Band> };
@@ -133,7 +133,7 @@ export function FloorActionForm({ action, lot, bands }: { action: FloorAction; l
   const t = useTranslations("floorForms");
   const def = ACTIONS[action];
   const [values, setValues] = useState<V>(() => def.defaults(lot));
-  const [key, setKey] = useState(() => crypto.randomUUID());
+  const [queued, setQueued] = useState(false);
   const [pending, setPending] = useState(false);
   const [result, setResult] = useState<Result | null>(null);
   const [problem, setProblem] = useState<{ message: string; fields: Record<string, string[]> } | null>(null);
@@ -142,18 +142,32 @@ export function FloorActionForm({ action, lot, bands }: { action: FloorAction; l
   const submit = async (e: React.FormEvent) => {
     e.preventDefault();
     setPending(true);
-    const res = await postJson<Result>("/api/events", def.build(values, lot), key);
+    // The queue gives the write its Idempotency-Key and keeps it when the network is down.
+    const sent = await submitFloorWrite<Result>("/api/events", def.build(values, lot), `${t(`${action}.title`)} · ${lot.code}`);
     setPending(false);
+    if (sent.state === "queued") {
+      setQueued(true);
+      setProblem(null);
+      return;
+    }
+    const res = sent.result;
     if (res.ok) {
       setResult(res.body);
       setProblem(null);
-      setKey(crypto.randomUUID());
     } else {
-      setProblem({ message: res.status === 0 ? t("offline") : res.error.message, fields: res.error.fields ?? {} });
+      setProblem({ message: res.error.message, fields: res.error.fields ?? {} });
     }
   };
 
   if (result) return <FloorResult result={result} />;
+  if (queued) {
+    return (
+      <div className="space-y-4" data-testid="floor-queued">
+        <p role="status" className="notice text-ink font-bold">{t("queued")}</p>
+        <Link href="/scan" className="btn-quiet min-h-12 w-full">{t("scanNext")}</Link>
+      </div>
+    );
+  }
   return (
     <form onSubmit={submit} className="space-y-4" noValidate data-testid="floor-form">
       <LotLine lot={lot} />
