@@ -17,10 +17,12 @@ export const OFFICE_NAV: NavItem[] = [
   { href: "/receive", label: "receive", show: (a) => can(a, "polishing:record") || can(a, "brewing:record") },
   { href: "/scan", label: "scan", show: (a) => can(a, "brewing:record") },
   { href: "/provenance", label: "provenance", show: (a) => can(a, "provenance:read") },
+  { href: "/brew-days", label: "brewDays", show: (a) => can(a, "records:read-all") },
   { href: "/records", label: "records", show: (a) => can(a, "audit:read") },
   { href: "/admin/parties", label: "parties", show: (a) => can(a, "parties:manage") },
   { href: "/admin/users", label: "users", show: (a) => can(a, "users:manage") },
   { href: "/admin/outbox", label: "outbox", show: (a) => can(a, "outbox:read") },
+  { href: "/admin/settings", label: "settings", show: (a) => can(a, "settings:manage") },
 ];
 
 export function navFor(actor: Actor): NavItem[] {

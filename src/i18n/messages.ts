@@ -1,6 +1,7 @@
 // use-intl/core has no React in it, so the CLI (seed) can load it outside Next.js.
 import { createTranslator } from "use-intl/core";
 import attachments from "./messages/en/attachments.json";
+import brewing from "./messages/en/brewing.json";
 import core from "./messages/en/core.json";
 import csv from "./messages/en/csv.json";
 import floor from "./messages/en/floor.json";
@@ -12,7 +13,7 @@ import type { Locale } from "./locale";
  * The English catalogue, kept in one file per area so that work on one area does not
  * touch another's strings. Each file holds top-level namespaces; no two files share one.
  */
-const en = { ...core, ...ledger, ...labels, ...csv, ...attachments, ...floor };
+const en = { ...core, ...ledger, ...labels, ...csv, ...attachments, ...brewing, ...floor };
 
 export type Messages = typeof en;
 const CATALOGUES: Record<Locale, Messages> = { en };

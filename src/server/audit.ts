@@ -12,7 +12,8 @@ export type AuditAction =
   | "user.reset-requested"
   | "party.created"
   | "party.updated"
-  | "field.created";
+  | "field.created"
+  | "settings.updated";
 
 /** Appends who did what; called inside the same transaction as the change it records. */
 export function recordAudit(

@@ -1,8 +1,16 @@
 import "server-only";
-import { eq } from "drizzle-orm";
+import { desc, eq, inArray } from "drizzle-orm";
+import { z } from "zod";
 import type { DbOrTx } from "@/db/client";
-import { settings } from "@/db/schema";
+import { settings, users } from "@/db/schema";
 import { DEFAULT_ABSORPTION_BANDS, DEFAULT_KOJI_BANDS, DEFAULT_STEAM_GAIN_BANDS } from "@/domain/brewing";
+import { can } from "@/domain/permissions";
+import { fieldErrorsFrom, type Translate } from "@/lib/validation/field-errors";
+import { settingsSchema } from "@/lib/validation/settings";
+import { recordAudit } from "./audit";
+import { getDb } from "./db";
+import { forbidden, invalid, type FieldErrors } from "./errors";
+import type { SessionUser } from "./session";
 
 /** Defaults of the settings the office may change; the source of each is noted. */
 export const SETTING_DEFAULTS = {
@@ -22,4 +30,68 @@ export function readSetting<K extends SettingKey>(db: DbOrTx, key: K): (typeof S
 export function writeSetting<K extends SettingKey>(db: DbOrTx, key: K, value: (typeof SETTING_DEFAULTS)[K], userId: string) {
   const row = { key, value: JSON.stringify(value), updatedAt: new Date(), updatedBy: userId };
   db.insert(settings).values(row).onConflictDoUpdate({ target: settings.key, set: row }).run();
+}
+
+export const SETTING_KEYS = Object.keys(SETTING_DEFAULTS) as SettingKey[];
+export type BrewerySettings = { [K in SettingKey]: (typeof SETTING_DEFAULTS)[K] };
+
+/** Every setting as it stands now (the stored value, else its default). */
+export function readSettings(db: DbOrTx = getDb()): BrewerySettings {
+  return Object.fromEntries(SETTING_KEYS.map((key) => [key, readSetting(db, key)])) as BrewerySettings;
+}
+
+/** When the settings were last saved and by whom; null while every one is a default. */
+export function lastSettingsChange(): { at: Date; by: string } | null {
+  const row = getDb()
+    .select({ at: settings.updatedAt, by: users.name })
+    .from(settings)
+    .leftJoin(users, eq(users.id, settings.updatedBy))
+    .where(inArray(settings.key, SETTING_KEYS))
+    .orderBy(desc(settings.updatedAt))
+    .get();
+  return row ? { at: row.at, by: row.by ?? "—" } : null;
+}
+
+/**
+ * The office saves the brewery's bands and margin: all of them valid or none saved. Only
+ * the settings that differ are written; one audit entry says what they were and became.
+ */
+export function saveSettings(actor: SessionUser, raw: unknown, t: Translate): { changed: SettingKey[] } {
+  if (!can(actor, "settings:manage")) throw forbidden();
+  const parsed = settingsSchema.safeParse(raw);
+  if (!parsed.success) throw invalid(settingsFieldErrors(parsed.error, t));
+  return getDb().transaction((tx) => {
+    const before = readSettings(tx);
+    const changed = SETTING_KEYS.filter((key) => JSON.stringify(before[key]) !== JSON.stringify(parsed.data[key]));
+    for (const key of changed) writeSetting(tx, key, parsed.data[key] as never, actor.id);
+    if (changed.length) {
+      const pick = (s: Record<string, unknown>) => Object.fromEntries(changed.map((k) => [k, s[k]]));
+      recordAudit(tx, { userId: actor.id, action: "settings.updated", subject: "settings", detail: { changed, before: pick(before), after: pick(parsed.data) } });
+    }
+    return { changed };
+  });
+}
+
+/** Back to the defaults in the code: the stored values go, and the audit log keeps them. */
+export function restoreSettingDefaults(actor: SessionUser): { changed: SettingKey[] } {
+  if (!can(actor, "settings:manage")) throw forbidden();
+  return getDb().transaction((tx) => {
+    const stored = tx.select({ key: settings.key }).from(settings).where(inArray(settings.key, SETTING_KEYS)).all().map((r) => r.key as SettingKey);
+    if (!stored.length) return { changed: [] };
+    const before = readSettings(tx);
+    tx.delete(settings).where(inArray(settings.key, stored)).run();
+    recordAudit(tx, { userId: actor.id, action: "settings.updated", subject: "settings", detail: { restoredDefaults: true, changed: stored, before: Object.fromEntries(stored.map((k) => [k, before[k]])) } });
+    return { changed: stored };
+  });
+}
+
+/** Zod issues as field messages; the band-order rule speaks from this page's own catalogue. */
+function settingsFieldErrors(error: z.ZodError, t: Translate): FieldErrors {
+  const out: FieldErrors = {};
+  for (const issue of error.issues) {
+    const own = issue.code === "custom" && issue.message.startsWith("settingsPage.");
+    const part = own ? { [issue.path.join(".")]: [t(issue.message)] } : fieldErrorsFrom(new z.ZodError([issue]), t);
+    for (const [field, messages] of Object.entries(part)) (out[field] ??= []).push(...messages);
+  }
+  return out;
 }

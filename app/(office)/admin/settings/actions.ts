@@ -1,0 +1,26 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { formValues, type FormState } from "@/lib/form-state";
+import { settingsFromForm } from "@/lib/validation/settings";
+import { guardAction } from "@/server/action";
+import { requireUser } from "@/server/session";
+import { restoreSettingDefaults, saveSettings } from "@/server/settings";
+
+export async function saveSettingsAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const values = formValues(formData);
+  return guardAction(values, async (t) => {
+    // saveSettings checks settings:manage itself, so the API and this form refuse alike.
+    const { changed } = saveSettings(await requireUser(), settingsFromForm(values), t);
+    revalidatePath("/admin/settings");
+    return { ok: true, message: t(changed.length ? "settingsPage.saved" : "settingsPage.unchanged") };
+  });
+}
+
+export async function restoreDefaultsAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  return guardAction(formValues(formData), async (t) => {
+    const { changed } = restoreSettingDefaults(await requireUser());
+    revalidatePath("/admin/settings");
+    return { ok: true, message: t(changed.length ? "settingsPage.restored" : "settingsPage.alreadyDefaults") };
+  });
+}

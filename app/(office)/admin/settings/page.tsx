@@ -1,0 +1,34 @@
+import { getFormatter, getTranslations } from "next-intl/server";
+import { requirePagePermission } from "@/server/page-guard";
+import { lastSettingsChange, readSettings, SETTING_DEFAULTS } from "@/server/settings";
+import { RestoreDefaultsForm, SettingsForm } from "./components";
+
+export async function generateMetadata() {
+  return { title: (await getTranslations("settingsPage"))("title") };
+}
+
+export default async function SettingsPage() {
+  await requirePagePermission("settings:manage");
+  const t = await getTranslations("settingsPage");
+  const format = await getFormatter();
+  const current = readSettings();
+  const last = lastSettingsChange();
+  return (
+    <div className="space-y-6">
+      <header className="space-y-2">
+        <h1 className="text-3xl font-bold">{t("title")}</h1>
+        <p className="text-ink-soft">{t("intro")}</p>
+        <p className="notice-warn" data-testid="defaults-source">{t("defaultsSource")}</p>
+        <p className="text-sm text-ink-soft">
+          {last ? t("lastChange", { at: format.dateTime(last.at, { dateStyle: "medium", timeStyle: "short" }), by: last.by }) : t("allDefaults")}
+        </p>
+      </header>
+      <SettingsForm current={current} defaults={SETTING_DEFAULTS} />
+      <section className="panel max-w-2xl space-y-3">
+        <h2 className="text-xl font-bold">{t("restoreTitle")}</h2>
+        <p className="text-sm text-ink-soft">{t("restoreIntro")}</p>
+        <RestoreDefaultsForm />
+      </section>
+    </div>
+  );
+}
