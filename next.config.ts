@@ -15,7 +15,7 @@ const nextConfig: NextConfig = {
   poweredByHeader: false,
   // forbidden() from next/navigation renders app/forbidden.tsx with a 403.
   experimental: { authInterrupts: true },
-  serverExternalPackages: ["better-sqlite3", "@node-rs/argon2"],
+  serverExternalPackages: ["better-sqlite3", "@node-rs/argon2", "@zxing/library"],
   async headers() {
     return [{ source: "/:path*", headers: securityHeaders }];
   },

@@ -1,5 +1,6 @@
 import "server-only";
 import QRCode from "qrcode";
+import { readableMask } from "./qr-readable";
 import { labelUrl, MAX_LABEL_CODES } from "@/domain/label-url";
 import { notFound } from "./errors";
 import { findLot, listLots } from "./lots";
@@ -29,6 +30,12 @@ export function pickErrorCorrection(text: string, widthMm: number): ErrorCorrect
   return widthMm / modules >= MIN_MODULE_MM ? "Q" : "M";
 }
 
+/** Print only symbols the floor's decoder has read back (see qr-readable.ts). */
+function maskOption(url: string, level: ErrorCorrection) {
+  const mask = readableMask(url, level);
+  return mask === undefined ? {} : { maskPattern: mask };
+}
+
 export function parseLabelLayout(raw: string | string[] | undefined): LabelLayout {
   return raw === "bag" ? "bag" : "sheet";
 }
@@ -41,9 +48,11 @@ export async function renderLabelPng(actor: SessionUser, code: string, origin: s
   const lot = findLot(actor, code);
   if (!lot) throw notFound(`Lot ${code}`);
   const url = labelUrl(origin, lot);
+  const level = pickErrorCorrection(url, QR_WIDTH_MM.sheet);
   return QRCode.toBuffer(url, {
     type: "png",
-    errorCorrectionLevel: pickErrorCorrection(url, QR_WIDTH_MM.sheet),
+    errorCorrectionLevel: level,
+    ...maskOption(url, level),
     margin: QUIET_ZONE_MODULES,
     scale: PNG_PIXELS_PER_MODULE,
   });
@@ -79,7 +88,7 @@ export async function buildLabelSheet(actor: SessionUser, codes: readonly string
     }
     const url = labelUrl(origin, lot);
     const errorCorrection = pickErrorCorrection(url, QR_WIDTH_MM[layout]);
-    const svg = await QRCode.toString(url, { type: "svg", errorCorrectionLevel: errorCorrection, margin: QUIET_ZONE_MODULES });
+    const svg = await QRCode.toString(url, { type: "svg", errorCorrectionLevel: errorCorrection, margin: QUIET_ZONE_MODULES, ...maskOption(url, errorCorrection) });
     labels.push({
       code: lot.code,
       kind: lot.kind,

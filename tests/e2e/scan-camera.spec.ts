@@ -7,19 +7,14 @@ import { DEMO_PASSWORD, signInAndLand } from "./helpers";
 
 // A polished lot the brewery holds in the demo season; the offline-queue spec uses P26-0002.
 const LOT = "P26-0003";
-const VIDEO = path.resolve(import.meta.dirname, "../../test-results/fake-camera", `label-${LOT}.y4m`);
+const VIDEO = path.resolve(import.meta.dirname, "../.tmp/fake-camera", `label-${LOT}-${process.pid}.y4m`);
 const executablePath = process.env.CHROMIUM_PATH || "/usr/bin/chromium";
 const expected = { onHand: "", kind: "" };
 
 // Chromium's fake camera plays the Y4M in a loop; the fake UI answers the permission prompt.
-// Launch options are per worker, so they hold for the whole file.
-test.use({
-  permissions: ["camera"],
-  launchOptions: {
-    executablePath,
-    args: [...CHROMIUM_ARGS, "--use-fake-device-for-media-stream", "--use-fake-ui-for-media-stream", `--use-file-for-fake-video-capture=${VIDEO}`],
-  },
-});
+// The browser is launched inside the test, after the file is written: a worker's browser may
+// already be running (or be launched before beforeAll), and it reads the file only at launch.
+const cameraArgs = () => [...CHROMIUM_ARGS, "--use-fake-device-for-media-stream", "--use-fake-ui-for-media-stream", `--use-file-for-fake-video-capture=${VIDEO}`];
 
 test.describe("with a camera that sees a lot label", () => {
   // The label the label route prints for this lot, as the camera would see it on a bag.
@@ -36,8 +31,11 @@ test.describe("with a camera that sees a lot label", () => {
     await api.dispose();
   });
 
-  test("the brewer starts the camera on /scan and the label opens its lot card", async ({ page }) => {
+  test("the brewer starts the camera on /scan and the label opens its lot card", async ({ playwright }, testInfo) => {
     expect(expected.kind).toBe("polished");
+    const browser = await playwright.chromium.launch({ executablePath, args: cameraArgs() });
+    const context = await browser.newContext({ baseURL: testInfo.project.use.baseURL, permissions: ["camera"] });
+    const page = await context.newPage();
     await signInAndLand(page, "brewer@example.com");
     await page.goto("/scan");
     await expect(page.getByTestId("recent-scans")).not.toContainText(LOT);
@@ -56,6 +54,7 @@ test.describe("with a camera that sees a lot label", () => {
     await expect(recent.getByRole("link", { name: new RegExp(LOT) })).toBeVisible();
     await page.reload();
     await expect(page.getByTestId("recent-scans").getByRole("link").first()).toContainText(LOT);
+    await browser.close();
   });
 });
 
