@@ -44,6 +44,7 @@ export default async function LotPage({ params }: { params: Promise<{ code: stri
         <div className="flex flex-col gap-3">
           <Link className="btn" href={`/labels?codes=${encodeURIComponent(code)}&layout=bag`}>{t("printLabel")}</Link>
           <Link className="btn-quiet" href={`/labels?codes=${encodeURIComponent(code)}`}>{t("labelSheet")}</Link>
+          <Link className="btn-quiet" href={`/lots/${encodeURIComponent(code)}/graph`}>{(await getTranslations("graph"))("openGraph")}</Link>
         </div>
       </div>
       {run?.missedTarget ? (
