@@ -17,6 +17,7 @@ export const OFFICE_NAV: NavItem[] = [
   { href: "/receive", label: "receive", show: (a) => can(a, "polishing:record") || can(a, "brewing:record") },
   { href: "/scan", label: "scan", show: (a) => can(a, "brewing:record") },
   { href: "/provenance", label: "provenance", show: (a) => can(a, "provenance:read") },
+  { href: "/recall", label: "recall", show: (a) => can(a, "provenance:read") || can(a, "records:read-all") },
   { href: "/brew-days", label: "brewDays", show: (a) => can(a, "records:read-all") },
   { href: "/records", label: "records", show: (a) => can(a, "audit:read") },
   { href: "/admin/parties", label: "parties", show: (a) => can(a, "parties:manage") },

@@ -15,7 +15,7 @@ const CLAIMABLE = ["tank", "sake", "blend", "bottled"];
  * Lots of one kind behind a lot, by the fraction of its content they gave, walking the
  * lineage up until that kind. Reversed edges cancel in the sums, so corrected links drop out.
  */
-function ancestorsOfKind(lotId: number, kind: "tank" | "polished") {
+export function ancestorsOfKind(lotId: number, kind: "tank" | "polished") {
   return getDb().all<{ id: number; code: string; contentIn: number; attributes: string; polishingRatioPct: number | null }>(sql`
     with recursive up(lot_id, frac) as (
       select ${lotId}, 1.0
@@ -55,7 +55,11 @@ export function tankFacts(tank: { id: number; contentIn: number; attributes: str
  * category only if every tank behind it does; its figures are the least favourable ones.
  */
 export function claimsFor(actor: SessionUser, code: string, t: Translate) {
-  const lot = traceHead(actor, code);
+  return claimsForLot(traceHead(actor, code), t);
+}
+
+/** The same, for a lot already found (the public bottle page has no signed-in actor). */
+export function claimsForLot(lot: { id: number; code: string; kind: string }, t: Translate) {
   if (!CLAIMABLE.includes(lot.kind)) throw invalid({ code: [t("validation.notClaimable")] }, "Claims apply to tanks, sake, blends and bottlings.");
   const tanks = ancestorsOfKind(lot.id, "tank").map((tank) => ({ code: tank.code, facts: tankFacts(tank) }));
   const verdicts = tanks.map((x) => assessCategories(x.facts));

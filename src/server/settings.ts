@@ -19,6 +19,11 @@ export const SETTING_DEFAULTS = {
   absorptionBands: DEFAULT_ABSORPTION_BANDS,
   steamGainBands: DEFAULT_STEAM_GAIN_BANDS,
   kojiBands: DEFAULT_KOJI_BANDS,
+  // What the public bottle page may show; prices and contact details never appear there.
+  publicProvenance: { varieties: true, origin: true, growers: true, polishingRatio: true, categories: true, dates: true } as Record<
+    "varieties" | "origin" | "growers" | "polishingRatio" | "categories" | "dates",
+    boolean
+  >,
 };
 export type SettingKey = keyof typeof SETTING_DEFAULTS;
 

@@ -26,6 +26,8 @@ function formOf(settings: ReturnType<typeof readSettings>, changes: Record<strin
       values[`${group}.${k}.max`] = String(band.max);
     }
   }
+  // Ticked boxes send "on"; unticked ones send nothing.
+  for (const [k, shown] of Object.entries(settings.publicProvenance)) if (shown) values[`publicProvenance.${k}`] = "on";
   return { ...values, ...changes };
 }
 

@@ -1,9 +1,13 @@
+import Link from "next/link";
 import { getTranslations } from "next-intl/server";
 import { LotCardView } from "@/components/lot-card-view";
 import { LotLookupForm } from "@/components/lot-lookup-form";
+import { ProvenanceCard } from "@/components/provenance-card";
 import { normaliseLotCode } from "@/domain/lot-code";
+import { actionTranslator } from "@/server/action";
 import { findLot } from "@/server/lots";
 import { requirePagePermission } from "@/server/page-guard";
+import { provenanceFor } from "@/server/provenance";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("home"))("provenanceTitle") };
@@ -14,15 +18,26 @@ export default async function ProvenancePage({ searchParams }: { searchParams: P
   const t = await getTranslations();
   const code = normaliseLotCode((await searchParams).code ?? "");
   const lot = code ? findLot(user, code) : null;
+  const answer = lot ? provenanceFor(user, code, await actionTranslator()) : null;
   return (
-    <div className="max-w-2xl space-y-6">
+    <div className="max-w-3xl space-y-6">
       <header>
         <h1 className="text-3xl font-bold">{t("home.provenanceTitle")}</h1>
         <p className="text-ink-soft">{t("home.provenanceIntro")}</p>
       </header>
       <LotLookupForm action="/provenance" defaultCode={code} />
       {code && !lot ? <p role="alert" className="notice-warn">{t("lookup.notFound", { code })}</p> : null}
-      {lot ? <LotCardView lot={lot} /> : null}
+      {lot && answer ? (
+        <>
+          <LotCardView lot={lot} />
+          <ProvenanceCard p={answer} />
+          <p className="flex flex-wrap gap-3">
+            <a className="btn" href={`/api/provenance/${lot.code}/sheet.pdf`}>{t("provenance.sheet")}</a>
+            <Link className="btn-quiet" href={`/lots/${lot.code}/graph`}>{t("provenance.graph")}</Link>
+            <Link className="btn-quiet" href={`/recall?code=${lot.code}`}>{t("provenance.recall")}</Link>
+          </p>
+        </>
+      ) : null}
       <p className="notice text-sm">{t("caution.records")}</p>
     </div>
   );

@@ -18,12 +18,15 @@ const band = (min: number, max: number) =>
 const perKey = <K extends string>(keys: readonly K[], schema: z.ZodType<{ min: number; max: number }>) =>
   z.object(Object.fromEntries(keys.map((k) => [k, schema])) as Record<K, typeof schema>).strict();
 
+export const PUBLIC_FIELDS = ["varieties", "origin", "growers", "polishingRatio", "categories", "dates"] as const;
+
 export const settingsSchema = z
   .object({
     polishingMarginPts: figure(0, 10),
     absorptionBands: perKey(RICE_USES, band(0, 100)),
     steamGainBands: perKey(RICE_USES, band(0, 100)),
     kojiBands: perKey(KOJI_CHECKPOINTS, band(0, 60)),
+    publicProvenance: z.object(Object.fromEntries(PUBLIC_FIELDS.map((k) => [k, z.boolean()])) as Record<(typeof PUBLIC_FIELDS)[number], z.ZodBoolean>).strict(),
   })
   .strict();
 export type SettingsInput = z.infer<typeof settingsSchema>;
@@ -37,5 +40,6 @@ export function settingsFromForm(values: Record<string, string | undefined>): Re
     absorptionBands: bands("absorptionBands", RICE_USES),
     steamGainBands: bands("steamGainBands", RICE_USES),
     kojiBands: bands("kojiBands", KOJI_CHECKPOINTS),
+    publicProvenance: Object.fromEntries(PUBLIC_FIELDS.map((k) => [k, values[`publicProvenance.${k}`] === "on"])),
   };
 }

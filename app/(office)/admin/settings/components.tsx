@@ -6,6 +6,7 @@ import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
 import { KOJI_CHECKPOINTS, RICE_USES, type Band } from "@/domain/brewing";
 import { initialFormState, type FormState } from "@/lib/form-state";
+import { PUBLIC_FIELDS } from "@/lib/validation/settings";
 import type { BrewerySettings } from "@/server/settings";
 import { restoreDefaultsAction, saveSettingsAction } from "./actions";
 
@@ -42,6 +43,16 @@ export function SettingsForm({ current, defaults }: { current: BrewerySettings; 
           <FormField label={t("margin.label")} name="polishingMarginPts" type="number" inputMode="decimal" step="0.1" defaultValue={value("polishingMarginPts", current.polishingMarginPts)} errors={state.fields?.polishingMarginPts} />
           <p className="mt-1 text-xs text-ink-soft">{t("defaultIs", { value: `${defaults.polishingMarginPts} ${t("margin.unit")}` })}</p>
         </div>
+      </fieldset>
+      <fieldset className="panel space-y-3" data-testid="public-fields">
+        <legend className="px-1 text-lg font-bold">{t("public.title")}</legend>
+        <p className="text-sm text-ink-soft">{t("public.intro")}</p>
+        {PUBLIC_FIELDS.map((k) => (
+          <label key={k} className="flex items-center gap-3">
+            <input type="checkbox" name={`publicProvenance.${k}`} className="h-6 w-6" defaultChecked={current.publicProvenance[k]} />
+            {t(`public.${k}`)}
+          </label>
+        ))}
       </fieldset>
       <button type="submit" className="btn" disabled={pending}>{t("save")}</button>
     </form>

@@ -1,0 +1,83 @@
+import { forbidden } from "next/navigation";
+import { getTranslations } from "next-intl/server";
+import { LotLookupForm } from "@/components/lot-lookup-form";
+import { normaliseLotCode } from "@/domain/lot-code";
+import { AppError } from "@/server/errors";
+import { requirePageUser } from "@/server/page-guard";
+import { canReadRecall, loadRecall, recallRows, shipmentsToBuyers, type Recall } from "@/server/recall";
+import { ReachedLotsTable, type ReachedLot } from "./components";
+
+export async function generateMetadata() {
+  return { title: (await getTranslations("recall"))("title") };
+}
+
+export default async function RecallPage({ searchParams }: { searchParams: Promise<{ code?: string | string[] }> }) {
+  const user = await requirePageUser();
+  if (!canReadRecall(user)) forbidden();
+  const t = await getTranslations();
+  const raw = (await searchParams).code;
+  const code = normaliseLotCode((Array.isArray(raw) ? raw[0] : raw) ?? "");
+  let recall: Recall | null = null;
+  if (code) {
+    try {
+      recall = loadRecall(user, code);
+    } catch (error) {
+      if (!(error instanceof AppError && error.code === "not_found")) throw error;
+    }
+  }
+  const rows = recall ? recallRows(recall) : [];
+  const shipments = shipmentsToBuyers(rows);
+  const shipped = new Set(shipments.filter((s) => s.correctedBy === null).map((s) => s.lot));
+  const lots: ReachedLot[] = (recall?.lots ?? []).map((l) => ({ code: l.code, kind: l.kind, unit: l.unit, fraction: l.fraction, onHand: l.onHand, holder: l.holder.name, recalled: l.code === recall!.lot.code, shippedToBuyer: shipped.has(l.code) }));
+  const api = `/api/trace/${encodeURIComponent(code)}`;
+  return (
+    <div className="max-w-5xl space-y-6">
+      <header>
+        <h1 className="text-3xl font-bold">{t("recall.title")}</h1>
+        <p className="text-ink-soft">{t("recall.intro")}</p>
+      </header>
+      <LotLookupForm action="/recall" defaultCode={code} />
+      {code && !recall ? <p role="alert" className="notice-warn">{t("lookup.notFound", { code })}</p> : null}
+      {recall ? (
+        <>
+          <section className="space-y-2">
+            <h2 className="text-2xl font-bold">{t("recall.heading", { code: recall.lot.code, kind: t(`lot.kinds.${recall.lot.kind}`) })}</h2>
+            <p>{t("recall.summary", { lots: recall.lots.length - 1, shipments: shipments.length })}</p>
+          </section>
+          <section className="space-y-2" aria-labelledby="recall-shipments">
+            <h3 id="recall-shipments" className="text-xl font-bold">{t("recall.shipmentsTitle")}</h3>
+            {shipments.length ? (
+              <ul className="space-y-2" data-testid="recall-shipments">
+                {shipments.map((s) => (
+                  <li key={`${s.eventId}-${s.lot}`} className="notice-warn">
+                    {t("recall.shipment", { date: s.at.slice(0, 10), quantity: s.quantity, unit: s.unit, lot: s.lot, buyer: s.counterparty })}
+                    {s.referenceDoc ? ` · ${t("recall.shipmentRef", { ref: s.referenceDoc })}` : null}
+                    {s.correctedBy !== null ? ` · ${t("recall.shipmentCorrected", { id: s.correctedBy })}` : null}
+                  </li>
+                ))}
+              </ul>
+            ) : (
+              <p className="text-ink-soft">{t("recall.noShipments")}</p>
+            )}
+          </section>
+          <section className="space-y-2">
+            <h3 className="text-xl font-bold">{t("recall.reachedTitle")}</h3>
+            <ReachedLotsTable lots={lots} />
+          </section>
+          <section className="panel space-y-3">
+            <h3 className="text-xl font-bold">{t("recall.downloadsTitle")}</h3>
+            <p>
+              <a href={`${api}/recall.csv`} download className="btn" data-testid="recall-csv">{t("recall.downloadCsv")}</a>
+              <span className="ml-3 text-sm text-ink-soft">{t("recall.downloadCsvHint")}</span>
+            </p>
+            <p>
+              <a href={`${api}/epcis`} download className="btn-quiet" data-testid="recall-epcis">{t("recall.downloadEpcis")}</a>
+              <span className="ml-3 text-sm text-ink-soft">{t("recall.downloadEpcisHint")}</span>
+            </p>
+          </section>
+        </>
+      ) : null}
+      <p className="notice text-sm">{t("caution.records")}</p>
+    </div>
+  );
+}

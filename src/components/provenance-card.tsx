@@ -1,0 +1,34 @@
+import { getFormatter, getTranslations } from "next-intl/server";
+import type { Provenance } from "@/server/provenance";
+
+type Show = Partial<Record<"varieties" | "origin" | "growers" | "polishingRatio" | "categories" | "dates" | "koji", boolean>>;
+
+/** The provenance answer: what a buyer may be told about a lot, from its lineage. */
+export async function ProvenanceCard({ p, show = {} }: { p: Provenance; show?: Show }) {
+  const t = await getTranslations("provenance");
+  const format = await getFormatter();
+  const on = (k: keyof Show) => show[k] !== false;
+  const pct = (v: number) => format.number(v, { style: "percent", maximumFractionDigits: 1 });
+  const date = (iso: string) => format.dateTime(new Date(iso), { dateStyle: "medium" });
+  const row = (label: string, value: React.ReactNode, testId: string) => (
+    <div className="grid gap-1 border-t border-paper-deep py-3 sm:grid-cols-[12rem_1fr]" data-testid={testId}>
+      <dt className="font-semibold text-ink-soft">{label}</dt>
+      <dd>{value}</dd>
+    </div>
+  );
+  if (p.shares === 0) return <p className="notice">{t("notRice")}</p>;
+  return (
+    <dl className="panel" data-testid="provenance-card">
+      {on("varieties") ? row(t("varieties"), p.varieties.map((v) => `${v.name} ${pct(v.share)}`).join(" · "), "prov-varieties") : null}
+      {on("varieties") && p.cropYears.length ? row(t("cropYears"), p.cropYears.join(", "), "prov-crop-years") : null}
+      {on("origin") ? row(t("origin"), <><strong>{p.originStatement}</strong><br /><span className="text-sm text-ink-soft">{t("originHint")}</span></>, "prov-origin") : null}
+      {on("growers") ? row(t("growers"), p.growers.map((g) => `${g.name ?? t("unnamedGrower")} ${pct(g.share)}`).join(" · "), "prov-growers") : null}
+      {on("polishingRatio") && p.polishingRatiosPct.length ? row(t("polishingRatio"), p.polishingRatiosPct.map((r) => `${format.number(r, { maximumFractionDigits: 1 })} %`).join(", "), "prov-ratio") : null}
+      {on("koji") && p.kojiRatioPct !== null ? row(t("kojiRatio"), `${format.number(p.kojiRatioPct, { maximumFractionDigits: 1 })} %`, "prov-koji") : null}
+      {on("categories") && p.lot.kind !== "harvest" ? row(t("categories"), p.categories.length ? p.categories.join(", ") : t("noCategory"), "prov-categories") : null}
+      {on("dates") && p.brewedOn.length ? row(t("brewedOn"), p.brewedOn.map(date).join(", "), "prov-brewed") : null}
+      {on("dates") && p.pressedOn.length ? row(t("pressedOn"), p.pressedOn.map(date).join(", "), "prov-pressed") : null}
+      {on("dates") && p.bottledOn.length ? row(t("bottledOn"), p.bottledOn.map(date).join(", "), "prov-bottled") : null}
+    </dl>
+  );
+}

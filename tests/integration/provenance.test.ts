@@ -1,0 +1,51 @@
+import { describe, expect, it } from "vitest";
+import { GET as sheetRoute } from "../../app/api/provenance/[code]/sheet.pdf/route";
+import { getSqlite } from "@/server/db";
+import { provenanceFor, publicProvenance } from "@/server/provenance";
+import { call, jsonRequest, signInAs } from "../support/api";
+
+const t = (key: string) => key;
+const sales = { id: "user-sales", role: "sales" as const, partyId: "brewery-kirinoha", email: "", name: "" };
+const code = (sql: string) => (getSqlite().prepare(sql).get() as { code: string }).code;
+
+// The seeded blend bottling (GTIN 9506000134376): 400 L of Tank 2 sake + 600 L of Tank 3 sake.
+// Tank 2 and Tank 3 rice both come from the 60 % polished lot: 500 kg Yamada Nishiki brown rice
+// from the co-op (Okayama) + 1,800 kg Omachi from the Nakase paddies (Hyogo), by brown weight.
+describe("provenance answer", () => {
+  it("names varieties, origins by weight, and only growers who agreed to be named", () => {
+    const bottled = code("select code from lots where kind = 'bottled' and json_extract(attributes, '$.gtin') = '9506000134376'");
+    const p = provenanceFor(sales, bottled, t);
+    expect(p.varieties.map((v) => v.name)).toEqual(["Omachi", "Yamada Nishiki"]);
+    expect(p.varieties[0]!.share).toBeCloseTo(1800 / 2300, 9);
+    expect(p.originStatement).toBe("Hyogo, Okayama");
+    // Nakase Family Paddies did not agree to be named; the co-op did.
+    expect(p.growers).toEqual([
+      { name: null, share: expect.closeTo(1800 / 2300, 9) },
+      { name: "Upper Asagiri Growers' Cooperative", share: expect.closeTo(500 / 2300, 9) },
+    ]);
+    expect(p.polishingRatiosPct).toEqual([60]);
+    expect(p.bottledOn).toHaveLength(1);
+    // One brew date per tank (its first addition) and one pressing each.
+    expect(p.brewedOn).toHaveLength(2);
+    expect(p.pressedOn).toHaveLength(2);
+  });
+
+  it("answers the public page only for a bottling whose GTIN matches", () => {
+    const bottled = code("select code from lots where kind = 'bottled' and json_extract(attributes, '$.gtin') = '9506000134352' order by id limit 1");
+    const found = publicProvenance("09506000134352", bottled, t);
+    expect(found.provenance.categories).toContain("junmai daiginjo");
+    expect(() => publicProvenance("09506000134369", bottled, t)).toThrow(/not found/);
+    expect(() => publicProvenance("09506000134352", "P26-0001", t)).toThrow(/not found/);
+  });
+
+  it("downloads a provenance sheet as PDF for sales; a grower may not", async () => {
+    const bottled = code("select code from lots where kind = 'bottled' order by id limit 1");
+    const res = await sheetRoute(jsonRequest(`/api/provenance/${bottled}/sheet.pdf`, { cookie: await signInAs("sales@example.com") }), { params: Promise.resolve({ code: bottled }) });
+    expect(res.status).toBe(200);
+    expect(res.headers.get("content-type")).toBe("application/pdf");
+    const bytes = Buffer.from(await res.arrayBuffer());
+    expect(bytes.subarray(0, 5).toString()).toBe("%PDF-");
+    const grower = await call(sheetRoute, jsonRequest(`/api/provenance/${bottled}/sheet.pdf`, { cookie: await signInAs("grower@example.com") }), { code: bottled });
+    expect(grower.status).toBe(403);
+  });
+});
