@@ -1,5 +1,4 @@
 import type { Metadata, Viewport } from "next";
-import { NextIntlClientProvider } from "next-intl";
 import { getLocale, getTranslations } from "next-intl/server";
 import { bodyFont, codeFont, displayFont } from "@/components/fonts";
 import "./globals.css";
@@ -16,7 +15,7 @@ export default async function RootLayout({ children }: { children: React.ReactNo
   return (
     <html lang={locale} className={`${bodyFont.variable} ${displayFont.variable} ${codeFont.variable}`}>
       <body className="min-h-dvh antialiased">
-        <NextIntlClientProvider>{children}</NextIntlClientProvider>
+        {children}
       </body>
     </html>
   );

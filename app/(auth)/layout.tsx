@@ -1,3 +1,4 @@
+import { NextIntlClientProvider } from "next-intl";
 import { getTranslations } from "next-intl/server";
 import { BrandMark } from "@/components/brand-mark";
 
@@ -12,7 +13,9 @@ export default async function AuthLayout({ children }: { children: React.ReactNo
           <p className="text-sm text-ink-soft">{t("tagline")}</p>
         </div>
       </div>
-      <div className="panel">{children}</div>
+      <div className="panel">
+        <NextIntlClientProvider>{children}</NextIntlClientProvider>
+      </div>
     </main>
   );
 }

@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { NextIntlClientProvider } from "next-intl";
 import { redirect } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { BrandMark } from "@/components/brand-mark";
@@ -13,6 +14,7 @@ export default async function FloorLayout({ children }: { children: React.ReactN
   if (!user) redirect("/sign-in");
   const t = await getTranslations();
   return (
+    <NextIntlClientProvider>
     <div className="min-h-dvh bg-ink text-paper">
       <header className="flex items-center justify-between gap-3 border-b-4 border-koji px-4 py-3">
         <Link href="/scan" className="flex min-h-12 items-center gap-2 text-paper no-underline">
@@ -26,5 +28,6 @@ export default async function FloorLayout({ children }: { children: React.ReactN
         {children}
       </main>
     </div>
+    </NextIntlClientProvider>
   );
 }

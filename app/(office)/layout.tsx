@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { NextIntlClientProvider } from "next-intl";
 import { redirect } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { BrandMark } from "@/components/brand-mark";
@@ -12,6 +13,7 @@ export default async function OfficeLayout({ children }: { children: React.React
   if (!user) redirect("/sign-in");
   const t = await getTranslations();
   return (
+    <NextIntlClientProvider>
     <div className="min-h-dvh">
       <header className="border-b-4 border-koji bg-cedar-deep text-paper print:hidden">
         <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-2">
@@ -33,5 +35,6 @@ export default async function OfficeLayout({ children }: { children: React.React
         {children}
       </main>
     </div>
+    </NextIntlClientProvider>
   );
 }

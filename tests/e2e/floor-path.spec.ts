@@ -63,6 +63,7 @@ test("one tank's whole path on a phone: soak, steam, split, koji, starter, three
   await expect(page.getByTestId("floor-error")).toContainText("check digit");
   await form.getByLabel("GTIN on the label").fill("4006381333931");
   await form.getByRole("button", { name: "Record bottling" }).click();
+  await expect(page.getByTestId("floor-result").locator(".code-chip").first()).toBeVisible();
   const bottled = (await page.getByTestId("floor-result").locator(".code-chip").allTextContents())[0]!;
   expect(bottled).toMatch(/^BT26-\d{4}$/);
 
