@@ -24,7 +24,11 @@ export function loadMessages(locale: Locale): Messages {
   return CATALOGUES[locale];
 }
 
-/** A translator usable outside React (route handlers, e-mail, the seed). */
+const translators = new Map<Locale, ReturnType<typeof createTranslator<Messages>>>();
+
+/** A translator usable outside React (route handlers, e-mail, the seed); one per locale, reused. */
 export function translator(locale: Locale) {
-  return createTranslator({ locale, messages: loadMessages(locale) });
+  let found = translators.get(locale);
+  if (!found) translators.set(locale, (found = createTranslator({ locale, messages: loadMessages(locale) })));
+  return found;
 }
