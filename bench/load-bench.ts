@@ -20,7 +20,7 @@ const seconds = Number(process.argv.find((a) => a.startsWith("--seconds="))?.spl
 function prepareDatabase() {
   mkdirSync(path.dirname(dbFile), { recursive: true });
   for (const s of ["", "-wal", "-shm"]) rmSync(dbFile + s, { force: true });
-  execFileSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), "--conditions=react-server", "-e", `import("./src/db/client.ts").then(async ({ openDatabase, migrateDatabase }) => { const { db, sqlite } = openDatabase(${JSON.stringify(dbFile)}); migrateDatabase(db); const { seedDemo } = await import("./src/server/seed.ts"); await seedDemo(db); sqlite.close(); })`], { cwd: root, env: { ...process.env, GRAINLINE_DB: dbFile } });
+  execFileSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), "--conditions=react-server", "src/cli/prepare-db.ts"], { cwd: root, env: { ...process.env, GRAINLINE_DB: dbFile } });
 }
 
 async function waitFor(url: string) {

@@ -5,8 +5,8 @@
 import { spawn, spawnSync } from "node:child_process";
 import { existsSync } from "node:fs";
 import path from "node:path";
-import { migrateDatabase, openDatabase } from "../db/client";
-import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from "../server/seed";
+import { DEMO_PASSWORD, DEMO_USERS } from "../server/seed";
+import { prepareDatabase } from "./prepare-db";
 
 const dbFile = process.env.GRAINLINE_DB || "data/grainline.db";
 const port = process.env.PORT || "3000";
@@ -14,11 +14,8 @@ const seedMode = process.env.GRAINLINE_SEED || "demo";
 const nextBin = path.resolve("node_modules/next/dist/bin/next");
 const env = { ...process.env, NEXT_TELEMETRY_DISABLED: "1", GRAINLINE_DB: dbFile };
 
-async function prepareDatabase() {
-  const { db, sqlite } = openDatabase(dbFile);
-  migrateDatabase(db);
-  const seeded = seedMode === "demo" ? await seedDemo(db) : false;
-  sqlite.close();
+async function prepare() {
+  const seeded = await prepareDatabase(dbFile, seedMode === "demo");
   console.log(`Database ${dbFile}: migrated${seeded ? ", demo scenario seeded" : ""}.`);
 }
 
@@ -42,6 +39,6 @@ function serve() {
   }
 }
 
-await prepareDatabase();
+await prepare();
 buildIfNeeded();
 serve();

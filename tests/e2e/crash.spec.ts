@@ -32,7 +32,7 @@ test("kill -9 during a burst of 1,000 writes: the database is intact and every a
   test.setTimeout(180_000);
   mkdirSync(path.dirname(db), { recursive: true });
   for (const suffix of ["", "-wal", "-shm"]) rmSync(db + suffix, { force: true });
-  execFileSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), "--conditions=react-server", "-e", `import("./src/db/client.ts").then(async ({ openDatabase, migrateDatabase }) => { const { db, sqlite } = openDatabase(${JSON.stringify(db)}); migrateDatabase(db); const { seedDemo } = await import("./src/server/seed.ts"); await seedDemo(db); sqlite.close(); })`], { cwd: root, env: { ...process.env, GRAINLINE_DB: db } });
+  execFileSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), "--conditions=react-server", "src/cli/prepare-db.ts"], { cwd: root, env: { ...process.env, GRAINLINE_DB: db } });
 
   let server = startServer();
   await waitUp();
