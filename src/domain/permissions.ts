@@ -113,3 +113,8 @@ export function canAttachToLot(actor: Actor | null, lot: { partyId: string; orig
   if (!can(actor, "attachments:add")) return false;
   return canActOnLot(actor, lot) || actor!.partyId === lot.originPartyId;
 }
+
+/** Roles that record any event at all (each step checks its own permission as well). */
+export function canRecordEvents(actor: Actor | null): boolean {
+  return (["polishing:record", "brewing:record", "harvests:record-own", "harvests:record-any", "records:correct"] as const).some((p) => can(actor, p));
+}

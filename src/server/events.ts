@@ -69,6 +69,8 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
   if (input.corrects !== undefined) fail("corrects", t("validation.notForStep"));
   if (input.inputs.length < rule.minInputs) fail("inputs", t("validation.needsInputs", { count: rule.minInputs }));
 
+  // A transformation draws something from every input; 0 kg is a typing slip, refused up front.
+  if (rule.content !== "none") input.inputs.forEach((i, n) => i.quantity > 0 || fail(`inputs.${n}.quantity`, t("validation.tooSmall", { minimum: 0 })));
   const inLots = input.inputs.map((i, n) => {
     const lot = lotByCode(tx, i.lot);
     if (!lot) fail(`inputs.${n}.lot`, t("validation.unknownLot"));

@@ -24,7 +24,14 @@ async function validate(sessionId: string | null): Promise<Validated & { fresh?:
 
 /** For route handlers: reads the session from the request's own Cookie header. */
 export async function sessionFromRequest(request: Request) {
-  return validate(lucia().readSessionCookie(request.headers.get("cookie") ?? ""));
+  let sessionId: string | null;
+  try {
+    sessionId = lucia().readSessionCookie(request.headers.get("cookie") ?? "");
+  } catch {
+    // A malformed Cookie header (a stray "%") is no session, not a server error.
+    sessionId = null;
+  }
+  return validate(sessionId);
 }
 
 export function isHttps(request: { url: string; headers: Headers }): boolean {

@@ -5,7 +5,9 @@ import { z } from "zod";
 import { formValues, type FormState } from "@/lib/form-state";
 import { harvestSchema } from "@/lib/validation/events";
 import { fieldSchema } from "@/lib/validation/fields";
+import { can } from "@/domain/permissions";
 import { guardAction } from "@/server/action";
+import { forbidden } from "@/server/errors";
 import { createField } from "@/server/fields";
 import { registerHarvest } from "@/server/harvests";
 import { requireUser } from "@/server/session";
@@ -14,6 +16,7 @@ export async function createFieldAction(_prev: FormState, formData: FormData): P
   const values = formValues(formData);
   return guardAction(values, async (t) => {
     const actor = await requireUser();
+    if (!can(actor, "fields:write-own") && !can(actor, "fields:write-any")) throw forbidden();
     createField(actor, fieldSchema.parse(values), t);
     revalidatePath("/fields");
     return { ok: true, message: t("fields.saved") };
@@ -34,6 +37,7 @@ export async function registerHarvestAction(_prev: FormState, formData: FormData
   const values = formValues(formData);
   return guardAction(values, async (t) => {
     const actor = await requireUser();
+    if (!can(actor, "harvests:record-own") && !can(actor, "harvests:record-any")) throw forbidden();
     const input = harvestSchema.parse(harvestForm.parse(values));
     const { body } = registerHarvest(actor, input, t);
     revalidatePath("/fields");

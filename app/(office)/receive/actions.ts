@@ -7,7 +7,8 @@ import { formValues, type FormState } from "@/lib/form-state";
 import { eventSchema } from "@/lib/validation/events";
 import { guardAction } from "@/server/action";
 import { lotByCode, recordEvent } from "@/server/events";
-import { invalid } from "@/server/errors";
+import { forbidden, invalid } from "@/server/errors";
+import { can } from "@/domain/permissions";
 import { getDb } from "@/server/db";
 import { getParty } from "@/server/parties";
 import { requireUser } from "@/server/session";
@@ -25,6 +26,7 @@ export async function receiveLotAction(_prev: FormState, formData: FormData): Pr
   const values = formValues(formData);
   return guardAction(values, async (t) => {
     const actor = await requireUser();
+    if (!can(actor, "polishing:record") && !can(actor, "brewing:record")) throw forbidden();
     const form = receiptForm.parse(values);
     const code = normaliseLotCode(form.code);
     const lot = lotByCode(getDb(), code);

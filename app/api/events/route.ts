@@ -1,9 +1,12 @@
+import { canRecordEvents } from "@/domain/permissions";
 import { eventSchema } from "@/lib/validation/events";
+import { forbidden } from "@/server/errors";
 import { handle, idempotencyKeyOf, readJson, requireApiUser } from "@/server/http";
 import { recordEvent } from "@/server/events";
 
 export const POST = handle(async (request, { t }) => {
   const actor = await requireApiUser(request);
+  if (!canRecordEvents(actor)) throw forbidden();
   const input = await readJson(request, eventSchema, t);
   const { status, body } = recordEvent(actor, input, t, idempotencyKeyOf(request));
   return Response.json(body, { status });

@@ -1,4 +1,6 @@
-import { fieldSchema } from "@/lib/validation/fields";
+import { fieldApiSchema } from "@/lib/validation/fields";
+import { can } from "@/domain/permissions";
+import { forbidden } from "@/server/errors";
 import { handle, readJson, requireApiUser } from "@/server/http";
 import { createField, listFields } from "@/server/fields";
 
@@ -10,6 +12,7 @@ export const GET = handle(async (request) => {
 
 export const POST = handle(async (request, { t }) => {
   const actor = await requireApiUser(request);
-  const input = await readJson(request, fieldSchema, t);
+  if (!can(actor, "fields:write-own") && !can(actor, "fields:write-any")) throw forbidden();
+  const input = await readJson(request, fieldApiSchema, t);
   return Response.json(createField(actor, input, t), { status: 201 });
 });

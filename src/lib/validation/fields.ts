@@ -14,3 +14,11 @@ export const fieldSchema = z.object({
   growerId: z.preprocess(blankToUndefined, z.string().min(1).max(64).optional()),
 });
 export type FieldInput = z.infer<typeof fieldSchema>;
+
+/** The JSON API takes numbers as numbers (../shared/api.md); only forms send strings to coerce. */
+export const fieldApiSchema = fieldSchema.extend({
+  areaHa: z.number().finite().positive().max(10_000),
+  latitude: z.number().min(-90).max(90).optional(),
+  longitude: z.number().min(-180).max(180).optional(),
+  growerId: z.string().min(1).max(64).optional(),
+});
