@@ -5,7 +5,8 @@ import { randomUUID } from "node:crypto";
 import { outbox } from "@/db/schema";
 import { getDb } from "./db";
 
-export type OutgoingMail = { to: string; subject: string; text: string; html?: string };
+// Attachments go to the transport (the JSON transport keeps them, base64); the outbox row keeps the text only.
+export type OutgoingMail = { to: string; subject: string; text: string; html?: string; attachments?: { filename: string; content: Buffer; contentType: string }[] };
 
 const FROM = () => process.env.GRAINLINE_MAIL_FROM || "Grainline <no-reply@grainline.invalid>";
 
