@@ -1,6 +1,6 @@
 import "server-only";
 import type { Translate } from "@/lib/validation/field-errors";
-import type { EntryRow } from "./supplier-ledger";
+import type { EntryRow, Ledger } from "./supplier-ledger";
 
 type DeliveryDetail = { kg: number; bags: number; grade: string | null; variety: string | null; cropYear: number | null; moisturePct: number | null; pricePerBagYen: number; moistureSteps: number; deductionPerBagYen: number; slip?: string };
 type FeeDetail = { brownKg: number; targetPolishingRatioPct: number; feePerKgYen: number };
@@ -35,4 +35,20 @@ export function describeEntry(e: Pick<EntryRow, "kind" | "detail" | "lotCode" | 
     case "adjustment":
       return t("suppliers.describe.adjustment", { reason: e.reason });
   }
+}
+
+export type AccountRow = { key: string; at: Date; kind: string; description: string; lot: string | null; taxRatePct: number; amountYen: number; statement: string | null };
+
+/** The account's lines for a table: entries in words, tax lines named by statement and rate. */
+export function accountRows(ledger: Ledger, t: Translate): AccountRow[] {
+  const byId = new Map(ledger.entries.map((e) => [e.id, e]));
+  return ledger.lines.map((l, n) => {
+    const e = l.entryId === null ? null : byId.get(l.entryId)!;
+    const description = e
+      ? describeEntry(e, t)
+      : l.statement
+        ? t("suppliers.taxRef", { rate: l.taxRatePct, statement: l.statement })
+        : t("suppliers.taxOpenRef", { rate: l.taxRatePct });
+    return { key: `${l.entryId ?? "tax"}-${n}`, at: l.at, kind: l.kind, description, lot: e?.lotCode ?? null, taxRatePct: l.taxRatePct, amountYen: l.amountYen, statement: l.statement };
+  });
 }
