@@ -1,5 +1,7 @@
 import "server-only";
+import { eq } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
+import { parties } from "@/db/schema";
 import { translator } from "@/i18n/messages";
 import type { Translate } from "@/lib/validation/field-errors";
 import type { SessionUser } from "./session";
@@ -19,6 +21,12 @@ const prices = (p: Record<string, number>) => Object.fromEntries(Object.entries(
  * its 2024 delivery shows among deliveries without a contract price.
  */
 export function seedSupplierContracts(tx: DbOrTx, admin: SessionUser) {
+  // Invented registration numbers: a leading 0 is never a corporate number's check digit
+  // (NTA corporate number rules — from memory), so none of these can be a real business's.
+  // The Nakase family farm is a small business outside the invoice system: no number.
+  for (const [id, invoiceNumber] of [["grower-ikeda", "T0000000000101"], ["grower-coop", "T0000000000303"], ["mill-shirotae", "T0000000000505"]]) {
+    tx.update(parties).set({ invoiceNumber }).where(eq(parties.id, id!)).run();
+  }
   const grower = (partyId: string, variety: string, cropYear: number, p: Record<string, number>, step: "0.1" | "1", deduction: number, note = "") =>
     addGrowerContract(admin, partyId, { variety, cropYear, prices: prices(p), moistureStepPct: step, moistureDeductionYen: deduction, note }, t, tx);
   grower("grower-ikeda", "Yamada Nishiki", 2024, { tokujo: 30_000, tokuto: 28_500, "1": 27_000, "2": 25_500, "3": 24_000 }, "0.1", 100);

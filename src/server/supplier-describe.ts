@@ -29,7 +29,7 @@ export function describeEntry(e: Pick<EntryRow, "kind" | "detail" | "lotCode" | 
       return t("suppliers.describe.polishing", { lot: e.lotCode ?? e.reference, kg: n(d.brownKg, 1), target: n(d.targetPolishingRatioPct, 1), fee: n(d.feePerKgYen) });
     }
     case "reversal":
-      return t("suppliers.describe.reversal", { what: t(`suppliers.kinds.${String(detail.reverses ?? "delivery")}`), lot: e.lotCode ?? e.reference, reason: e.reason });
+      return t("suppliers.describe.reversal", { what: t(`suppliers.reversesKinds.${String(detail.reverses ?? "delivery")}`), lot: e.lotCode ?? e.reference, reason: e.reason });
     case "payment":
       return t("suppliers.describe.payment", { method: t(`suppliers.methods.${e.method || "other"}`), reference: e.reference || "—" });
     case "adjustment":
