@@ -1,6 +1,5 @@
 "use client";
 
-import Link from "next/link";
 import { useFormatter, useTranslations } from "next-intl";
 import type { ColumnDef } from "@tanstack/react-table";
 import { AGEING_BUCKETS, type Ageing } from "@/domain/ageing";
@@ -72,8 +71,8 @@ export function StatementsTable({ partyId, rows }: { partyId: string; rows: Stat
       header: t("columns.files"),
       cell: (c) => (
         <span className="flex gap-3">
-          <Link href={`${base(c.row.original.number)}/statement.pdf`} prefetch={false}>{t("statements.pdf")}</Link>
-          <Link href={`${base(c.row.original.number)}/statement.csv`} prefetch={false}>{t("statements.csv")}</Link>
+          <a href={`${base(c.row.original.number)}/statement.pdf`} download>{t("statements.pdf")}</a>
+          <a href={`${base(c.row.original.number)}/statement.csv`} download>{t("statements.csv")}</a>
         </span>
       ),
     },
