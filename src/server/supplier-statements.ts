@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, desc, eq, like } from "drizzle-orm";
+import { asc, desc, eq, like } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { parties, supplierStatementEntries, supplierStatements, users } from "@/db/schema";
 import { can, canReadLedgerOf } from "@/domain/permissions";
@@ -108,7 +108,7 @@ export function listStatements(partyId: string) {
   return getDb()
     .select({ number: supplierStatements.number, from: supplierStatements.fromDay, to: supplierStatements.toDay, issuedAt: supplierStatements.issuedAt, totals: supplierStatements.totals, balanceYen: supplierStatements.balanceYen })
     .from(supplierStatements)
-    .where(and(eq(supplierStatements.partyId, partyId)))
+    .where(eq(supplierStatements.partyId, partyId))
     .orderBy(asc(supplierStatements.id))
     .all()
     .map((s) => ({ ...s, grossYen: (JSON.parse(s.totals) as StatementTotals).grossYen }));

@@ -70,10 +70,12 @@ export function GrowerContractForm({ partyId, defaultYear }: { partyId: string; 
   );
 }
 
-export function MillContractForm({ partyId }: { partyId: string }) {
+/** Starts from the tiers in force, so that a new version changes only what differs. */
+export function MillContractForm({ partyId, current }: { partyId: string; current: MillTerms["tiers"] }) {
   const t = useTranslations("suppliers.millContract");
   const f = useSupplierForm(addMillContractAction);
-  const defaults = [["50", ""], ["60", ""], ["70", ""], ["", ""]];
+  const given = current.map((tier) => [tier.upToRatioPct === null ? "" : String(tier.upToRatioPct), String(tier.feePerKgYen)]);
+  const defaults = [...given, ...[["50", ""], ["60", ""], ["70", ""], ["", ""]].slice(given.length)].slice(0, 4);
   return (
     <form action={f.run} key={f.key} className="grid gap-4" noValidate data-testid="mill-contract-form">
       <input type="hidden" name="partyId" value={partyId} />

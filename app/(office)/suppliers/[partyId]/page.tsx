@@ -8,7 +8,7 @@ import { dayInJapan } from "@/lib/validation/csv";
 import { actionTranslator } from "@/server/action";
 import { getDb } from "@/server/db";
 import { requirePageUser } from "@/server/page-guard";
-import { listContracts } from "@/server/supplier-contracts";
+import { currentMillContract, listContracts } from "@/server/supplier-contracts";
 import { accountRows } from "@/server/supplier-describe";
 import { ledgerOf } from "@/server/supplier-ledger";
 import { deliveriesOf, runsOf } from "@/server/supplier-portal";
@@ -57,7 +57,7 @@ export default async function SupplierPage({ params }: { params: Promise<{ party
         {manage ? (
           <div className="panel">
             <h3 className="mb-3 text-lg font-bold">{party.kind === "grower" ? t("growerContract.title") : t("millContract.title")}</h3>
-            {party.kind === "grower" ? <GrowerContractForm partyId={partyId} defaultYear={Number(today.slice(0, 4))} /> : <MillContractForm partyId={partyId} />}
+            {party.kind === "grower" ? <GrowerContractForm partyId={partyId} defaultYear={Number(today.slice(0, 4))} /> : <MillContractForm partyId={partyId} current={currentMillContract(getDb(), partyId)?.terms.tiers ?? []} />}
           </div>
         ) : null}
       </section>
@@ -67,7 +67,7 @@ export default async function SupplierPage({ params }: { params: Promise<{ party
         {unpriced.length || unpricedRuns.length ? (
           party.kind === "grower" ? <DeliveriesTable rows={unpriced} testId="unpriced-table" /> : <RunsTable rows={unpricedRuns} testId="unpriced-table" />
         ) : (
-          <p className="notice">{t("detail.unpricedNone")}</p>
+          <p className="notice">{party.kind === "grower" ? t("detail.unpricedNone") : t("detail.unpricedRunsNone")}</p>
         )}
       </section>
       <section className="space-y-3">
