@@ -2,6 +2,7 @@ import "server-only";
 import nodemailer from "nodemailer";
 import { desc, eq } from "drizzle-orm";
 import { randomUUID } from "node:crypto";
+import type { DbOrTx } from "@/db/client";
 import { outbox } from "@/db/schema";
 import { getDb } from "./db";
 
@@ -28,12 +29,13 @@ function transport() {
   };
 }
 
-export async function sendMail(mail: OutgoingMail): Promise<string> {
+/** `db`: the connection to keep the outbox row in — the seed passes the database it is seeding. */
+export async function sendMail(mail: OutgoingMail, db: DbOrTx = getDb()): Promise<string> {
   const { kind, t } = transport();
   const from = FROM();
   await t.sendMail({ from, ...mail });
   const id = randomUUID();
-  getDb()
+  db
     .insert(outbox)
     .values({ id, toAddress: mail.to, fromAddress: from, subject: mail.subject, textBody: mail.text, htmlBody: mail.html ?? null, transport: kind, createdAt: new Date() })
     .run();

@@ -61,5 +61,5 @@ export function seedSupplierAccounts(tx: DbOrTx, admin: SessionUser): string[] {
 
 export async function mailSeededStatements(db: DbOrTx, numbers: string[]) {
   const origin = process.env.GRAINLINE_ORIGIN?.replace(/\/$/, "") || `http://localhost:${process.env.PORT || 3000}`;
-  for (const number of numbers) await mailStatement(statementByNumber(db, number), origin, t);
+  for (const number of numbers) await mailStatement(statementByNumber(db, number), origin, t, db);
 }

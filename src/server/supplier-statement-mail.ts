@@ -1,4 +1,5 @@
 import "server-only";
+import type { DbOrTx } from "@/db/client";
 import type { Translate } from "@/lib/validation/field-errors";
 import { sendMail } from "./mail";
 import { statementPdf } from "./supplier-statement-files";
@@ -14,7 +15,7 @@ export const statementPdfPath = (partyId: string, number: string) => `/api/suppl
  * attachment (nodemailer's JSON transport keeps it); the outbox stores only the text, so the
  * text also links to the PDF in the supplier's account.
  */
-export async function mailStatement(view: StatementView, origin: string, t: Translate): Promise<string> {
+export async function mailStatement(view: StatementView, origin: string, t: Translate, db?: DbOrTx): Promise<string> {
   const pdf = await statementPdf(view, t);
   const fileName = `${view.number}.pdf`;
   return sendMail({
@@ -32,5 +33,5 @@ export async function mailStatement(view: StatementView, origin: string, t: Tran
       link: `${origin}${statementPdfPath(view.supplier.id, view.number)}`,
     }),
     attachments: [{ filename: fileName, content: Buffer.from(pdf), contentType: "application/pdf" }],
-  });
+  }, db);
 }
