@@ -14,6 +14,8 @@ export const OFFICE_NAV: NavItem[] = [
   { href: "/import", label: "import", show: (a) => IMPORTERS.some((p) => can(a, p)) },
   { href: "/records/transactions", label: "transactions", show: everyone },
   { href: "/mill", label: "mill", show: (a) => can(a, "polishing:record") },
+  { href: "/account", label: "account", show: (a) => can(a, "ledger:read-own") },
+  { href: "/suppliers", label: "suppliers", show: (a) => can(a, "ledger:read-all") },
   { href: "/receive", label: "receive", show: (a) => can(a, "polishing:record") || can(a, "brewing:record") },
   { href: "/scan", label: "scan", show: (a) => can(a, "brewing:record") },
   { href: "/provenance", label: "provenance", show: (a) => can(a, "provenance:read") },

@@ -17,6 +17,8 @@ export const parties = sqliteTable("parties", {
   phone: text("phone").notNull().default(""),
   // Growers and mills choose whether the brewery may name them on public provenance pages.
   namedPublicly: integer("named_publicly", { mode: "boolean" }).notNull().default(false),
+  // A supplier's qualified-invoice registration number ("T" and 13 digits), where they have one.
+  invoiceNumber: text("invoice_number"),
   createdAt: createdAt(),
 });
 
@@ -293,4 +295,99 @@ export const lotSourceDeltas = sqliteTable(
     amount: real("amount").notNull(),
   },
   (t) => [index("lot_source_by_lot").on(t.lotId, t.sourceLotId, t.amount), index("lot_source_by_source").on(t.sourceLotId, t.lotId, t.amount)],
+);
+
+// ---------------------------------------------------------------------------
+// The supplier ledger: what the brewery owes growers and mills, in integer yen. Contracts,
+// entries and statements are appended, never changed (triggers in the migration).
+
+export const SUPPLIER_CONTRACT_KINDS = ["grower", "mill"] as const;
+
+/**
+ * Contract terms by version: a new version supersedes the one before for the same scope
+ * (a grower's variety and crop year, or a mill's polishing); the old one stays on record.
+ */
+export const supplierContracts = sqliteTable(
+  "supplier_contracts",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    partyId: text("party_id").notNull().references(() => parties.id),
+    kind: text("kind", { enum: SUPPLIER_CONTRACT_KINDS }).notNull(),
+    // "variety|cropYear" for a grower, "polishing" for a mill.
+    scope: text("scope").notNull(),
+    variety: text("variety"),
+    cropYear: integer("crop_year"),
+    version: integer("version").notNull(),
+    // Prices per 60 kg bag by grade and the moisture rule, or the mill's fee tiers (JSON).
+    terms: text("terms").notNull(),
+    note: text("note").notNull().default(""),
+    userId: text("user_id").notNull().references(() => users.id),
+    createdAt: integer("created_at", { mode: "timestamp_ms" }).notNull(),
+  },
+  (t) => [uniqueIndex("supplier_contracts_version_unique").on(t.partyId, t.scope, t.version)],
+);
+
+export const SUPPLIER_ENTRY_KINDS = ["delivery", "polishing-fee", "reversal", "payment", "adjustment"] as const;
+
+/**
+ * One line of a supplier's account. Positive amounts are owed to the supplier, negative
+ * ones reduce it (payments). Taxable lines carry their rate; tax itself is computed per
+ * statement per rate, never per line.
+ */
+export const supplierEntries = sqliteTable(
+  "supplier_entries",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    partyId: text("party_id").notNull().references(() => parties.id),
+    kind: text("kind", { enum: SUPPLIER_ENTRY_KINDS }).notNull(),
+    at: integer("at", { mode: "timestamp_ms" }).notNull(),
+    amountYen: integer("amount_yen").notNull(),
+    // 8 (reduced, rice), 10 (standard, services) or 0 (outside the tax computation).
+    taxRatePct: integer("tax_rate_pct").notNull(),
+    eventId: integer("event_id").references(() => events.id),
+    reversesEntryId: integer("reverses_entry_id"),
+    contractId: integer("contract_id").references(() => supplierContracts.id),
+    lotId: integer("lot_id").references(() => lots.id),
+    // How the amount was worked out (kg, bags, grade, price, moisture steps, tier …), JSON.
+    detail: text("detail").notNull().default("{}"),
+    method: text("method").notNull().default(""),
+    reference: text("reference").notNull().default(""),
+    reason: text("reason").notNull().default(""),
+    userId: text("user_id").notNull().references(() => users.id),
+    recordedAt: integer("recorded_at", { mode: "timestamp_ms" }).notNull(),
+  },
+  (t) => [
+    index("supplier_entries_party_idx").on(t.partyId, t.at),
+    index("supplier_entries_event_idx").on(t.eventId),
+    uniqueIndex("supplier_entries_reverses_unique").on(t.reversesEntryId),
+  ],
+);
+
+/** A statement as issued: its period, the rounding it used and its totals, frozen. */
+export const supplierStatements = sqliteTable(
+  "supplier_statements",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    number: text("number").notNull(),
+    partyId: text("party_id").notNull().references(() => parties.id),
+    fromDay: text("from_day").notNull(),
+    toDay: text("to_day").notNull(),
+    rounding: text("rounding").notNull(),
+    // Per-rate net and tax, payments and adjustments of the period (JSON).
+    totals: text("totals").notNull(),
+    balanceYen: integer("balance_yen").notNull(),
+    userId: text("user_id").notNull().references(() => users.id),
+    issuedAt: integer("issued_at", { mode: "timestamp_ms" }).notNull(),
+  },
+  (t) => [uniqueIndex("supplier_statements_number_unique").on(t.number), index("supplier_statements_party_idx").on(t.partyId)],
+);
+
+/** Which entries a statement covers: each entry is stated once. */
+export const supplierStatementEntries = sqliteTable(
+  "supplier_statement_entries",
+  {
+    statementId: integer("statement_id").notNull().references(() => supplierStatements.id),
+    entryId: integer("entry_id").notNull().references(() => supplierEntries.id),
+  },
+  (t) => [uniqueIndex("supplier_statement_entries_entry_unique").on(t.entryId), index("supplier_statement_entries_statement_idx").on(t.statementId)],
 );

@@ -19,6 +19,7 @@ export const PERMISSIONS = [
   "provenance:read",
   "records:read-all",
   "ledger:read-own",
+  "ledger:read-all",
   "ledger:manage",
   "lots:act-any",
   "records:correct",
@@ -40,6 +41,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
     "brewing:record",
     "provenance:read",
     "records:read-all",
+    "ledger:read-all",
     "ledger:manage",
     "lots:act-any",
     "records:correct",
@@ -50,7 +52,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
   grower: ["fields:write-own", "harvests:record-own", "ledger:read-own", "attachments:add"],
   miller: ["polishing:record", "ledger:read-own", "attachments:add"],
   sales: ["fields:read-all", "provenance:read", "records:read-all"],
-  auditor: ["audit:read", "fields:read-all", "provenance:read", "records:read-all"],
+  auditor: ["audit:read", "fields:read-all", "provenance:read", "records:read-all", "ledger:read-all"],
 };
 
 export type Actor = { id: string; role: Role; partyId: string };
@@ -76,9 +78,9 @@ export function canReadFieldsOf(actor: Actor | null, growerId: string): boolean 
   return can(actor, "fields:write-own") && actor!.partyId === growerId;
 }
 
-/** Suppliers see only their own money; the office sees everyone's. */
+/** Suppliers see only their own money; the office (and the auditor, reading) sees everyone's. */
 export function canReadLedgerOf(actor: Actor | null, partyId: string): boolean {
-  if (can(actor, "ledger:manage")) return true;
+  if (can(actor, "ledger:manage") || can(actor, "ledger:read-all")) return true;
   return can(actor, "ledger:read-own") && actor!.partyId === partyId;
 }
 

@@ -9,13 +9,14 @@ import graph from "./messages/en/graph.json";
 import labels from "./messages/en/labels.json";
 import ledger from "./messages/en/ledger.json";
 import recall from "./messages/en/recall.json";
+import suppliers from "./messages/en/suppliers.json";
 import type { Locale } from "./locale";
 
 /**
  * The English catalogue, kept in one file per area so that work on one area does not
  * touch another's strings. Each file holds top-level namespaces; no two files share one.
  */
-const en = { ...core, ...ledger, ...labels, ...csv, ...attachments, ...brewing, ...floor, ...recall, ...graph };
+const en = { ...core, ...ledger, ...labels, ...csv, ...attachments, ...brewing, ...floor, ...recall, ...graph, ...suppliers };
 
 export type Messages = typeof en;
 const CATALOGUES: Record<Locale, Messages> = { en };

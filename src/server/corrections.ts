@@ -7,6 +7,7 @@ import type { EventInput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
 import { AppError, forbidden, invalid } from "./errors";
 import type { SessionUser } from "./session";
+import { reverseSupplierEntries } from "./supplier-entries";
 
 const EPS = 1e-6;
 
@@ -55,6 +56,7 @@ export function correctEvent(tx: DbOrTx, actor: SessionUser, input: EventInput, 
   if (deltas.length) {
     tx.insert(lotSourceDeltas).values(deltas.map((d) => ({ eventId: id, lotId: d.lotId, sourceLotId: d.sourceLotId, amount: -d.amount }))).run();
   }
+  reverseSupplierEntries(tx, { correctionId: id, originalId: original.id });
   return { id, outputs: [], warnings: [] as string[] };
 }
 

@@ -15,6 +15,7 @@ import { remember, replay, requestHash, type StoredResponse } from "./idempotenc
 import { allocateLotCode } from "./lot-codes";
 import { checkFloorStep } from "./floor-steps";
 import { checkPolishingRun } from "./polishing-runs";
+import { recordSupplierEntries } from "./supplier-entries";
 import type { SessionUser } from "./session";
 
 export type LotRow = typeof lots.$inferSelect;
@@ -167,6 +168,7 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
 
   const outputs = writeOutputs(tx, { eventId, at, step, eventParty, draws, outs, polishedRatio: polishing?.achievedPct ?? null, rule: rule.content, carried: floor?.outputAttributes ?? {} });
   writeMeasurements(tx, eventId, input, held, outputs.lots, t);
+  recordSupplierEntries(tx, { eventId, step, eventParty, counterparty, draws, at });
   return { id: eventId, outputs: outputs.summary, warnings };
 }
 

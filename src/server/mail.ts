@@ -2,10 +2,12 @@ import "server-only";
 import nodemailer from "nodemailer";
 import { desc, eq } from "drizzle-orm";
 import { randomUUID } from "node:crypto";
+import type { DbOrTx } from "@/db/client";
 import { outbox } from "@/db/schema";
 import { getDb } from "./db";
 
-export type OutgoingMail = { to: string; subject: string; text: string; html?: string };
+// Attachments go to the transport (the JSON transport keeps them, base64); the outbox row keeps the text only.
+export type OutgoingMail = { to: string; subject: string; text: string; html?: string; attachments?: { filename: string; content: Buffer; contentType: string }[] };
 
 const FROM = () => process.env.GRAINLINE_MAIL_FROM || "Grainline <no-reply@grainline.invalid>";
 
@@ -27,12 +29,13 @@ function transport() {
   };
 }
 
-export async function sendMail(mail: OutgoingMail): Promise<string> {
+/** `db`: the connection to keep the outbox row in — the seed passes the database it is seeding. */
+export async function sendMail(mail: OutgoingMail, db: DbOrTx = getDb()): Promise<string> {
   const { kind, t } = transport();
   const from = FROM();
   await t.sendMail({ from, ...mail });
   const id = randomUUID();
-  getDb()
+  db
     .insert(outbox)
     .values({ id, toAddress: mail.to, fromAddress: from, subject: mail.subject, textBody: mail.text, htmlBody: mail.html ?? null, transport: kind, createdAt: new Date() })
     .run();

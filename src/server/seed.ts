@@ -6,6 +6,7 @@ import type { PartyKind, Role } from "@/domain/roles";
 import { hashPassword } from "./passwords";
 import { seedBrewSeason } from "./seed-brewing";
 import { seedSeason } from "./seed-season";
+import { mailSeededStatements, seedSupplierAccounts, seedSupplierContracts } from "./seed-suppliers";
 import type { SessionUser } from "./session";
 
 /**
@@ -50,14 +51,17 @@ export async function seedDemo(db: Db): Promise<boolean> {
   if (db.select({ n: count() }).from(users).get()!.n > 0) return false;
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   const now = new Date();
-  db.transaction((tx) => {
+  const statements = db.transaction((tx) => {
     tx.insert(parties).values(PARTIES.map((p) => ({ ...p, createdAt: now }))).run();
     tx.insert(users).values(DEMO_USERS.map((u) => ({ ...u, passwordHash, createdAt: now }))).run();
     tx.insert(fields).values(FIELDS.map((f) => ({ ...f, createdAt: now }))).run();
     const actor = (id: string): SessionUser => DEMO_USERS.find((u) => u.id === id)!;
     const people = { admin: actor("user-admin"), grower: actor("user-grower"), grower2: actor("user-grower2"), miller: actor("user-miller"), brewer: actor("user-brewer") };
+    seedSupplierContracts(tx, people.admin);
     seedBrewSeason(tx, people);
     seedSeason(tx, { admin: actor("user-admin"), grower: actor("user-grower"), grower2: actor("user-grower2"), miller: actor("user-miller"), brewer: actor("user-brewer") });
+    return seedSupplierAccounts(tx, people.admin);
   });
+  await mailSeededStatements(db, statements);
   return true;
 }

@@ -1,0 +1,92 @@
+"use client";
+
+import { useActionState } from "react";
+import { useTranslations } from "next-intl";
+import { FormField } from "@/components/ui/form-field";
+import { FormMessage } from "@/components/ui/form-message";
+import { initialFormState, type FormState } from "@/lib/form-state";
+import { PAYMENT_METHODS } from "@/lib/validation/suppliers";
+import { issueStatementAction, recordAdjustmentAction, recordPaymentAction, setInvoiceNumberAction } from "./actions";
+
+type Action = (prev: FormState, formData: FormData) => Promise<FormState>;
+
+/** One form's state, with values kept after an error and cleared after a success. */
+export function useSupplierForm(action: Action) {
+  const [state, run, pending] = useActionState(action, initialFormState);
+  const v = (k: string, d = "") => (state.ok ? d : (state.values?.[k] ?? d));
+  return { state, run, pending, v, key: state.ok ? `ok-${state.message}` : "form" };
+}
+
+const Select = ({ label, name, value, options, errors }: { label: string; name: string; value: string; options: [string, string][]; errors?: string[] }) => (
+  <div>
+    <label htmlFor={name} className="field-label">{label}</label>
+    <select id={name} name={name} className="field-input" defaultValue={value}>
+      {options.map(([v, l]) => <option key={v} value={v}>{l}</option>)}
+    </select>
+    {errors?.length ? <p className="field-error">{errors.join(" ")}</p> : null}
+  </div>
+);
+
+export function InvoiceNumberForm({ partyId, current }: { partyId: string; current: string }) {
+  const t = useTranslations("suppliers.detail");
+  const f = useSupplierForm(setInvoiceNumberAction);
+  return (
+    <form action={f.run} className="flex flex-wrap items-end gap-3" noValidate data-testid="invoice-form">
+      <input type="hidden" name="partyId" value={partyId} />
+      <div className="w-full"><FormMessage state={f.state} /></div>
+      <FormField label={t("invoice")} name="invoiceNumber" defaultValue={f.v("invoiceNumber", current)} errors={f.state.fields?.invoiceNumber} placeholder="T1234567890123" className="field-input font-[family-name:var(--font-code)]" />
+      <button type="submit" className="btn" disabled={f.pending}>{t("saveInvoice")}</button>
+    </form>
+  );
+}
+
+export function PaymentForm({ partyId, today }: { partyId: string; today: string }) {
+  const t = useTranslations("suppliers");
+  const f = useSupplierForm(recordPaymentAction);
+  return (
+    <form action={f.run} key={f.key} className="grid gap-4 sm:grid-cols-2" noValidate data-testid="payment-form">
+      <input type="hidden" name="partyId" value={partyId} />
+      <div className="sm:col-span-2"><FormMessage state={f.state} /></div>
+      <FormField label={t("payment.date")} name="payDate" type="date" defaultValue={f.v("payDate", today)} errors={f.state.fields?.date} />
+      <FormField label={t("payment.amount")} name="payAmount" inputMode="numeric" defaultValue={f.v("payAmount")} errors={f.state.fields?.amountYen} />
+      <Select label={t("payment.method")} name="payMethod" value={f.v("payMethod", "bank-transfer")} options={PAYMENT_METHODS.map((m) => [m, t(`methods.${m}`)])} errors={f.state.fields?.method} />
+      <FormField label={t("payment.reference")} name="payReference" defaultValue={f.v("payReference")} errors={f.state.fields?.reference} />
+      <div className="sm:col-span-2"><button type="submit" className="btn" disabled={f.pending}>{t("payment.save")}</button></div>
+    </form>
+  );
+}
+
+export function AdjustmentForm({ partyId, today }: { partyId: string; today: string }) {
+  const t = useTranslations("suppliers");
+  const f = useSupplierForm(recordAdjustmentAction);
+  return (
+    <form action={f.run} key={f.key} className="grid gap-4 sm:grid-cols-2" noValidate data-testid="adjustment-form">
+      <input type="hidden" name="partyId" value={partyId} />
+      <div className="sm:col-span-2"><FormMessage state={f.state} /></div>
+      <FormField label={t("adjustment.date")} name="adjDate" type="date" defaultValue={f.v("adjDate", today)} errors={f.state.fields?.date} />
+      <FormField label={t("adjustment.amount")} name="adjAmount" inputMode="numeric" defaultValue={f.v("adjAmount")} errors={f.state.fields?.amountYen} />
+      <Select label={t("adjustment.rate")} name="adjRate" value={f.v("adjRate", "0")} options={["0", "8", "10"].map((r) => [r, t(`rates.${r}`)])} errors={f.state.fields?.taxRatePct} />
+      <FormField label={t("adjustment.reason")} name="adjReason" defaultValue={f.v("adjReason")} errors={f.state.fields?.reason} />
+      <div className="sm:col-span-2"><button type="submit" className="btn" disabled={f.pending}>{t("adjustment.save")}</button></div>
+    </form>
+  );
+}
+
+export function StatementForm({ partyId, from, to, hasEmail }: { partyId: string; from: string; to: string; hasEmail: boolean }) {
+  const t = useTranslations("suppliers.statements");
+  const f = useSupplierForm(issueStatementAction);
+  return (
+    <form action={f.run} key={f.key} className="grid gap-4 sm:grid-cols-3" noValidate data-testid="statement-form">
+      <input type="hidden" name="partyId" value={partyId} />
+      <div className="sm:col-span-3"><FormMessage state={f.state} /></div>
+      <FormField label={t("from")} name="from" type="date" defaultValue={f.v("from", from)} errors={f.state.fields?.from} />
+      <FormField label={t("to")} name="to" type="date" defaultValue={f.v("to", to)} errors={f.state.fields?.to} />
+      <label className="flex items-center gap-2 self-end pb-2">
+        <input type="checkbox" name="email" defaultChecked={hasEmail} disabled={!hasEmail} />
+        {t("email")}
+      </label>
+      {f.state.fields?.email ? <p className="field-error sm:col-span-3">{f.state.fields.email.join(" ")}</p> : null}
+      <div className="sm:col-span-3"><button type="submit" className="btn" disabled={f.pending}>{t("issue")}</button></div>
+    </form>
+  );
+}

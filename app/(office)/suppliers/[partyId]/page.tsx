@@ -1,0 +1,107 @@
+import Link from "next/link";
+import { forbidden, notFound } from "next/navigation";
+import { getTranslations } from "next-intl/server";
+import { AccountTable, BalancePanel, StatementsTable } from "@/components/supplier-account";
+import { DeliveriesTable, RunsTable } from "@/components/supplier-activity";
+import { can } from "@/domain/permissions";
+import { dayInJapan } from "@/lib/validation/csv";
+import { actionTranslator } from "@/server/action";
+import { getDb } from "@/server/db";
+import { requirePageUser } from "@/server/page-guard";
+import { currentMillContract, listContracts } from "@/server/supplier-contracts";
+import { accountRows } from "@/server/supplier-describe";
+import { ledgerOf } from "@/server/supplier-ledger";
+import { deliveriesOf, runsOf } from "@/server/supplier-portal";
+import { listStatements } from "@/server/supplier-statements";
+import { getParty } from "@/server/parties";
+import { ContractsTable, GrowerContractForm, MillContractForm } from "./contract-forms";
+import { AdjustmentForm, InvoiceNumberForm, PaymentForm, StatementForm } from "./components";
+
+export default async function SupplierPage({ params }: { params: Promise<{ partyId: string }> }) {
+  const user = await requirePageUser();
+  if (!can(user, "ledger:read-all")) forbidden();
+  const { partyId } = await params;
+  const party = getParty(partyId);
+  if (!party || (party.kind !== "grower" && party.kind !== "mill")) notFound();
+  const t = await getTranslations("suppliers");
+  const translate = await actionTranslator();
+  const manage = can(user, "ledger:manage");
+  const ledger = ledgerOf(getDb(), partyId);
+  const deliveries = party.kind === "grower" ? deliveriesOf(partyId) : [];
+  const runs = party.kind === "mill" ? runsOf(partyId) : [];
+  const unpriced = deliveries.filter((d) => d.amountYen === null && !d.reversed);
+  const unpricedRuns = runs.filter((r) => r.feeYen === null && !r.reversed);
+  const today = dayInJapan(new Date());
+  const statements = listStatements(partyId).map(({ totals: _t, ...s }) => s);
+  const lastTo = statements.at(-1)?.to;
+  const from = lastTo ? dayInJapan(new Date(Date.parse(`${lastTo}T12:00:00+09:00`) + 86_400_000)) : `${today.slice(0, 8)}01`;
+  return (
+    <div className="space-y-8">
+      <p><Link href="/suppliers">← {t("back")}</Link></p>
+      <header>
+        <h1 className="text-3xl font-bold">{party.name}</h1>
+        <p className="text-ink-soft">{t(`kindLabels.${party.kind}`)} · {t("detail.invoice")}: <span data-testid="invoice-number">{party.invoiceNumber ?? t("detail.invoiceNone")}</span></p>
+      </header>
+      <BalancePanel title={t("detail.balance")} balanceYen={ledger.balanceYen} ageing={ledger.ageing} note={t("portal.owedNote")} />
+      {manage ? (
+        <section className="panel max-w-3xl space-y-2">
+          <h2 className="text-xl font-bold">{t("detail.invoice")}</h2>
+          <p className="text-sm text-ink-soft">{t("detail.invoiceIntro")}</p>
+          <InvoiceNumberForm partyId={partyId} current={party.invoiceNumber ?? ""} />
+        </section>
+      ) : null}
+      <section className="space-y-3">
+        <h2 className="text-xl font-bold">{t("detail.contracts")}</h2>
+        <p className="max-w-3xl text-sm text-ink-soft">{t("detail.contractsIntro")}</p>
+        <ContractsTable rows={listContracts(partyId)} />
+        {manage ? (
+          <div className="panel">
+            <h3 className="mb-3 text-lg font-bold">{party.kind === "grower" ? t("growerContract.title") : t("millContract.title")}</h3>
+            {party.kind === "grower" ? <GrowerContractForm partyId={partyId} defaultYear={Number(today.slice(0, 4))} /> : <MillContractForm partyId={partyId} current={currentMillContract(getDb(), partyId)?.terms.tiers ?? []} />}
+          </div>
+        ) : null}
+      </section>
+      <section className="space-y-3" data-testid="unpriced">
+        <h2 className="text-xl font-bold">{party.kind === "grower" ? t("detail.unpriced") : t("detail.unpricedRuns")}</h2>
+        {party.kind === "grower" ? <p className="max-w-3xl text-sm text-ink-soft">{t("detail.unpricedIntro")}</p> : null}
+        {unpriced.length || unpricedRuns.length ? (
+          party.kind === "grower" ? <DeliveriesTable rows={unpriced} testId="unpriced-table" /> : <RunsTable rows={unpricedRuns} testId="unpriced-table" />
+        ) : (
+          <p className="notice">{party.kind === "grower" ? t("detail.unpricedNone") : t("detail.unpricedRunsNone")}</p>
+        )}
+      </section>
+      <section className="space-y-3">
+        <h2 className="text-xl font-bold">{party.kind === "grower" ? t("detail.deliveries") : t("detail.runs")}</h2>
+        {party.kind === "grower" ? <DeliveriesTable rows={deliveries} /> : <RunsTable rows={runs} />}
+      </section>
+      <section className="space-y-3">
+        <h2 className="text-xl font-bold">{t("detail.entries")}</h2>
+        <p className="max-w-3xl text-sm text-ink-soft">{t("detail.entriesIntro")}</p>
+        <AccountTable rows={accountRows(ledger, translate)} exportName={`grainline-account-${partyId}`} />
+      </section>
+      {manage ? (
+        <div className="grid gap-6 lg:grid-cols-2">
+          <section className="panel space-y-3">
+            <h2 className="text-xl font-bold">{t("payment.title")}</h2>
+            <PaymentForm partyId={partyId} today={today} />
+          </section>
+          <section className="panel space-y-3">
+            <h2 className="text-xl font-bold">{t("adjustment.title")}</h2>
+            <p className="text-sm text-ink-soft">{t("adjustment.intro")}</p>
+            <AdjustmentForm partyId={partyId} today={today} />
+          </section>
+        </div>
+      ) : null}
+      <section className="space-y-3">
+        <h2 className="text-xl font-bold">{t("statements.title")}</h2>
+        <p className="max-w-3xl text-sm text-ink-soft">{t("statements.intro")}</p>
+        <StatementsTable partyId={partyId} rows={statements} />
+        {manage ? (
+          <div className="panel max-w-3xl">
+            <StatementForm partyId={partyId} from={from > today ? today : from} to={today} hasEmail={Boolean(party.email)} />
+          </div>
+        ) : null}
+      </section>
+    </div>
+  );
+}

@@ -1,0 +1,17 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { formValues, type FormState } from "@/lib/form-state";
+import { guardAction } from "@/server/action";
+import { requireUser } from "@/server/session";
+import { saveTaxRounding } from "@/server/supplier-settings";
+
+export async function saveRoundingAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const values = formValues(formData);
+  return guardAction(values, async (t) => {
+    const actor = await requireUser();
+    saveTaxRounding(actor, values, t);
+    revalidatePath("/suppliers");
+    return { ok: true, message: t("suppliers.rounding.saved") };
+  });
+}

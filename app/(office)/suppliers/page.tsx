@@ -1,0 +1,32 @@
+import { forbidden } from "next/navigation";
+import { getTranslations } from "next-intl/server";
+import { can } from "@/domain/permissions";
+import { requirePageUser } from "@/server/page-guard";
+import { listSupplierBalances } from "@/server/supplier-ledger";
+import { readTaxRounding } from "@/server/supplier-settings";
+import { RoundingForm, SuppliersTable } from "./components";
+
+export async function generateMetadata() {
+  return { title: (await getTranslations("suppliers"))("title") };
+}
+
+export default async function SuppliersPage() {
+  const user = await requirePageUser();
+  if (!can(user, "ledger:read-all")) forbidden();
+  const t = await getTranslations("suppliers");
+  const rows = listSupplierBalances(user).map(({ id, name, kind, invoiceNumber, balanceYen, ageing }) => ({ id, name, kind, invoiceNumber, balanceYen, ageing }));
+  return (
+    <div className="space-y-8">
+      <header>
+        <h1 className="text-3xl font-bold">{t("title")}</h1>
+        <p className="max-w-3xl text-ink-soft">{t("intro")}</p>
+      </header>
+      <SuppliersTable rows={rows} />
+      <section className="panel max-w-3xl space-y-3">
+        <h2 className="text-xl font-bold">{t("rounding.title")}</h2>
+        <p className="text-sm text-ink-soft">{t("rounding.intro")}</p>
+        {can(user, "ledger:manage") ? <RoundingForm current={readTaxRounding()} /> : <p>{t(`rounding.${readTaxRounding()}`)}</p>}
+      </section>
+    </div>
+  );
+}

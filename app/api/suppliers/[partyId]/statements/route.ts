@@ -1,0 +1,25 @@
+import { z } from "zod";
+import { canReadLedgerOf } from "@/domain/permissions";
+import { forbidden } from "@/server/errors";
+import { appOrigin, handle, readJson, requireApiPermission, requireApiUser } from "@/server/http";
+import { mailStatement, statementPdfPath } from "@/server/supplier-statement-mail";
+import { issueStatement, listStatements, statementByNumber } from "@/server/supplier-statements";
+import { getDb } from "@/server/db";
+
+export const GET = handle(async (request, { params }) => {
+  const actor = await requireApiUser(request);
+  const partyId = params.partyId ?? "";
+  if (!canReadLedgerOf(actor, partyId)) throw forbidden();
+  const items = listStatements(partyId).map(({ totals: _totals, ...s }) => ({ ...s, pdf: statementPdfPath(partyId, s.number) }));
+  return Response.json({ items });
+});
+
+/** `{ from, to, email? }` → 201 `{ number, totals, balanceYen, mailed }`: issues (and e-mails) a statement. */
+export const POST = handle(async (request, { params, t }) => {
+  const actor = await requireApiPermission(request, "ledger:manage");
+  const partyId = params.partyId ?? "";
+  const body = await readJson(request, z.unknown(), t);
+  const issued = issueStatement(actor, partyId, body, t);
+  const mailed = issued.email ? await mailStatement(statementByNumber(getDb(), issued.number), appOrigin(request), t) : null;
+  return Response.json({ number: issued.number, totals: issued.totals, balanceYen: issued.balanceYen, mailed, pdf: statementPdfPath(partyId, issued.number) }, { status: 201 });
+});
