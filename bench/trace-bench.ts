@@ -250,8 +250,10 @@ async function main() {
   const sizes: Record<string, number> = {};
   for (const c of [...CASES, { key: "worst" as const, label: "largest bottled ←", direction: "backward" as const }]) {
     const sample = c.key === "worst" ? worst : picks[c.key].slice(0, sampleSize);
-    let worstDiff = 0, size = 0, queries = 0, paths = 0;
+    let worstDiff = 0, size = 0, queries = 0, paths = 0, bytes = 0, stringify = 0;
     for (const code of sample) {
+      const answer = c.direction === "backward" ? traceBackward(actor, code) : traceForward(actor, code);
+      stringify += time(() => (bytes += JSON.stringify(answer).length));
       const a = apiShares(code, c.direction);
       const b = perHop(code, c.direction);
       for (const m of methods.slice(2)) if (!m.only || m.only === c.direction) worstDiff = Math.max(worstDiff, maxDifference(a, m.run(code, c.direction) as Shares));
@@ -263,7 +265,7 @@ async function main() {
     if (worstDiff > TOLERANCE) disagreements++;
     sizes[c.key] = size / sample.length;
     const avg = (x: number) => Math.round(x / sample.length);
-    console.log(`  ${c.label.padEnd(20)} (b) (b′) (c): max |difference| ${worstDiff.toExponential(2)} ${worstDiff <= TOLERANCE ? "ok" : "MISMATCH"}; on average ${avg(size)} lots in the answer, ${avg(queries)} lots read by (b), ${avg(paths)} paths walked by (b′) and (c)`);
+    console.log(`  ${c.label.padEnd(20)} (b) (b′) (c): max |difference| ${worstDiff.toExponential(2)} ${worstDiff <= TOLERANCE ? "ok" : "MISMATCH"}; on average ${avg(size)} lots in the answer, ${avg(queries)} lots read by (b), ${avg(paths)} paths walked by (b′) and (c); (a)'s answer as JSON ${(bytes / sample.length / 1024).toFixed(1)} KB, JSON.stringify ${(stringify / sample.length).toFixed(2)} ms (not in the timings)`);
   }
 
   const results = {} as Record<Case | "worst", Record<string, Cell>>;

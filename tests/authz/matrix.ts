@@ -73,6 +73,8 @@ const POLISHED_VISIBLE = o("401", "ok", "ok", "404", "ok", "ok", "ok");
 const ADMIN_ONLY = o("401", "ok", "403", "403", "403", "403", "403");
 const ADMIN_ONLY_WRITE = o("401", "422", "403", "403", "403", "403", "403");
 /** provenance:read, or (recall) provenance:read or records:read-all: the same four roles. */
+/** Ikeda Farm's money: the office, the auditor and Ikeda Farm itself. */
+const IKEDA_LEDGER = o("401", "ok", "403", "ok", "403", "403", "ok");
 const OFFICE_READERS = o("401", "ok", "ok", "403", "403", "ok", "ok");
 
 export const ROUTES: RouteProbe[] = [
@@ -115,6 +117,13 @@ export const ROUTES: RouteProbe[] = [
   { file: "app/api/trace/[code]/epcis/route.ts", method: "GET", url: `/api/trace/${POLISHED}/epcis`, params: { code: POLISHED }, expect: OFFICE_READERS, why: "provenance:read or records:read-all, before the lot is looked up" },
   { file: "app/api/trace/[code]/recall.csv/route.ts", method: "GET", url: `/api/trace/${POLISHED}/recall.csv`, params: { code: POLISHED }, expect: OFFICE_READERS, why: "as epcis" },
   { file: "app/api/trace/[code]/route.ts", method: "GET", url: `/api/trace/${POLISHED}?direction=backward`, params: { code: POLISHED }, expect: POLISHED_VISIBLE, why: "whoever may see the lot" },
+  { file: "app/api/suppliers/[partyId]/ledger/route.ts", method: "GET", url: "/api/suppliers/grower-ikeda/ledger", params: { partyId: "grower-ikeda" }, expect: IKEDA_LEDGER, why: "the office and the auditor read any supplier; a supplier only its own (Ikeda Farm is the demo grower)" },
+  { file: "app/api/suppliers/[partyId]/payments/route.ts", method: "POST", url: "/api/suppliers/grower-ikeda/payments", params: { partyId: "grower-ikeda" }, body: {}, expect: ADMIN_ONLY_WRITE, why: "ledger:manage, before validation" },
+  { file: "app/api/suppliers/[partyId]/adjustments/route.ts", method: "POST", url: "/api/suppliers/grower-ikeda/adjustments", params: { partyId: "grower-ikeda" }, body: {}, expect: ADMIN_ONLY_WRITE, why: "ledger:manage, before validation" },
+  { file: "app/api/suppliers/[partyId]/statements/route.ts", method: "GET", url: "/api/suppliers/grower-ikeda/statements", params: { partyId: "grower-ikeda" }, expect: IKEDA_LEDGER, why: "as the ledger" },
+  { file: "app/api/suppliers/[partyId]/statements/route.ts", method: "POST", url: "/api/suppliers/grower-ikeda/statements", params: { partyId: "grower-ikeda" }, body: {}, expect: ADMIN_ONLY_WRITE, why: "ledger:manage, before validation" },
+  { file: "app/api/suppliers/[partyId]/statements/[number]/statement.pdf/route.ts", method: "GET", url: "/api/suppliers/grower-ikeda/statements/S-2025-0001/statement.pdf", params: { partyId: "grower-ikeda", number: "S-2025-0001" }, expect: IKEDA_LEDGER, why: "as the ledger (a seeded statement of Ikeda Farm)" },
+  { file: "app/api/suppliers/[partyId]/statements/[number]/statement.csv/route.ts", method: "GET", url: "/api/suppliers/grower-ikeda/statements/S-2025-0001/statement.csv", params: { partyId: "grower-ikeda", number: "S-2025-0001" }, expect: IKEDA_LEDGER, why: "as the ledger" },
   { file: "app/api/users/route.ts", method: "GET", url: "/api/users", expect: ADMIN_ONLY, why: "users:manage" },
   { file: "app/api/users/route.ts", method: "POST", url: "/api/users", body: {}, expect: ADMIN_ONLY_WRITE, why: "users:manage, before validation" },
 ];
@@ -170,6 +179,9 @@ export const PAGES: PageEntry[] = [
   { file: "app/(office)/receive/page.tsx", guard: { by: "user", anyOf: ["polishing:record", "brewing:record"] }, expect: o("redirect:/sign-in", "ok", "ok", "403", "ok", "403", "403") },
   { file: "app/(office)/records/page.tsx", guard: { by: "permission", permission: "audit:read" }, expect: o("redirect:/sign-in", "ok", "403", "403", "403", "403", "ok") },
   { file: "app/(office)/records/transactions/page.tsx", guard: { by: "user" }, expect: PAGE_SIGNED_IN },
+  { file: "app/(office)/account/page.tsx", guard: { by: "user", anyOf: ["ledger:read-own"] }, expect: o("redirect:/sign-in", "403", "403", "ok", "ok", "403", "403") },
+  { file: "app/(office)/suppliers/page.tsx", guard: { by: "user", anyOf: ["ledger:read-all"] }, expect: o("redirect:/sign-in", "ok", "403", "403", "403", "403", "ok") },
+  { file: "app/(office)/suppliers/[partyId]/page.tsx", guard: { by: "user", anyOf: ["ledger:read-all"] }, expect: o("redirect:/sign-in", "ok", "403", "403", "403", "403", "ok") },
   { file: "app/(public)/01/[gtin]/10/[lot]/page.tsx", guard: { by: "public", why: "the bottle's provenance page (GS1 Digital Link): only what the brewery marked public", source: ["publicProvenance("] }, expect: PUBLIC },
 ];
 
@@ -210,6 +222,13 @@ export const ACTIONS: ActionEntry[] = [
   { file: "app/(office)/fields/actions.ts", name: "createFieldAction", guard: { by: "user", checkedIn: "createField" }, form: {}, expect: o("401", "422", "403", "422", "403", "403", "403") },
   { file: "app/(office)/fields/actions.ts", name: "registerHarvestAction", guard: { by: "user", checkedIn: "registerHarvest" }, form: {}, expect: o("401", "422", "403", "422", "403", "403", "403") },
   { file: "app/(office)/lots/[code]/actions.ts", name: "correctEventAction", guard: { by: "user", checkedIn: "recordEvent" }, form: {}, expect: o("401", "422", "422", "422", "422", "422", "422") },
+  { file: "app/(office)/suppliers/actions.ts", name: "saveRoundingAction", guard: { by: "user", checkedIn: "saveTaxRounding" }, form: {}, expect: ADMIN_ONLY_WRITE },
+  { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "setInvoiceNumberAction", guard: { by: "user", checkedIn: "setInvoiceNumber" }, form: {}, expect: o("401", "404", "403", "403", "403", "403", "403") },
+  { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "addGrowerContractAction", guard: { by: "user", checkedIn: "addGrowerContract" }, form: {}, expect: ADMIN_ONLY_WRITE },
+  { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "addMillContractAction", guard: { by: "user", checkedIn: "addMillContract" }, form: {}, expect: ADMIN_ONLY_WRITE },
+  { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "recordPaymentAction", guard: { by: "user", checkedIn: "recordPayment" }, form: {}, expect: ADMIN_ONLY_WRITE },
+  { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "recordAdjustmentAction", guard: { by: "user", checkedIn: "recordAdjustment" }, form: {}, expect: ADMIN_ONLY_WRITE },
+  { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "issueStatementAction", guard: { by: "user", checkedIn: "issueStatement" }, form: {}, expect: ADMIN_ONLY_WRITE },
   { file: "app/(office)/receive/actions.ts", name: "receiveLotAction", guard: { by: "user", checkedIn: "recordEvent" }, form: {}, expect: o("401", "422", "422", "403", "422", "403", "403") },
 ];
 
