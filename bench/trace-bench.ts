@@ -265,7 +265,7 @@ async function main() {
     if (worstDiff > TOLERANCE) disagreements++;
     sizes[c.key] = size / sample.length;
     const avg = (x: number) => Math.round(x / sample.length);
-    console.log(`  ${c.label.padEnd(20)} (b) (b′) (c): max |difference| ${worstDiff.toExponential(2)} ${worstDiff <= TOLERANCE ? "ok" : "MISMATCH"}; on average ${avg(size)} lots in the answer, ${avg(queries)} lots read by (b), ${avg(paths)} paths walked by (b′) and (c); (a)'s answer as JSON ${(bytes / sample.length / 1024).toFixed(1)} KB, JSON.stringify ${(stringify / sample.length).toFixed(2)} ms (not in the timings)`);
+    console.log(`  ${c.label.padEnd(20)} (b) (b′) (c) (d): max |difference| ${worstDiff.toExponential(2)} ${worstDiff <= TOLERANCE ? "ok" : "MISMATCH"}; on average ${avg(size)} lots in the answer, ${avg(queries)} lots read by (b), ${avg(paths)} paths walked by (b′) and (c); (a)'s answer as JSON ${(bytes / sample.length / 1024).toFixed(1)} KB, JSON.stringify ${(stringify / sample.length).toFixed(2)} ms (not in the timings)`);
   }
 
   const results = {} as Record<Case | "worst", Record<string, Cell>>;

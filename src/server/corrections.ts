@@ -6,6 +6,7 @@ import { canCorrect } from "@/domain/permissions";
 import type { EventInput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
 import { AppError, forbidden, invalid } from "./errors";
+import { insertInChunks } from "./batch";
 import type { SessionUser } from "./session";
 import { reverseSupplierEntries } from "./supplier-entries";
 
@@ -50,11 +51,11 @@ export function correctEvent(tx: DbOrTx, actor: SessionUser, input: EventInput, 
   returnInputs(tx, id, original);
   const edges = tx.select().from(lineageEdges).where(eq(lineageEdges.eventId, original.id)).all();
   if (edges.length) {
-    tx.insert(lineageEdges).values(edges.map((e) => ({ eventId: id, parentLotId: e.parentLotId, childLotId: e.childLotId, weight: -e.weight }))).run();
+    insertInChunks(edges.map((e) => ({ eventId: id, parentLotId: e.parentLotId, childLotId: e.childLotId, weight: -e.weight })), (rows) => tx.insert(lineageEdges).values(rows).run());
   }
   const deltas = tx.select().from(lotSourceDeltas).where(eq(lotSourceDeltas.eventId, original.id)).all();
   if (deltas.length) {
-    tx.insert(lotSourceDeltas).values(deltas.map((d) => ({ eventId: id, lotId: d.lotId, sourceLotId: d.sourceLotId, amount: -d.amount }))).run();
+    insertInChunks(deltas.map((d) => ({ eventId: id, lotId: d.lotId, sourceLotId: d.sourceLotId, amount: -d.amount })), (rows) => tx.insert(lotSourceDeltas).values(rows).run());
   }
   reverseSupplierEntries(tx, { correctionId: id, originalId: original.id });
   return { id, outputs: [], warnings: [] as string[] };

@@ -8,6 +8,7 @@ import { can, canActOnLot, type Permission } from "@/domain/permissions";
 import { STEP_RULES, UNIT_OF_KIND, type LotKind, type RecordableStep } from "@/domain/steps";
 import type { EventInput, NewOutput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
+import { insertInChunks } from "./batch";
 import { correctEvent } from "./corrections";
 import { getDb } from "./db";
 import { AppError, forbidden, invalid, type FieldErrors } from "./errors";
@@ -272,12 +273,12 @@ function writeOutputs(tx: DbOrTx, c: WriteContext) {
     inputsDrawn.map((d) => ({ lotId: d.lot.id, content: d.content })),
     written.map((lot, n) => ({ lotId: lot.id, content: contents[n]! })),
   );
-  if (edges.length) tx.insert(lineageEdges).values(edges.map((e) => ({ ...e, eventId: c.eventId }))).run();
+  insertInChunks(edges.map((e) => ({ ...e, eventId: c.eventId })), (rows) => tx.insert(lineageEdges).values(rows).run());
   const deltas = propagateComposition(
     inputsDrawn.map((d) => ({ content: d.content, contentIn: d.lot.contentIn, sources: sourceAmounts(tx, d.lot.id) })),
     written.map((lot, n) => ({ lotId: lot.id, content: contents[n]! })),
   );
-  if (deltas.length) tx.insert(lotSourceDeltas).values(deltas.map((d) => ({ ...d, eventId: c.eventId }))).run();
+  insertInChunks(deltas.map((d) => ({ ...d, eventId: c.eventId })), (rows) => tx.insert(lotSourceDeltas).values(rows).run());
   return { lots: written, summary };
 }
 

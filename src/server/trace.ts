@@ -70,22 +70,45 @@ export function descendantsOf(lot: LotHead): Reached[] {
       where l.id <> ${lot.id} and l.content_in > 0 and abs(d.amount) > 1e-9
       order by l.id`);
   }
-  return db.all<Reached>(sql`
-    with recursive down(lot_id, frac) as (
-      select ${lot.id}, 1.0
-      union all
-      select e.child_lot_id, down.frac * e.weight / c.content_in
-      from down
-      join lineage_edges e on e.parent_lot_id = down.lot_id
-      join lots c on c.id = e.child_lot_id
-      where c.content_in > 0
+  // The distinct descendants and the net edges among them, in one statement; the fractions
+  // are then multiplied once per edge in topological order, not once per path (a lot reached
+  // through many blends would otherwise be walked once for every route to it).
+  const edges = db.all<{ parent: number; child: number; weight: number; contentIn: number }>(sql`
+    with recursive down(lot_id) as (
+      select ${lot.id}
+      union
+      select e.child_lot_id from down join lineage_edges e on e.parent_lot_id = down.lot_id
     )
-    select l.code, l.kind, sum(down.frac) as fraction
-    from down join lots l on l.id = down.lot_id
-    where down.lot_id <> ${lot.id}
-    group by down.lot_id
-    having abs(sum(down.frac)) > 1e-9
-    order by down.lot_id`);
+    select e.parent_lot_id as parent, e.child_lot_id as child, sum(e.weight) as weight, c.content_in as contentIn
+    from lineage_edges e join down on down.lot_id = e.parent_lot_id join lots c on c.id = e.child_lot_id
+    group by e.parent_lot_id, e.child_lot_id`);
+  const fractions = fractionsDown(lot.id, edges);
+  const ids = [...fractions].filter(([id, f]) => id !== lot.id && Math.abs(f) > 1e-9).map(([id]) => id);
+  if (!ids.length) return [];
+  const heads = new Map(db.all<{ id: number; code: string; kind: string }>(sql`select id, code, kind from lots where id in (${sql.join(ids.map((id) => sql`${id}`), sql`, `)})`).map((r) => [r.id, r]));
+  return ids.sort((a, b) => a - b).map((id) => ({ code: heads.get(id)!.code, kind: heads.get(id)!.kind, fraction: fractions.get(id)! }));
+}
+
+/** Kahn's order over the descendants' edges: each lot's fraction is final before it is passed on. */
+export function fractionsDown(start: number, edges: { parent: number; child: number; weight: number; contentIn: number }[]): Map<number, number> {
+  const out = new Map<number, typeof edges>();
+  const indegree = new Map<number, number>();
+  for (const e of edges) {
+    (out.get(e.parent) ?? out.set(e.parent, []).get(e.parent)!).push(e);
+    indegree.set(e.child, (indegree.get(e.child) ?? 0) + 1);
+  }
+  const fraction = new Map<number, number>([[start, 1]]);
+  const ready = [start];
+  while (ready.length) {
+    const id = ready.pop()!;
+    for (const e of out.get(id) ?? []) {
+      if (e.contentIn > 0 && Math.abs(e.weight) > 1e-12) fraction.set(e.child, (fraction.get(e.child) ?? 0) + ((fraction.get(id) ?? 0) * e.weight) / e.contentIn);
+      const left = indegree.get(e.child)! - 1;
+      indegree.set(e.child, left);
+      if (left === 0) ready.push(e.child);
+    }
+  }
+  return fraction;
 }
 
 export function traceForward(actor: SessionUser, code: string) {
