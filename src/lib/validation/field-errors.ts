@@ -19,7 +19,8 @@ function messageFor(issue: z.core.$ZodIssue, t: Translate): string {
   if (issue.message.startsWith("validation.")) return t(issue.message);
   switch (issue.code) {
     case "invalid_type":
-      return issue.input === undefined || issue.input === null
+      // zod 4 leaves `input` off its issues; its own message says what was received.
+      return /received (undefined|null)$/.test(issue.message)
         ? t("validation.required")
         : t("validation.invalidType", { expected: String(issue.expected) });
     case "too_small":
