@@ -22,16 +22,24 @@ const CASES: { key: Case; label: string; direction: "backward" | "forward" }[] =
 ];
 const TOLERANCE = 1e-9;
 
+type Hop = { next: number; share: number; leaf: number };
+
+/** The one-hop queries both loops use: a lot's parents (with whether they are harvest lots) or its children. */
+function hopStatements(sqlite: Sqlite) {
+  return {
+    head: sqlite.prepare("select id, kind from lots where code = ?"),
+    up: sqlite.prepare(`select e.parent_lot_id as next, sum(e.weight) / c.content_in as share, p.kind = 'harvest' as leaf
+    from lineage_edges e join lots c on c.id = e.child_lot_id join lots p on p.id = e.parent_lot_id
+    where e.child_lot_id = ? and c.content_in > 0 group by e.parent_lot_id`),
+    down: sqlite.prepare(`select e.child_lot_id as next, sum(e.weight) / c.content_in as share, 0 as leaf
+    from lineage_edges e join lots c on c.id = e.child_lot_id
+    where e.parent_lot_id = ? and c.content_in > 0 group by e.child_lot_id`),
+  };
+}
+
 /** (b) Each lot's parents (backward) or children (forward) by one query, then fractions multiplied down in topological order. */
 function perHopWalker(sqlite: Sqlite) {
-  const head = sqlite.prepare("select id, kind from lots where code = ?");
-  const up = sqlite.prepare(`select e.parent_lot_id as next, sum(e.weight) / c.content_in as share, p.kind = 'harvest' as leaf
-    from lineage_edges e join lots c on c.id = e.child_lot_id join lots p on p.id = e.parent_lot_id
-    where e.child_lot_id = ? and c.content_in > 0 group by e.parent_lot_id`);
-  const down = sqlite.prepare(`select e.child_lot_id as next, sum(e.weight) / c.content_in as share, 0 as leaf
-    from lineage_edges e join lots c on c.id = e.child_lot_id
-    where e.parent_lot_id = ? and c.content_in > 0 group by e.child_lot_id`);
-  type Hop = { next: number; share: number; leaf: number };
+  const { head, up, down } = hopStatements(sqlite);
   return (code: string, direction: "backward" | "forward"): { shares: Shares; queries: number } => {
     const root = head.get(code) as { id: number; kind: string };
     const hops = new Map<number, Hop[]>();
@@ -69,14 +77,7 @@ function perHopWalker(sqlite: Sqlite) {
  * every path, fractions multiplied along it. A lot reached by many paths is read many times.
  */
 function pathWalker(sqlite: Sqlite) {
-  const head = sqlite.prepare("select id, kind from lots where code = ?");
-  const up = sqlite.prepare(`select e.parent_lot_id as next, sum(e.weight) / c.content_in as share, p.kind = 'harvest' as leaf
-    from lineage_edges e join lots c on c.id = e.child_lot_id join lots p on p.id = e.parent_lot_id
-    where e.child_lot_id = ? and c.content_in > 0 group by e.parent_lot_id`);
-  const down = sqlite.prepare(`select e.child_lot_id as next, sum(e.weight) / c.content_in as share, 0 as leaf
-    from lineage_edges e join lots c on c.id = e.child_lot_id
-    where e.parent_lot_id = ? and c.content_in > 0 group by e.child_lot_id`);
-  type Hop = { next: number; share: number; leaf: number };
+  const { head, up, down } = hopStatements(sqlite);
   return (code: string, direction: "backward" | "forward"): Shares => {
     const root = head.get(code) as { id: number; kind: string };
     if (direction === "backward" && root.kind === "harvest") return new Map([[root.id, 1]]);

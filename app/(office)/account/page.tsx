@@ -36,31 +36,25 @@ async function GrowerAccount() {
         <p className="max-w-3xl text-ink-soft">{t("portal.growerIntro")}</p>
       </header>
       <BalancePanel title={t("portal.owed")} balanceYen={p.ledger.balanceYen} ageing={p.ledger.ageing} note={t("portal.owedNote")} />
-      <section className="space-y-3">
-        <h2 className="text-xl font-bold">{t("portal.harvests")}</h2>
+      <Section title={t("portal.harvests")}>
         <p className="text-sm text-ink-soft">{t("portal.harvestsIntro")}</p>
         <HarvestTrails rows={p.harvests} />
-      </section>
-      <section className="space-y-3">
-        <h2 className="text-xl font-bold">{t("portal.deliveries")}</h2>
+      </Section>
+      <Section title={t("portal.deliveries")}>
         <DeliveriesTable rows={p.deliveries} />
-      </section>
-      <section className="space-y-3">
-        <h2 className="text-xl font-bold">{t("portal.payments")}</h2>
+      </Section>
+      <Section title={t("portal.payments")}>
         <AccountTable rows={rows.filter((r) => r.kind === "payment")} testId="payments-table" exportName="grainline-payments" />
-      </section>
-      <section className="space-y-3">
-        <h2 className="text-xl font-bold">{t("detail.entries")}</h2>
+      </Section>
+      <Section title={t("detail.entries")}>
         <AccountTable rows={rows} />
-      </section>
-      <section className="space-y-3">
-        <h2 className="text-xl font-bold">{t("portal.statements")}</h2>
+      </Section>
+      <Section title={t("portal.statements")}>
         <StatementsTable partyId={p.party.id} rows={p.statements.map(({ totals: _t, ...s }) => s)} />
-      </section>
-      <section className="space-y-3">
-        <h2 className="text-xl font-bold">{t("portal.fields")}</h2>
+      </Section>
+      <Section title={t("portal.fields")}>
         <MyFields rows={p.fields} />
-      </section>
+      </Section>
     </div>
   );
 }
@@ -77,30 +71,34 @@ async function MillAccount() {
         <p className="max-w-3xl text-ink-soft">{t("portal.millIntro")}</p>
       </header>
       <BalancePanel title={t("portal.owed")} balanceYen={p.ledger.balanceYen} ageing={p.ledger.ageing} note={t("portal.owedNote")} />
-      <section className="space-y-3">
-        <h2 className="text-xl font-bold">{t("detail.receipts")}</h2>
+      <Section title={t("detail.receipts")}>
         <ReceiptsTable rows={p.receipts} />
-      </section>
-      <section className="space-y-3">
-        <h2 className="text-xl font-bold">{t("detail.runs")}</h2>
+      </Section>
+      <Section title={t("detail.runs")}>
         <RunsTable rows={p.runs} />
-      </section>
-      <section className="space-y-3">
-        <h2 className="text-xl font-bold">{t("portal.fees")}</h2>
+      </Section>
+      <Section title={t("portal.fees")}>
         <AccountTable rows={rows.filter((r) => r.kind === "polishing-fee" || r.kind === "reversal")} testId="fees-table" exportName="grainline-fees" />
-      </section>
-      <section className="space-y-3">
-        <h2 className="text-xl font-bold">{t("portal.payments")}</h2>
+      </Section>
+      <Section title={t("portal.payments")}>
         <AccountTable rows={rows.filter((r) => r.kind === "payment")} testId="payments-table" exportName="grainline-payments" />
-      </section>
-      <section className="space-y-3">
-        <h2 className="text-xl font-bold">{t("detail.entries")}</h2>
+      </Section>
+      <Section title={t("detail.entries")}>
         <AccountTable rows={rows} />
-      </section>
-      <section className="space-y-3">
-        <h2 className="text-xl font-bold">{t("portal.statements")}</h2>
+      </Section>
+      <Section title={t("portal.statements")}>
         <StatementsTable partyId={p.party.id} rows={p.statements.map(({ totals: _t, ...s }) => s)} />
-      </section>
+      </Section>
     </div>
+  );
+}
+
+/** One titled block of an account page. */
+function Section({ title, children }: { title: string; children: React.ReactNode }) {
+  return (
+    <section className="space-y-3">
+      <h2 className="text-xl font-bold">{title}</h2>
+      {children}
+    </section>
   );
 }
