@@ -1,30 +1,86 @@
 /**
  * `npm run bench:load`: the lot read route and the floor write route under 50 concurrent
- * connections (autocannon), side by side with a bare node:http + better-sqlite3 handler
- * doing the same SQL. Prints requests per second, p99 latency and the ratio.
- * Needs a production build (`npm run build`).
+ * connections, side by side with a bare node:http + better-sqlite3 handler running the same
+ * SQL (bench/bare-server.ts). Prints requests per second, p99 latency and the ratio for
+ *   - the production server (`npm start`: src/cli/serve.ts, with its fast path), and
+ *   - the same server with GRAINLINE_FAST_PATH=off, every request through Next's router.
+ * Each server runs alone in its own process; the load comes from wrk (Debian's package) when
+ * it is installed, else from autocannon in this process. Needs a production build.
+ * Options: --seconds=N (default 10).
  */
-import { execFileSync, spawn } from "node:child_process";
-import { mkdirSync, rmSync } from "node:fs";
-import http from "node:http";
+import { execFileSync, spawn, type ChildProcess } from "node:child_process";
+import { copyFileSync, mkdirSync, rmSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import autocannon from "autocannon";
 import Database from "better-sqlite3";
+import { drizzle } from "drizzle-orm/better-sqlite3";
+import * as schema from "../src/db/schema";
+import { SERVE_ARGS } from "../src/cli/serve-command";
 
 const root = path.resolve(import.meta.dirname, "..");
-const dbFile = path.join(root, "bench/.data/load.db");
-const APP = 3170;
-const BARE = 3171;
+const dataDir = path.join(root, "bench/.data");
+const baseFile = path.join(dataDir, "load-base.db");
+const dbFile = path.join(dataDir, "load.db");
+const PORT = 3170;
 const seconds = Number(process.argv.find((a) => a.startsWith("--seconds="))?.split("=")[1] ?? 10);
+const LOT = "P26-0001";
+const writeBody = JSON.stringify({ step: "measuring", inputs: [{ lot: LOT, quantity: 0 }], measurements: [{ name: "moisturePct", value: 13.4, unit: "%" }] });
 
+function removeDatabase(file: string) {
+  for (const s of ["", "-wal", "-shm"]) rmSync(file + s, { force: true });
+}
+
+/** The demo database, migrated and seeded once; every measurement starts from a copy of it. */
 function prepareDatabase() {
-  mkdirSync(path.dirname(dbFile), { recursive: true });
-  for (const s of ["", "-wal", "-shm"]) rmSync(dbFile + s, { force: true });
-  execFileSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), "--conditions=react-server", "src/cli/prepare-db.ts"], { cwd: root, env: { ...process.env, GRAINLINE_DB: dbFile } });
+  mkdirSync(dataDir, { recursive: true });
+  removeDatabase(baseFile);
+  execFileSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), "--conditions=react-server", "src/cli/prepare-db.ts"], { cwd: root, env: { ...process.env, GRAINLINE_DB: baseFile } });
+}
+
+function freshCopy() {
+  removeDatabase(dbFile);
+  copyFileSync(baseFile, dbFile);
+}
+
+/**
+ * Runs both route handlers in this process on a connection that logs every statement with
+ * its values (better-sqlite3's verbose hook), and returns a session cookie and the SQL of
+ * one request of each route — what the bare server then runs.
+ */
+async function captureStatements() {
+  const log: string[] = [];
+  // On the base itself: the rows the captured write refers to (its event) are then in every copy.
+  const sqlite = new Database(baseFile, { verbose: (s) => log.push(String(s)) });
+  for (const p of ["journal_mode = WAL", "busy_timeout = 5000", "foreign_keys = ON", "synchronous = NORMAL"]) sqlite.pragma(p);
+  (globalThis as { grainlineDb?: unknown }).grainlineDb = { sqlite, db: drizzle(sqlite, { schema }) };
+  const { lucia } = await import("../src/server/auth");
+  const session = await lucia().createSession("user-brewer", {});
+  const cookie = `${lucia().sessionCookieName}=${session.id}`;
+  const lotRoute = await import("../app/api/lots/[code]/route");
+  const eventsRoute = await import("../app/api/events/route");
+  const read = () => lotRoute.GET(new Request(`http://localhost/api/lots/${LOT}`, { headers: { cookie } }), { params: Promise.resolve({ code: LOT }) });
+  const write = () => eventsRoute.POST(new Request("http://localhost/api/events", { method: "POST", headers: { cookie, "content-type": "application/json" }, body: writeBody }));
+  const once = async (call: () => Promise<Response>, status: number) => {
+    await call();
+    log.length = 0;
+    const response = await call();
+    if (response.status !== status) throw new Error(`capture: ${response.status} ${await response.text()}`);
+    // Transaction control is the bare server's own (it runs the write in one IMMEDIATE transaction).
+    // SQLite shortens long string values in the logged text; the session id is put back whole.
+    return log
+      .splice(0)
+      .filter((s) => !/^(begin|commit|rollback|savepoint|release)\b/i.test(s.trim()))
+      .map((s) => s.replace(/'([^']*)'\/\*\+\d+ bytes\*\//g, (whole, start: string) => (session.id.startsWith(start) ? `'${session.id}'` : whole)));
+  };
+  const statements = { read: await once(read, 200), write: await once(write, 201) };
+  const shortened = [...statements.read, ...statements.write].find((s) => s.includes("bytes*/"));
+  if (shortened) throw new Error(`capture: a value was shortened in ${shortened}`);
+  sqlite.close(); // checkpoints the WAL into the file the copies are made from
+  return { cookie, statements };
 }
 
 async function waitFor(url: string) {
-  for (let i = 0; i < 300; i++) {
+  for (let i = 0; i < 600; i++) {
     try {
       if ((await fetch(url)).status < 500) return;
     } catch {}
@@ -33,73 +89,96 @@ async function waitFor(url: string) {
   throw new Error(`${url} did not come up`);
 }
 
-/** The same statements the app runs for these two routes, without the framework around them. */
-function bareServer() {
-  const db = new Database(dbFile);
-  db.pragma("journal_mode = WAL");
-  db.pragma("busy_timeout = 5000");
-  db.pragma("synchronous = NORMAL");
-  const readLot = db.prepare(
-    "select l.*, p.name as party_name, f.name as field_name, f.region from lots l join parties p on p.id = l.party_id left join fields f on f.id = l.field_id where l.code = ?",
-  );
-  const lotId = db.prepare("select id, party_id from lots where code = ?");
-  const insertEvent = db.prepare("insert into events (step, at, recorded_at, user_id, party_id, place, reference_doc, note, reason, attributes) values ('measuring', ?, ?, 'user-brewer', 'brewery-kirinoha', '', '', '', '', '{}') returning id");
-  const insertInput = db.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) values (?, ?, 0, 0, 'observe')");
-  const insertMeasurement = db.prepare("insert into measurements (event_id, lot_id, name, value, unit) values (?, ?, ?, ?, ?)");
-  const write = db.transaction((code: string, value: number) => {
-    const lot = lotId.get(code) as { id: number };
-    const { id } = insertEvent.get(Date.now(), Date.now()) as { id: number };
-    insertInput.run(id, lot.id);
-    insertMeasurement.run(id, lot.id, "moisturePct", value, "%");
-    return id;
-  });
-  return http.createServer((req, res) => {
-    if (req.method === "GET") {
-      const row = readLot.get(decodeURIComponent(req.url!.split("/").pop()!));
-      res.writeHead(200, { "content-type": "application/json" }).end(JSON.stringify(row));
-      return;
-    }
-    let body = "";
-    req.on("data", (c) => (body += c));
-    req.on("end", () => {
-      const input = JSON.parse(body);
-      const id = write.immediate(input.inputs[0].lot, input.measurements[0].value);
-      res.writeHead(201, { "content-type": "application/json" }).end(JSON.stringify({ id, outputs: [] }));
-    });
+async function stop(child: ChildProcess) {
+  if (child.exitCode !== null) return;
+  const exited = new Promise((r) => child.once("exit", r));
+  child.kill("SIGTERM");
+  await exited;
+}
+
+type Result = { rps: number; p99: number; non2xx: number };
+
+function hasWrk(): boolean {
+  try {
+    execFileSync("wrk", ["--version"], { stdio: "ignore" });
+    return true;
+  } catch (error) {
+    // wrk prints its version and exits 1; only a missing binary is ENOENT.
+    return (error as NodeJS.ErrnoException).code !== "ENOENT";
+  }
+}
+const useWrk = hasWrk();
+
+function toMs(value: string): number {
+  const m = /^([\d.]+)(us|ms|s)$/.exec(value);
+  if (!m) throw new Error(`wrk latency ${value}`);
+  return Number(m[1]) * (m[2] === "us" ? 0.001 : m[2] === "s" ? 1000 : 1);
+}
+
+async function load(url: string, duration: number, headers: Record<string, string>, method = "GET", body?: string): Promise<Result> {
+  if (!useWrk) {
+    const r = await autocannon({ url, connections: 50, duration, method: method as "GET", headers, body });
+    return { rps: r.requests.average, p99: r.latency.p99, non2xx: r.non2xx };
+  }
+  const script = path.join(dataDir, "wrk.lua");
+  const lines = [`wrk.method = ${JSON.stringify(method)}`, ...Object.entries(headers).map(([k, v]) => `wrk.headers[${JSON.stringify(k)}] = ${JSON.stringify(v)}`)];
+  if (body) lines.push(`wrk.body = ${JSON.stringify(body)}`);
+  writeFileSync(script, lines.join("\n"));
+  const out = execFileSync("wrk", ["-t1", "-c50", `-d${duration}s`, "--latency", "-s", script, url], { encoding: "utf8" });
+  const rps = Number(/Requests\/sec:\s+([\d.]+)/.exec(out)![1]);
+  const p99 = toMs(/^\s+99%\s+(\S+)/m.exec(out)![1]!);
+  const non2xx = Number(/Non-2xx or 3xx responses:\s+(\d+)/.exec(out)?.[1] ?? 0);
+  return { rps, p99, non2xx };
+}
+
+/** One route on one server, from a fresh copy of the base database: warm-up, then the measured run. */
+async function measure(args: string[], env: Record<string, string>, ready: string, cookie: string, key: "read" | "write"): Promise<Result> {
+  freshCopy();
+  const headers = { cookie, "content-type": "application/json" };
+  const url = `${base}${key === "read" ? `/api/lots/${LOT}` : "/api/events"}`;
+  const method = key === "read" ? "GET" : "POST";
+  const body = key === "read" ? undefined : writeBody;
+  return withServer(args, env, ready, async () => {
+    await load(url, 2, headers, method, body); // warm-up: JIT, statement caches
+    return load(url, seconds, headers, method, body);
   });
 }
 
-async function run(url: string, opts: Partial<autocannon.Options>) {
-  const result = await autocannon({ url, connections: 50, duration: seconds, ...opts });
-  return { rps: result.requests.average, p99: result.latency.p99, non2xx: result.non2xx, errors: result.errors };
+async function measureBoth(args: string[], env: Record<string, string>, ready: string, cookie: string) {
+  return { read: await measure(args, env, ready, cookie, "read"), write: await measure(args, env, ready, cookie, "write") };
 }
 
-const writeBody = JSON.stringify({ step: "measuring", inputs: [{ lot: "P26-0001", quantity: 0 }], measurements: [{ name: "moisturePct", value: 13.4, unit: "%" }] });
+async function withServer<T>(args: string[], env: Record<string, string>, ready: string, fn: () => Promise<T>): Promise<T> {
+  const child = spawn(process.execPath, args, { cwd: root, env: { ...process.env, NEXT_TELEMETRY_DISABLED: "1", ...env }, stdio: "ignore" });
+  try {
+    await waitFor(ready);
+    return await fn();
+  } finally {
+    await stop(child);
+  }
+}
 
 prepareDatabase();
-const app = spawn(process.execPath, [path.join(root, "node_modules/next/dist/bin/next"), "start", "-p", String(APP)], { cwd: root, env: { ...process.env, GRAINLINE_DB: dbFile, NEXT_TELEMETRY_DISABLED: "1" }, stdio: "ignore" });
-try {
-  await waitFor(`http://localhost:${APP}/sign-in`);
-  const signIn = await fetch(`http://localhost:${APP}/api/auth/sign-in`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email: "brewer@example.com", password: "grainline-demo" }) });
-  const cookie = signIn.headers.get("set-cookie")!.split(";")[0]!;
-  const headers = { cookie, "content-type": "application/json" };
-  // Warm-up: compile paths, fill caches.
-  await run(`http://localhost:${APP}/api/lots/P26-0001`, { duration: 2, headers });
-  const appRead = await run(`http://localhost:${APP}/api/lots/P26-0001`, { headers });
-  const appWrite = await run(`http://localhost:${APP}/api/events`, { method: "POST", body: writeBody, headers });
-  app.kill("SIGTERM");
+const base = `http://localhost:${PORT}`;
+const { cookie, statements } = await captureStatements();
+const statementsFile = path.join(dataDir, "statements.json");
+writeFileSync(statementsFile, JSON.stringify(statements, null, 2));
+const appEnv = { GRAINLINE_DB: dbFile, PORT: String(PORT) };
 
-  const bare = bareServer().listen(BARE);
-  const bareRead = await run(`http://localhost:${BARE}/api/lots/P26-0001`, {});
-  const bareWrite = await run(`http://localhost:${BARE}/api/events`, { method: "POST", body: writeBody, headers: { "content-type": "application/json" } });
-  bare.close();
+const bare = await measureBoth([path.join(root, "node_modules/tsx/dist/cli.mjs"), "bench/bare-server.ts", dbFile, statementsFile, String(PORT)], {}, `${base}/api/lots/${LOT}`, cookie);
+const app = await measureBoth(SERVE_ARGS, appEnv, `${base}/sign-in`, cookie);
+const nextOnly = await measureBoth(SERVE_ARGS, { ...appEnv, GRAINLINE_FAST_PATH: "off" }, `${base}/sign-in`, cookie);
 
-  const line = (name: string, a: { rps: number; p99: number; non2xx: number }, b: { rps: number; p99: number }) =>
-    `${name.padEnd(14)} app ${a.rps.toFixed(0).padStart(6)} req/s  p99 ${String(a.p99).padStart(4)} ms  (non-2xx ${a.non2xx}) | bare ${b.rps.toFixed(0).padStart(6)} req/s  p99 ${String(b.p99).padStart(4)} ms | app/bare ${(a.rps / b.rps).toFixed(2)}`;
-  console.log(`50 connections, ${seconds} s each, ${process.platform} ${process.arch}`);
-  console.log(line("lot read", appRead, bareRead));
-  console.log(line("floor write", appWrite, bareWrite));
-  console.log("Goal: app ≥ 0.50 × bare throughput and p99 ≤ 50 ms.");
-} finally {
-  app.kill("SIGTERM");
-}
+const cell = (r: Result) => `${r.rps.toFixed(0).padStart(6)} req/s  p99 ${r.p99.toFixed(1).padStart(6)} ms${r.non2xx ? `  (non-2xx ${r.non2xx})` : ""}`;
+const row = (name: string, key: "read" | "write") =>
+  [
+    `${name} (${statements[key].length} SQL statements a request)`,
+    `  bare                     ${cell(bare[key])}`,
+    `  app, production server   ${cell(app[key])}   app/bare ${(app[key].rps / bare[key].rps).toFixed(2)}`,
+    `  app, all through Next    ${cell(nextOnly[key])}   app/bare ${(nextOnly[key].rps / bare[key].rps).toFixed(2)}`,
+  ].join("\n");
+console.log(`50 connections, ${seconds} s each, load from ${useWrk ? "wrk (1 thread)" : "autocannon"}, ${process.platform} ${process.arch}, Node ${process.version}`);
+console.log(row("GET /api/lots/{code}", "read"));
+console.log(row("POST /api/events", "write"));
+const met = (r: Result, b: Result) => r.rps >= 0.5 * b.rps && r.p99 <= 50;
+console.log(`Goal (app ≥ 0.50 × bare, p99 ≤ 50 ms): lot read ${met(app.read, bare.read) ? "met" : "NOT met"}, floor write ${met(app.write, bare.write) ? "met" : "NOT met"}.`);

@@ -1,12 +1,14 @@
 /**
  * `npm start`: migrate, seed the demo on an empty database, build if there is no
- * production build, then serve with `next start`.
+ * production build, then serve with src/cli/serve.ts (Next.js behind a fast path for the
+ * floor's busiest API calls).
  */
 import { spawn, spawnSync } from "node:child_process";
 import { existsSync } from "node:fs";
 import path from "node:path";
 import { DEMO_PASSWORD, DEMO_USERS } from "../server/seed";
 import { prepareDatabase } from "./prepare-db";
+import { SERVE_ARGS } from "./serve-command";
 
 const dbFile = process.env.GRAINLINE_DB || "data/grainline.db";
 const port = process.env.PORT || "3000";
@@ -27,7 +29,7 @@ function buildIfNeeded() {
 }
 
 function serve() {
-  const server = spawn(process.execPath, [nextBin, "start", "-p", port], { stdio: "inherit", env });
+  const server = spawn(process.execPath, SERVE_ARGS, { stdio: "inherit", env: { ...env, PORT: port } });
   const stop = (signal: NodeJS.Signals) => server.kill(signal);
   process.on("SIGINT", stop);
   process.on("SIGTERM", stop);

@@ -1,14 +1,14 @@
 import "server-only";
-import { DrizzleSQLiteAdapter } from "@lucia-auth/adapter-drizzle";
 import { Lucia, TimeSpan } from "lucia";
-import { sessions, users } from "@/db/schema";
 import type { Role } from "@/domain/roles";
 import { getDb } from "./db";
+import { PreparedSessionAdapter } from "./session-adapter";
 
 let instance: ReturnType<typeof createLucia> | undefined;
+let instanceDb: unknown;
 
 function createLucia() {
-  const adapter = new DrizzleSQLiteAdapter(getDb(), sessions, users);
+  const adapter = new PreparedSessionAdapter(getDb());
   return new Lucia(adapter, {
     sessionExpiresIn: new TimeSpan(12, "h"),
     sessionCookie: {
@@ -28,7 +28,11 @@ function createLucia() {
 }
 
 export function lucia() {
-  instance ??= createLucia();
+  // The adapter holds prepared statements of one connection; a new connection needs a new one.
+  if (!instance || instanceDb !== getDb()) {
+    instanceDb = getDb();
+    instance = createLucia();
+  }
   return instance;
 }
 

@@ -16,6 +16,7 @@ import { remember, replay, requestHash, type StoredResponse } from "./idempotenc
 import { allocateLotCode } from "./lot-codes";
 import { checkFloorStep } from "./floor-steps";
 import { checkPolishingRun } from "./polishing-runs";
+import { prepared } from "./prepared";
 import { recordSupplierEntries } from "./supplier-entries";
 import type { SessionUser } from "./session";
 
@@ -51,7 +52,7 @@ export function applyEvent(tx: DbOrTx, actor: SessionUser, input: EventInput, t:
 }
 
 export function lotByCode(tx: DbOrTx, code: string): LotRow | undefined {
-  return tx.select().from(lots).where(eq(lots.code, code)).get();
+  return prepared(tx, "lot-by-code", (db) => db.select().from(lots).where(eq(lots.code, sql.placeholder("code"))).prepare()).get({ code });
 }
 
 function requireAny(actor: SessionUser, permission: Permission | readonly Permission[]) {
@@ -143,27 +144,23 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
   });
   drawFromOnHand(tx, draws, t);
 
-  const eventId = tx
-    .insert(events)
-    .values({
-      step,
-      at,
-      recordedAt: new Date(),
-      userId: actor.id,
-      partyId: eventParty,
-      counterpartyId: counterparty?.id ?? null,
-      place: input.place ?? "",
-      referenceDoc: input.referenceDoc ?? "",
-      note: input.note ?? "",
-      reason: "",
-      attributes: JSON.stringify({ ...input.attributes, ...polishing?.attributes, ...floor?.attributes }),
-    })
-    .returning({ id: events.id })
-    .get().id;
+  const eventId = insertEvent(tx, {
+    step,
+    at,
+    recordedAt: new Date(),
+    userId: actor.id,
+    partyId: eventParty,
+    counterpartyId: counterparty?.id ?? null,
+    place: input.place ?? "",
+    referenceDoc: input.referenceDoc ?? "",
+    note: input.note ?? "",
+    reason: "",
+    attributes: JSON.stringify({ ...input.attributes, ...polishing?.attributes, ...floor?.attributes }),
+  });
 
   for (const d of draws) {
     const newHolder = d.use === "move" ? (step === "receiving" ? eventParty : counterparty!.id) : null;
-    tx.insert(eventInputs).values({ eventId, lotId: d.lot.id, quantity: d.quantity, content: d.content, use: d.use, previousPartyId: newHolder ? d.lot.partyId : null }).run();
+    insertEventInput(tx, { eventId, lotId: d.lot.id, quantity: d.quantity, content: d.content, use: d.use, previousPartyId: newHolder ? d.lot.partyId : null });
     if (newHolder) tx.update(lots).set({ partyId: newHolder }).where(eq(lots.id, d.lot.id)).run();
   }
 
@@ -171,6 +168,33 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
   writeMeasurements(tx, eventId, input, held, outputs.lots, t);
   recordSupplierEntries(tx, { eventId, step, eventParty, counterparty, draws, at });
   return { id: eventId, outputs: outputs.summary, warnings };
+}
+
+type NewEvent = Omit<typeof events.$inferInsert, "id" | "corrects">;
+const EVENT_FIELDS = ["step", "at", "recordedAt", "userId", "partyId", "counterpartyId", "place", "referenceDoc", "note", "reason", "attributes"] as const;
+
+/** Inserts a step's event row (prepared once per connection: every floor write makes one). */
+function insertEvent(tx: DbOrTx, row: NewEvent): number {
+  const statement = prepared(tx, "insert-event", (db) =>
+    db
+      .insert(events)
+      .values(Object.fromEntries(EVENT_FIELDS.map((f) => [f, sql.placeholder(f)])) as unknown as NewEvent)
+      .returning({ id: events.id })
+      .prepare(),
+  );
+  return statement.get(row as Record<string, unknown>)!.id;
+}
+
+type NewEventInput = Omit<typeof eventInputs.$inferInsert, "id">;
+const INPUT_FIELDS = ["eventId", "lotId", "quantity", "content", "use", "previousPartyId"] as const;
+
+function insertEventInput(tx: DbOrTx, row: NewEventInput) {
+  prepared(tx, "insert-event-input", (db) =>
+    db
+      .insert(eventInputs)
+      .values(Object.fromEntries(INPUT_FIELDS.map((f) => [f, sql.placeholder(f)])) as unknown as NewEventInput)
+      .prepare(),
+  ).run(row as Record<string, unknown>);
 }
 
 function resolveEventParty(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Translate): string {
@@ -324,7 +348,13 @@ function writeMeasurements(tx: DbOrTx, eventId: number, input: EventInput, held:
     }
     return { eventId, lotId, name: m.name, value: m.value, unit: m.unit };
   });
-  tx.insert(measurements).values(rows).run();
+  const insert = prepared(tx, "insert-measurement", (db) =>
+    db
+      .insert(measurements)
+      .values({ eventId: sql.placeholder("eventId"), lotId: sql.placeholder("lotId"), name: sql.placeholder("name"), value: sql.placeholder("value"), unit: sql.placeholder("unit") } as unknown as typeof measurements.$inferInsert)
+      .prepare(),
+  );
+  for (const row of rows) insert.run(row);
   const moisture = input.measurements.find((m) => m.name === "moisturePct" && !m.lot);
   if (moisture && made[0]) tx.update(lots).set({ moisturePct: moisture.value }).where(inArray(lots.id, [made[0].id])).run();
 }

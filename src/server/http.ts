@@ -10,9 +10,29 @@ import { can, type Permission } from "@/domain/permissions";
 export type RouteContext = { params: Record<string, string>; t: Translate };
 type NextContext = { params?: Promise<Record<string, string | string[]>> };
 
-export function translatorFor(request: Request): Translate {
+/**
+ * What a JSON route reads of its request. A Web Request has all of it; so has the lighter
+ * request the production server's fast path builds (src/server/fast-path.ts).
+ */
+export type ApiRequest = {
+  readonly method: string;
+  readonly url: string;
+  readonly headers: { get(name: string): string | null };
+  json(): Promise<unknown>;
+};
+
+/** A JSON route's answer before it becomes a Response (or, on the fast path, bytes). */
+export type JsonReply = { status: number; body: unknown };
+export const reply = (body: unknown, status = 200): JsonReply => ({ status, body });
+
+export function translatorFor(request: Pick<ApiRequest, "headers">): Translate {
   const t = translator(pickLocale(undefined, request.headers.get("accept-language")));
   return (key, values) => t(key as never, values as never);
+}
+
+async function paramsOf(context?: NextContext): Promise<Record<string, string>> {
+  const raw = (await context?.params) ?? {};
+  return Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, Array.isArray(v) ? v.join("/") : v]));
 }
 
 /**
@@ -24,30 +44,55 @@ export function handle(fn: (request: Request, ctx: RouteContext) => Promise<Resp
     const t = translatorFor(request);
     try {
       if (!["GET", "HEAD", "OPTIONS"].includes(request.method)) checkOrigin(request);
-      const raw = (await context?.params) ?? {};
-      const params = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, Array.isArray(v) ? v.join("/") : v]));
-      return await fn(request, { params, t });
+      return await fn(request, { params: await paramsOf(context), t });
     } catch (error) {
       return errorResponse(error, t);
     }
   };
 }
 
+export type JsonRoute = ((request: Request, context?: NextContext) => Promise<Response>) & {
+  /** The same route without Web Request and Response objects, for the fast path. */
+  run(request: ApiRequest, params: Record<string, string>): Promise<JsonReply>;
+};
+
+/** `handle` for routes that answer JSON: Next calls it as a route handler, the fast path calls `run`. */
+export function jsonRoute(fn: (request: ApiRequest, ctx: RouteContext) => Promise<JsonReply>): JsonRoute {
+  const run = async (request: ApiRequest, params: Record<string, string>): Promise<JsonReply> => {
+    const t = translatorFor(request);
+    try {
+      if (!["GET", "HEAD", "OPTIONS"].includes(request.method)) checkOrigin(request);
+      return await fn(request, { params, t });
+    } catch (error) {
+      return errorReply(error, t);
+    }
+  };
+  const route = async (request: Request, context?: NextContext) => {
+    const { status, body } = await run(request, await paramsOf(context));
+    return Response.json(body, { status });
+  };
+  return Object.assign(route, { run });
+}
+
 export function errorResponse(error: unknown, t: Translate): Response {
+  const { status, body } = errorReply(error, t);
+  return Response.json(body, { status });
+}
+
+export function errorReply(error: unknown, t: Translate): JsonReply {
   if (error instanceof z.ZodError) error = invalid(fieldErrorsFrom(error, t));
   if (error instanceof AppError) {
-    const body = { error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) } };
-    return Response.json(body, { status: error.status });
+    return reply({ error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) } }, error.status);
   }
   console.error(error);
-  return Response.json({ error: { code: "internal", message: "Something went wrong on our side." } }, { status: 500 });
+  return reply({ error: { code: "internal", message: "Something went wrong on our side." } }, 500);
 }
 
 /**
  * Browsers send Origin on every non-GET request; a mismatch means another site is
  * posting on the user's behalf. Requests with no browser headers (integrations) pass.
  */
-export function checkOrigin(request: Request): void {
+export function checkOrigin(request: Pick<ApiRequest, "headers" | "url">): void {
   const origin = request.headers.get("origin");
   const host = request.headers.get("x-forwarded-host") ?? request.headers.get("host") ?? new URL(request.url).host;
   if (origin) {
@@ -65,7 +110,7 @@ export function checkOrigin(request: Request): void {
 }
 
 /** Parses a JSON body with a zod schema; malformed JSON and wrong shapes are both 422. */
-export async function readJson<S extends z.ZodType>(request: Request, schema: S, t: Translate): Promise<z.infer<S>> {
+export async function readJson<S extends z.ZodType>(request: Pick<ApiRequest, "json">, schema: S, t: Translate): Promise<z.infer<S>> {
   let body: unknown;
   try {
     body = await request.json();
@@ -77,13 +122,13 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S,
   return parsed.data;
 }
 
-export async function requireApiUser(request: Request): Promise<SessionUser> {
+export async function requireApiUser(request: Pick<ApiRequest, "headers">): Promise<SessionUser> {
   const found = await sessionFromRequest(request);
   if (!found) throw unauthenticated();
   return found.user;
 }
 
-export async function requireApiPermission(request: Request, permission: Permission): Promise<SessionUser> {
+export async function requireApiPermission(request: Pick<ApiRequest, "headers">, permission: Permission): Promise<SessionUser> {
   const user = await requireApiUser(request);
   if (!can(user, permission)) throw forbidden();
   return user;
@@ -105,7 +150,7 @@ export function appOrigin(request: { url: string; headers: Headers }): string {
 }
 
 /** The floor's retry key: printable, at most 200 characters; anything else is ignored. */
-export function idempotencyKeyOf(request: Request): string | null {
+export function idempotencyKeyOf(request: Pick<ApiRequest, "headers">): string | null {
   const key = request.headers.get("idempotency-key")?.trim();
   return key && key.length <= 200 && /^[\x21-\x7e]+$/.test(key) ? key : null;
 }

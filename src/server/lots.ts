@@ -5,6 +5,7 @@ import { fields, lots, parties } from "@/db/schema";
 import { can } from "@/domain/permissions";
 import { getDb } from "./db";
 import { notFound } from "./errors";
+import { prepared } from "./prepared";
 import type { SessionUser } from "./session";
 
 const holder = alias(parties, "holder");
@@ -65,15 +66,30 @@ export function toApiLot(r: Row) {
 }
 export type ApiLot = ReturnType<typeof toApiLot>;
 
+/** One lot by code as `actor` may see it; the statement is prepared once per visibility rule. */
+function lotByCode(actor: SessionUser, code: string): Row | undefined {
+  const all = can(actor, "records:read-all");
+  const statement = prepared(getDb(), all ? "api-lot-by-code:all" : "api-lot-by-code:party", (db) =>
+    db
+      .select(lotColumns)
+      .from(lots)
+      .innerJoin(holder, eq(holder.id, lots.partyId))
+      .leftJoin(fields, eq(fields.id, lots.fieldId))
+      .where(and(eq(lots.code, sql.placeholder("code")), all ? undefined : or(eq(lots.partyId, sql.placeholder("party")), eq(lots.originPartyId, sql.placeholder("party")))))
+      .prepare(),
+  );
+  return statement.get({ code, party: actor.partyId }) as Row | undefined;
+}
+
 export function getLot(actor: SessionUser, code: string): ApiLot {
-  const row = selectLots().where(and(eq(lots.code, code), visibleTo(actor))).get();
+  const row = lotByCode(actor, code);
   if (!row) throw notFound(`Lot ${code}`);
-  return toApiLot(row as Row);
+  return toApiLot(row);
 }
 
 export function findLot(actor: SessionUser, code: string): ApiLot | null {
-  const row = selectLots().where(and(eq(lots.code, code), visibleTo(actor))).get();
-  return row ? toApiLot(row as Row) : null;
+  const row = lotByCode(actor, code);
+  return row ? toApiLot(row) : null;
 }
 
 export function findLotId(actor: SessionUser, code: string): number | null {

@@ -1,5 +1,5 @@
 import "server-only";
-import { desc, eq, inArray } from "drizzle-orm";
+import { desc, eq, inArray, sql } from "drizzle-orm";
 import { z } from "zod";
 import type { DbOrTx } from "@/db/client";
 import { settings, users } from "@/db/schema";
@@ -10,6 +10,7 @@ import { settingsSchema } from "@/lib/validation/settings";
 import { recordAudit } from "./audit";
 import { getDb } from "./db";
 import { forbidden, invalid, type FieldErrors } from "./errors";
+import { prepared } from "./prepared";
 import type { SessionUser } from "./session";
 
 /** Defaults of the settings the office may change; the source of each is noted. */
@@ -28,7 +29,7 @@ export const SETTING_DEFAULTS = {
 export type SettingKey = keyof typeof SETTING_DEFAULTS;
 
 export function readSetting<K extends SettingKey>(db: DbOrTx, key: K): (typeof SETTING_DEFAULTS)[K] {
-  const row = db.select().from(settings).where(eq(settings.key, key)).get();
+  const row = prepared(db, "setting-by-key", (d) => d.select().from(settings).where(eq(settings.key, sql.placeholder("key"))).prepare()).get({ key });
   return row ? (JSON.parse(row.value) as (typeof SETTING_DEFAULTS)[K]) : SETTING_DEFAULTS[key];
 }
 

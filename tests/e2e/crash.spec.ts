@@ -3,17 +3,19 @@ import { mkdirSync, rmSync } from "node:fs";
 import path from "node:path";
 import Database from "better-sqlite3";
 import { expect, test } from "@playwright/test";
+import { SERVE_ARGS } from "../../src/cli/serve-command";
 
-// A server of its own on a database of its own, killed with SIGKILL in the middle of a burst.
+// The production server (as `npm start` runs it, fast path included) on a database of its own,
+// killed with SIGKILL in the middle of a burst.
 const root = path.resolve(import.meta.dirname, "../..");
 const port = Number(process.env.E2E_CRASH_PORT || 3130);
 const db = path.join(root, "tests/.tmp", `crash-${process.pid}.db`);
 const base = `http://localhost:${port}`;
 
 function startServer(): ChildProcess {
-  return spawn(process.execPath, [path.join(root, "node_modules/next/dist/bin/next"), "start", "-p", String(port)], {
+  return spawn(process.execPath, SERVE_ARGS, {
     cwd: root,
-    env: { ...process.env, GRAINLINE_DB: db, NEXT_TELEMETRY_DISABLED: "1" },
+    env: { ...process.env, GRAINLINE_DB: db, PORT: String(port), NEXT_TELEMETRY_DISABLED: "1" },
     stdio: "ignore",
   });
 }

@@ -18,6 +18,7 @@ import { POST as attachRoute } from "../../app/api/lots/[code]/attachments/route
 import { POST as partiesRoute } from "../../app/api/parties/route";
 import { POST as usersRoute } from "../../app/api/users/route";
 import { call, jsonRequest, ORIGIN, signInAs, tableDigests } from "../support/api";
+import { startFastPathServer } from "../support/fast-path-server";
 import { badJsonBody, maybeIdempotencyKey, type Attempt } from "../support/bad-input";
 import { attachmentTry, FIELDS, HARVESTS, IMPORT_HARVESTS, importReceipts, known, MEASURING, PARTIES, POLISHING, randomPng, signOutTry, SIGN_IN, SOAKING, sql, USERS, type Try, type Who } from "../support/bad-input-cases";
 
@@ -130,6 +131,17 @@ function drawsNothing(a: Attempt): boolean {
   }
 }
 
+// The production server answers POST /api/events on its fast path (src/server/fast-path.ts):
+// the same bad bodies go through it too, over a real socket.
+let fastPath: Awaited<ReturnType<typeof startFastPathServer>> | undefined;
+beforeAll(async () => {
+  fastPath = await startFastPathServer();
+});
+afterAll(async () => {
+  await fastPath?.close();
+});
+const viaFastPath: Handler = (request) => fastPath!.asHandler(request);
+
 function endpoints(): Endpoint[] {
   return [
     { name: "POST /api/auth/sign-in", route: signInRoute, tries: asWho("anonymous", badJsonBody(SIGN_IN), "/api/auth/sign-in", DOCUMENTATION_IPS), mayChange: ["sign_in_throttle"] },
@@ -141,6 +153,8 @@ function endpoints(): Endpoint[] {
     { name: "POST /api/events (soaking)", route: eventsRoute, tries: asWho("brewer", badJsonBody(SOAKING).filter((a) => !drawsNothing(a)), "/api/events", maybeIdempotencyKey) },
     { name: "POST /api/events (measuring)", route: eventsRoute, tries: asWho("brewer", badJsonBody(MEASURING), "/api/events", maybeIdempotencyKey) },
     { name: "POST /api/events (polishing)", route: eventsRoute, tries: asWho("miller", badJsonBody(POLISHING), "/api/events", maybeIdempotencyKey) },
+    { name: "POST /api/events (soaking, fast path)", route: viaFastPath, tries: asWho("brewer", badJsonBody(SOAKING).filter((a) => !drawsNothing(a)), "/api/events", maybeIdempotencyKey) },
+    { name: "POST /api/events (measuring, fast path)", route: viaFastPath, tries: asWho("brewer", badJsonBody(MEASURING), "/api/events", maybeIdempotencyKey) },
     { name: "POST /api/import/preview (harvests)", route: previewRoute, tries: asWho("grower", badJsonBody(IMPORT_HARVESTS), "/api/import/preview"), refusedWith200: hasProblems },
     { name: "POST /api/import/preview (receipts)", route: previewRoute, tries: asWho("miller", badJsonBody(importReceipts()), "/api/import/preview"), refusedWith200: hasProblems },
     { name: "POST /api/import/commit (harvests)", route: commitRoute, tries: asWho("grower", badJsonBody(IMPORT_HARVESTS), "/api/import/commit", maybeIdempotencyKey) },

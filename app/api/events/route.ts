@@ -1,13 +1,13 @@
 import { canRecordEvents } from "@/domain/permissions";
 import { eventSchema } from "@/lib/validation/events";
 import { forbidden } from "@/server/errors";
-import { handle, idempotencyKeyOf, readJson, requireApiUser } from "@/server/http";
+import { idempotencyKeyOf, jsonRoute, readJson, reply, requireApiUser } from "@/server/http";
 import { recordEvent } from "@/server/events";
 
-export const POST = handle(async (request, { t }) => {
+export const POST = jsonRoute(async (request, { t }) => {
   const actor = await requireApiUser(request);
   if (!canRecordEvents(actor)) throw forbidden();
   const input = await readJson(request, eventSchema, t);
   const { status, body } = recordEvent(actor, input, t, idempotencyKeyOf(request));
-  return Response.json(body, { status });
+  return reply(body, status);
 });

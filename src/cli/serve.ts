@@ -1,0 +1,32 @@
+/**
+ * The production server `npm start` runs: Next.js for every page, action and route, with the
+ * floor's busiest API calls answered first by the same route handlers without Next's router
+ * (src/server/fast-path.ts). Run with `--conditions=react-server` (tsx), after `next build`.
+ */
+import http from "node:http";
+
+const env = process.env as Record<string, string | undefined>;
+env.NODE_ENV = "production";
+env.NEXT_TELEMETRY_DISABLED ??= "1";
+const port = Number(env.PORT || 3000);
+
+// Next first: it installs the request-scoped storage the app's modules capture when loaded.
+const { default: next } = await import("next");
+const app = next({ dev: false, dir: process.cwd(), port, hostname: "localhost" });
+await app.prepare();
+const nextHandler = app.getRequestHandler();
+// GRAINLINE_FAST_PATH=off sends everything through Next (to compare, or if the fast path misbehaves).
+const fastPath = env.GRAINLINE_FAST_PATH === "off" ? null : (await import("../server/fast-path")).serveFast;
+
+const server = http.createServer((req, res) => {
+  if (!fastPath?.(req, res)) void nextHandler(req, res);
+});
+server.listen(port, () => console.log(`Grainline is listening on http://localhost:${port}`));
+
+async function stop() {
+  server.close();
+  await app.close();
+  process.exit(0);
+}
+process.on("SIGTERM", () => void stop());
+process.on("SIGINT", () => void stop());
