@@ -18,7 +18,11 @@ const nextHandler = app.getRequestHandler();
 // GRAINLINE_FAST_PATH=off sends everything through Next (to compare, or if the fast path misbehaves).
 const fastPath = env.GRAINLINE_FAST_PATH === "off" ? null : (await import("../server/fast-path")).serveFast;
 
+const { PEER_HEADER } = await import("../server/client-address");
+
 const server = http.createServer((req, res) => {
+  // The socket's own peer, for sign-in throttling; whatever a client sent under this name is replaced.
+  req.headers[PEER_HEADER] = req.socket.remoteAddress ?? "";
   if (!fastPath?.(req, res)) void nextHandler(req, res);
 });
 server.listen(port, () => console.log(`Grainline is listening on http://localhost:${port}`));

@@ -8,6 +8,7 @@ import {
   canManageUsers,
   canReadFieldsOf,
   canReadLedgerOf,
+  canSeeLot,
   canRecordOnField,
   type Actor,
 } from "./permissions";
@@ -55,6 +56,16 @@ describe("ownership predicates", () => {
     expect(canReadFieldsOf(actor("grower", "g-1"), "g-1")).toBe(true);
     expect(canReadFieldsOf(actor("grower", "g-1"), "g-2")).toBe(false);
     expect(canReadFieldsOf(actor("sales"), "g-2")).toBe(true);
+  });
+
+  it("lets a user see the lots their party holds or made, and the reading roles every lot", () => {
+    const lot = { partyId: "m-1", originPartyId: "g-1" };
+    expect(canSeeLot(actor("grower", "g-1"), lot)).toBe(true); // made it
+    expect(canSeeLot(actor("miller", "m-1"), lot)).toBe(true); // holds it
+    expect(canSeeLot(actor("grower", "g-2"), lot)).toBe(false);
+    expect(canSeeLot(actor("miller", "m-2"), lot)).toBe(false);
+    expect(canSeeLot(actor("auditor"), lot)).toBe(true);
+    expect(canSeeLot(null, lot)).toBe(false);
   });
 
   it("shows suppliers only their own ledger", () => {

@@ -100,6 +100,16 @@ export function canActOnLot(actor: Actor | null, lot: { partyId: string }): bool
   return Boolean(actor) && actor!.partyId === lot.partyId;
 }
 
+/**
+ * Whether a lot exists as far as this user can tell: roles that read all records see every
+ * lot, others the lots their party holds or made (the same rule as `visibleTo` in
+ * src/server/lots.ts). A lot outside it answers as unknown, never as forbidden.
+ */
+export function canSeeLot(actor: Actor | null, lot: { partyId: string; originPartyId: string }): boolean {
+  if (can(actor, "records:read-all")) return true;
+  return Boolean(actor) && (actor!.partyId === lot.partyId || actor!.partyId === lot.originPartyId);
+}
+
 /** Corrections: the office, or the person who recorded the event. */
 export function canCorrect(actor: Actor | null, event: { userId: string }): boolean {
   if (can(actor, "records:correct")) return true;

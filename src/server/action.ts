@@ -6,6 +6,7 @@ import { z } from "zod";
 import type { FormState } from "@/lib/form-state";
 import { fieldErrorsFrom, type Translate } from "@/lib/validation/field-errors";
 import { AppError } from "./errors";
+import { clientAddress } from "./client-address";
 
 export async function actionTranslator(): Promise<Translate> {
   const t = await getTranslations();
@@ -43,5 +44,5 @@ export async function actionOrigin(): Promise<string> {
 
 export async function actionClientKey(): Promise<string> {
   const h = await headers();
-  return h.get("x-forwarded-for")?.split(",")[0]?.trim() || h.get("x-real-ip") || "local";
+  return clientAddress(h);
 }

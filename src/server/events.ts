@@ -4,7 +4,7 @@ import type { DbOrTx } from "@/db/client";
 import { eventInputs, eventOutputs, events, lineageEdges, lotSourceDeltas, lots, measurements, parties } from "@/db/schema";
 import { carryContent, contentOfDraw, edgesOf, propagateComposition, type SourceAmounts } from "@/domain/composition";
 import { lowestGrade, type Grade } from "@/domain/grades";
-import { can, canActOnLot, type Permission } from "@/domain/permissions";
+import { can, canActOnLot, canSeeLot, type Permission } from "@/domain/permissions";
 import { STEP_RULES, UNIT_OF_KIND, type LotKind, type RecordableStep } from "@/domain/steps";
 import type { EventInput, NewOutput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
@@ -74,8 +74,11 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
 
   // A transformation draws something from every input; 0 kg is a typing slip, refused up front.
   if (rule.content !== "none") input.inputs.forEach((i, n) => i.quantity > 0 || fail(`inputs.${n}.quantity`, t("validation.tooSmall", { minimum: 0 })));
+  // A lot this user cannot see answers as unknown, as GET /api/lots/{code} does: no one learns
+  // from a refusal that a code exists. A receipt names the sender's lots (the bags in hand).
+  const known = (lot: LotRow | undefined) => (lot && (step === "receiving" || canSeeLot(actor, lot)) ? lot : undefined);
   const inLots = input.inputs.map((i, n) => {
-    const lot = lotByCode(tx, i.lot);
+    const lot = known(lotByCode(tx, i.lot));
     if (!lot) fail(`inputs.${n}.lot`, t("validation.unknownLot"));
     else if (rule.inputKinds !== "any" && !(rule.inputKinds as readonly string[]).includes(lot.kind)) {
       fail(`inputs.${n}.lot`, t("validation.kindNotAllowed", { step, kind: lot.kind }));
@@ -85,7 +88,7 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
 
   const outs: ResolvedOutput[] = input.outputs.map((o, n) => {
     if ("lot" in o && typeof o.lot === "string") {
-      const existing = lotByCode(tx, o.lot) ?? null;
+      const existing = known(lotByCode(tx, o.lot)) ?? null;
       if (!existing) fail(`outputs.${n}.lot`, t("validation.unknownLot"));
       else if (!("addsToExisting" in rule) || !(rule.outputKinds as readonly string[]).includes(existing.kind)) {
         fail(`outputs.${n}.lot`, t("validation.outputKindNotAllowed", { step, kind: existing.kind }));

@@ -3,6 +3,7 @@ import { z } from "zod";
 import { pickLocale } from "@/i18n/locale";
 import { translator } from "@/i18n/messages";
 import { fieldErrorsFrom, type Translate } from "@/lib/validation/field-errors";
+import { clientAddress } from "./client-address";
 import { AppError, forbidden, invalid, unauthenticated } from "./errors";
 import { sessionFromRequest, type SessionUser } from "./session";
 import { can, type Permission } from "@/domain/permissions";
@@ -134,10 +135,9 @@ export async function requireApiPermission(request: Pick<ApiRequest, "headers">,
   return user;
 }
 
-/** The client's address as the reverse proxy reports it; "local" when there is none. */
-export function clientKey(request: Request): string {
-  const forwarded = request.headers.get("x-forwarded-for")?.split(",")[0]?.trim();
-  return forwarded || request.headers.get("x-real-ip") || "local";
+/** The client's address for sign-in throttling (src/server/client-address.ts). */
+export function clientKey(request: Pick<ApiRequest, "headers">): string {
+  return clientAddress(request.headers);
 }
 
 /** The origin links in e-mails point at: GRAINLINE_ORIGIN, else what the request came to. */

@@ -15,9 +15,9 @@ const FROM = () => process.env.GRAINLINE_MAIL_FROM || "Grainline <no-reply@grain
  * Without SMTP_HOST nothing leaves the machine: the JSON transport renders the message
  * and the outbox table keeps it for the admin's outbox page.
  */
-function transport() {
+function transport(deliver: boolean) {
   const host = process.env.SMTP_HOST;
-  if (!host) return { kind: "local" as const, t: nodemailer.createTransport({ jsonTransport: true }) };
+  if (!host || !deliver) return { kind: "local" as const, t: nodemailer.createTransport({ jsonTransport: true }) };
   return {
     kind: "smtp" as const,
     t: nodemailer.createTransport({
@@ -29,9 +29,13 @@ function transport() {
   };
 }
 
-/** `db`: the connection to keep the outbox row in — the seed passes the database it is seeding. */
-export async function sendMail(mail: OutgoingMail, db: DbOrTx = getDb()): Promise<string> {
-  const { kind, t } = transport();
+/**
+ * `db`: the connection to keep the outbox row in — the seed passes the database it is seeding.
+ * `deliver: false` keeps the message in the outbox even when SMTP is set up (the demo seed's
+ * statements are addressed to invented parties and must never leave the machine).
+ */
+export async function sendMail(mail: OutgoingMail, db: DbOrTx = getDb(), { deliver = true }: { deliver?: boolean } = {}): Promise<string> {
+  const { kind, t } = transport(deliver);
   const from = FROM();
   await t.sendMail({ from, ...mail });
   const id = randomUUID();

@@ -15,7 +15,7 @@ export const statementPdfPath = (partyId: string, number: string) => `/api/suppl
  * attachment (nodemailer's JSON transport keeps it); the outbox stores only the text, so the
  * text also links to the PDF in the supplier's account.
  */
-export async function mailStatement(view: StatementView, origin: string, t: Translate, db?: DbOrTx): Promise<string> {
+export async function mailStatement(view: StatementView, origin: string, t: Translate, db?: DbOrTx, options?: { deliver?: boolean }): Promise<string> {
   const pdf = await statementPdf(view, t);
   const fileName = `${view.number}.pdf`;
   return sendMail({
@@ -33,5 +33,5 @@ export async function mailStatement(view: StatementView, origin: string, t: Tran
       link: `${origin}${statementPdfPath(view.supplier.id, view.number)}`,
     }),
     attachments: [{ filename: fileName, content: Buffer.from(pdf), contentType: "application/pdf" }],
-  }, db);
+  }, db, options);
 }

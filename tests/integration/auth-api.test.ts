@@ -3,6 +3,7 @@ import { POST as signInRoute } from "../../app/api/auth/sign-in/route";
 import { POST as signOutRoute } from "../../app/api/auth/sign-out/route";
 import { GET as meRoute } from "../../app/api/me/route";
 import { GET as listUsersRoute, POST as inviteRoute } from "../../app/api/users/route";
+import { PEER_HEADER } from "@/server/client-address";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 
 describe("GET /api/me", () => {
@@ -73,13 +74,23 @@ describe("POST /api/auth/sign-in", () => {
   });
 
   it("throttles one client trying many e-mails", async () => {
-    const headers = { "x-forwarded-for": "203.0.113.9" };
+    const headers = { [PEER_HEADER]: "203.0.113.9" };
     const statuses: number[] = [];
     for (let i = 0; i < 31; i++) {
       const res = await call(signInRoute, jsonRequest("/api/auth/sign-in", { body: { email: `spray${i}@example.com`, password: "x" }, headers }));
       statuses.push(res.status);
     }
     expect(statuses.slice(0, 30).every((s) => s === 401)).toBe(true);
+    expect(statuses[30]).toBe(429);
+  });
+
+  it("a client cannot escape its limit by inventing X-Forwarded-For addresses (no proxy trusted)", async () => {
+    const statuses: number[] = [];
+    for (let i = 0; i < 31; i++) {
+      const headers = { [PEER_HEADER]: "203.0.113.77", "x-forwarded-for": `198.51.100.${i + 1}` };
+      const res = await call(signInRoute, jsonRequest("/api/auth/sign-in", { body: { email: `rotate${i}@example.com`, password: "x" }, headers }));
+      statuses.push(res.status);
+    }
     expect(statuses[30]).toBe(429);
   });
 

@@ -6,6 +6,7 @@ import { existsSync, readdirSync, rmSync } from "node:fs";
 import path from "node:path";
 import fc from "fast-check";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { PEER_HEADER } from "@/server/client-address";
 import { STATUS_FOR_CODE, type ErrorCode } from "@/server/errors";
 import { POST as signInRoute } from "../../app/api/auth/sign-in/route";
 import { POST as signOutRoute } from "../../app/api/auth/sign-out/route";
@@ -120,7 +121,7 @@ async function attemptOnce(e: Endpoint, t: Try) {
 
 const hasProblems = (body: { problems?: unknown[] }) => Array.isArray(body.problems) && body.problems.length > 0;
 /** Failed sign-ins count against the address and the client (src/server/throttle.ts); only for sign-in may that table change. */
-const DOCUMENTATION_IPS = fc.integer({ min: 1, max: 254 }).map((n) => ({ "x-forwarded-for": `203.0.113.${n}` })); // RFC 5737 TEST-NET-3
+const DOCUMENTATION_IPS = fc.integer({ min: 1, max: 254 }).map((n) => ({ [PEER_HEADER]: `203.0.113.${n}` })); // RFC 5737 TEST-NET-3
 
 /** A soak of 0 kg answers 500 (see "known bugs" below); until that is fixed it is left out here. */
 function drawsNothing(a: Attempt): boolean {

@@ -217,3 +217,32 @@ describe("on hand follows from the events", () => {
     for (const r of rows) expect(r.onHand, r.code).toBeCloseTo(r.fromEvents, 9);
   });
 });
+
+describe("a lot someone cannot see is unknown to them, not forbidden", () => {
+  it("another grower's harvest is refused exactly like a code that does not exist; nothing changes", async () => {
+    const theirs = (await harvest(grower, { brownKg: 120 })).body.code as string;
+    const before = await tableDigests();
+    const measuring = (code: string) => ({ step: "measuring", inputs: [{ lot: code, quantity: 0 }], measurements: [{ name: "moisturePct", value: 14.2, unit: "%" }] });
+    const hidden = await event(grower2, measuring(theirs));
+    const missing = await event(grower2, measuring("H26-9999"));
+    expect(hidden.status).toBe(422);
+    expect(hidden.body).toEqual(missing.body);
+    expect(await tableDigests()).toEqual(before);
+    // The GET agrees: 404 for both.
+    expect((await call(getLotRoute, jsonRequest(`/api/lots/${theirs}`, { cookie: grower2 }), { code: theirs })).status).toBe(404);
+  });
+
+  it("a lot someone can see but does not hold is still 403 (../shared/api.md: ownership forbids it)", async () => {
+    const code = (await harvest(grower, { brownKg: 130 })).body.code as string;
+    await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 130 }] });
+    // The grower made it and still sees it; the mill holds it now.
+    const res = await event(grower, { step: "shipping", inputs: [{ lot: code, quantity: 130 }], counterpartyId: "brewery-kirinoha" });
+    expect(res.status).toBe(403);
+  });
+
+  it("a receipt names the sender's lots, which the receiver does not hold yet", async () => {
+    const code = (await harvest(grower, { brownKg: 140 })).body.code as string;
+    const res = await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 140 }] });
+    expect(res.status).toBe(201);
+  });
+});

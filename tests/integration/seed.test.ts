@@ -1,4 +1,7 @@
+import http from "node:http";
+import type { AddressInfo } from "node:net";
 import { describe, expect, it } from "vitest";
+import { migrateDatabase, openDatabase } from "@/db/client";
 import { isValidGtin } from "@/domain/gtin";
 import { getDb, getSqlite } from "@/server/db";
 import { listAwaitingPolishing } from "@/server/lots";
@@ -34,5 +37,36 @@ describe("the demo scenario", () => {
     const before = await tableDigests();
     expect(await seedDemo(getDb())).toBe(false);
     expect(await tableDigests()).toEqual(before);
+  });
+});
+
+describe("seeding with SMTP set up", () => {
+  it("keeps the demo's statements in the outbox: nothing is sent to the invented parties", async () => {
+    // A listener standing in for an SMTP server: any connection to it would be a message leaving.
+    let connections = 0;
+    const smtp = http.createServer().on("connection", (socket) => {
+      connections++;
+      socket.destroy();
+    });
+    await new Promise<void>((r) => smtp.listen(0, "127.0.0.1", r));
+    const saved = { host: process.env.SMTP_HOST, port: process.env.SMTP_PORT };
+    process.env.SMTP_HOST = "127.0.0.1";
+    process.env.SMTP_PORT = String((smtp.address() as AddressInfo).port);
+    const { db, sqlite } = openDatabase(":memory:");
+    try {
+      migrateDatabase(db);
+      expect(await seedDemo(db)).toBe(true);
+      const rows = sqlite.prepare("select transport from outbox").all() as { transport: string }[];
+      expect(rows.length).toBeGreaterThan(0);
+      expect(new Set(rows.map((r) => r.transport))).toEqual(new Set(["local"]));
+      expect(connections).toBe(0);
+    } finally {
+      sqlite.close();
+      smtp.close();
+      for (const [key, value] of [["SMTP_HOST", saved.host], ["SMTP_PORT", saved.port]] as const) {
+        if (value === undefined) delete process.env[key];
+        else process.env[key] = value;
+      }
+    }
   });
 });
