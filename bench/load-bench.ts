@@ -13,8 +13,6 @@ import { copyFileSync, mkdirSync, rmSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import autocannon from "autocannon";
 import Database from "better-sqlite3";
-import { drizzle } from "drizzle-orm/better-sqlite3";
-import * as schema from "../src/db/schema";
 import { SERVE_ARGS } from "../src/cli/serve-command";
 
 const root = path.resolve(import.meta.dirname, "..");
@@ -52,7 +50,7 @@ async function captureStatements() {
   // On the base itself: the rows the captured write refers to (its event) are then in every copy.
   const sqlite = new Database(baseFile, { verbose: (s) => log.push(String(s)) });
   for (const p of ["journal_mode = WAL", "busy_timeout = 5000", "foreign_keys = ON", "synchronous = NORMAL"]) sqlite.pragma(p);
-  (globalThis as { grainlineDb?: unknown }).grainlineDb = { sqlite, db: drizzle(sqlite, { schema }) };
+  (globalThis as { grainlineDb?: unknown }).grainlineDb = { sqlite }; // the app's modules use this connection
   const { lucia } = await import("../src/server/auth");
   const session = await lucia().createSession("user-brewer", {});
   const cookie = `${lucia().sessionCookieName}=${session.id}`;
@@ -134,19 +132,20 @@ async function load(url: string, duration: number, headers: Record<string, strin
 /** One route on one server, from a fresh copy of the base database: warm-up, then the measured run. */
 async function measure(args: string[], env: Record<string, string>, ready: string, cookie: string, key: "read" | "write"): Promise<Result> {
   freshCopy();
+  // Let the disk finish writing out the last run's pages before this one starts.
+  execFileSync("sync");
+  await new Promise((r) => setTimeout(r, 1000));
   const headers = { cookie, "content-type": "application/json" };
   const url = `${base}${key === "read" ? `/api/lots/${LOT}` : "/api/events"}`;
   const method = key === "read" ? "GET" : "POST";
   const body = key === "read" ? undefined : writeBody;
   return withServer(args, env, ready, async () => {
-    await load(url, 2, headers, method, body); // warm-up: JIT, statement caches
+    // Warm-up: JIT, statement caches, and Next loading its route modules in the background after start.
+    await load(url, 5, headers, method, body);
     return load(url, seconds, headers, method, body);
   });
 }
 
-async function measureBoth(args: string[], env: Record<string, string>, ready: string, cookie: string) {
-  return { read: await measure(args, env, ready, cookie, "read"), write: await measure(args, env, ready, cookie, "write") };
-}
 
 async function withServer<T>(args: string[], env: Record<string, string>, ready: string, fn: () => Promise<T>): Promise<T> {
   const child = spawn(process.execPath, args, { cwd: root, env: { ...process.env, NEXT_TELEMETRY_DISABLED: "1", ...env }, stdio: "ignore" });
@@ -165,9 +164,21 @@ const statementsFile = path.join(dataDir, "statements.json");
 writeFileSync(statementsFile, JSON.stringify(statements, null, 2));
 const appEnv = { GRAINLINE_DB: dbFile, PORT: String(PORT) };
 
-const bare = await measureBoth([path.join(root, "node_modules/tsx/dist/cli.mjs"), "bench/bare-server.ts", dbFile, statementsFile, String(PORT)], {}, `${base}/api/lots/${LOT}`, cookie);
-const app = await measureBoth(SERVE_ARGS, appEnv, `${base}/sign-in`, cookie);
-const nextOnly = await measureBoth(SERVE_ARGS, { ...appEnv, GRAINLINE_FAST_PATH: "off" }, `${base}/sign-in`, cookie);
+const servers = {
+  bare: [[path.join(root, "node_modules/tsx/dist/cli.mjs"), "bench/bare-server.ts", dbFile, statementsFile, String(PORT)], {}, `${base}/api/lots/${LOT}`],
+  app: [SERVE_ARGS, appEnv, `${base}/sign-in`],
+  nextOnly: [SERVE_ARGS, { ...appEnv, GRAINLINE_FAST_PATH: "off" }, `${base}/sign-in`],
+} as const;
+type Name = keyof typeof servers;
+const results = { bare: {}, app: {}, nextOnly: {} } as Record<Name, Record<"read" | "write", Result>>;
+// All reads first, then all writes: no read runs just after a write-heavy run.
+for (const key of ["read", "write"] as const) {
+  for (const name of Object.keys(servers) as Name[]) {
+    const [args, env, ready] = servers[name];
+    results[name][key] = await measure([...args], { ...env }, ready, cookie, key);
+  }
+}
+const { bare, app, nextOnly } = results;
 
 const cell = (r: Result) => `${r.rps.toFixed(0).padStart(6)} req/s  p99 ${r.p99.toFixed(1).padStart(6)} ms${r.non2xx ? `  (non-2xx ${r.non2xx})` : ""}`;
 const row = (name: string, key: "read" | "write") =>

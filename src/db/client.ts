@@ -6,7 +6,7 @@ import { mkdirSync } from "node:fs";
 import path from "node:path";
 import * as schema from "./schema";
 
-export type Db = ReturnType<typeof openDatabase>["db"];
+export type Db = ReturnType<typeof drizzleOver>;
 /** A connection or an open transaction: what helpers that join a caller's transaction take. */
 export type DbOrTx = BaseSQLiteDatabase<"sync", Database.RunResult, typeof schema>;
 
@@ -20,8 +20,12 @@ export function openDatabase(file: string) {
   sqlite.pragma("busy_timeout = 5000");
   sqlite.pragma("foreign_keys = ON");
   sqlite.pragma("synchronous = NORMAL");
-  const db = drizzle(sqlite, { schema });
-  return { sqlite, db };
+  return { sqlite, db: drizzleOver(sqlite) };
+}
+
+/** A Drizzle database over an open connection. */
+export function drizzleOver(sqlite: Database.Database) {
+  return drizzle(sqlite, { schema });
 }
 
 export const MIGRATIONS_FOLDER = path.resolve(process.cwd(), "drizzle");

@@ -22,7 +22,8 @@ export const FAST_ROUTES: readonly FastRoute[] = [
 /** Bodies above this size, and streamed bodies, are left to Next. An event is a few hundred bytes. */
 export const FAST_PATH_MAX_BODY = 64 * 1024;
 
-const FIXED_HEADERS: Record<string, string> = Object.fromEntries(SECURITY_HEADERS.map(({ key, value }) => [key, value]));
+/** Name, value, name, value…: the form of headers Node writes with the least work. */
+const FIXED_HEADERS: readonly string[] = [...SECURITY_HEADERS.flatMap(({ key, value }) => [key, value]), "Content-Type", "application/json"];
 
 /** Answers the request if a fast route matches it; false leaves it to Next. */
 export function serveFast(req: IncomingMessage, res: ServerResponse): boolean {
@@ -91,5 +92,5 @@ async function respond(req: IncomingMessage, res: ServerResponse, route: JsonRou
     console.error(error);
   }
   const payload = JSON.stringify(result.body);
-  res.writeHead(result.status, { ...FIXED_HEADERS, "content-type": "application/json", "content-length": Buffer.byteLength(payload) }).end(payload);
+  res.writeHead(result.status, [...FIXED_HEADERS, "Content-Length", String(Buffer.byteLength(payload))]).end(payload);
 }

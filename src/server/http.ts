@@ -60,7 +60,9 @@ export type JsonRoute = ((request: Request, context?: NextContext) => Promise<Re
 /** `handle` for routes that answer JSON: Next calls it as a route handler, the fast path calls `run`. */
 export function jsonRoute(fn: (request: ApiRequest, ctx: RouteContext) => Promise<JsonReply>): JsonRoute {
   const run = async (request: ApiRequest, params: Record<string, string>): Promise<JsonReply> => {
-    const t = translatorFor(request);
+    // Built on first use: a request that succeeds needs no message.
+    let translate: Translate | undefined;
+    const t: Translate = (key, values) => (translate ??= translatorFor(request))(key, values);
     try {
       if (!["GET", "HEAD", "OPTIONS"].includes(request.method)) checkOrigin(request);
       return await fn(request, { params, t });
