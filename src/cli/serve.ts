@@ -9,6 +9,8 @@ const env = process.env as Record<string, string | undefined>;
 env.NODE_ENV = "production";
 env.NEXT_TELEMETRY_DISABLED ??= "1";
 const port = Number(env.PORT || 3000);
+// Every interface unless GRAINLINE_HOST names one (HOSTNAME is not used: containers set it to their own name).
+const hostname = env.GRAINLINE_HOST || undefined;
 
 // Next first: it installs the request-scoped storage the app's modules capture when loaded.
 const { default: next } = await import("next");
@@ -25,9 +27,14 @@ const server = http.createServer((req, res) => {
   // The socket's own peer, for sign-in throttling; whatever a client sent under this name is
   // replaced. (The fast routes do not throttle; they never read it.)
   req.headers[PEER_HEADER] = req.socket.remoteAddress ?? "";
-  void nextHandler(req, res);
+  nextHandler(req, res).catch((error: unknown) => {
+    // Next answers its own errors; this is one it could not, so the request still gets an answer.
+    console.error(error);
+    if (!res.headersSent) res.writeHead(500, { "content-type": "text/plain; charset=utf-8" });
+    res.end("Something went wrong on our side.");
+  });
 });
-server.listen(port, () => console.log(`Grainline is listening on http://localhost:${port}`));
+server.listen(port, hostname, () => console.log(`Grainline is listening on http://${hostname ?? "localhost"}:${port}`));
 
 async function stop() {
   server.close();
