@@ -42,7 +42,11 @@ export function serveFast(req: IncomingMessage, res: ServerResponse): boolean {
       return false;
     }
     if (req.method !== "GET" && (req.headers["transfer-encoding"] !== undefined || !(Number(req.headers["content-length"] ?? 0) <= FAST_PATH_MAX_BODY))) return false;
-    void respond(req, res, entry.route, params);
+    respond(req, res, entry.route, params).catch((error: unknown) => {
+      // Only writing the reply itself can fail here; the socket is closed rather than left hanging.
+      console.error(error);
+      res.destroy();
+    });
     return true;
   }
   return false;
