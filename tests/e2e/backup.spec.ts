@@ -1,10 +1,10 @@
-import { execFile, execFileSync, spawn, type ChildProcess } from "node:child_process";
+import { execFile, execFileSync } from "node:child_process";
 import { mkdirSync, renameSync, rmSync, copyFileSync, existsSync } from "node:fs";
 import path from "node:path";
 import { promisify } from "node:util";
 import Database from "better-sqlite3";
 import { expect, test } from "@playwright/test";
-import { SERVE_ARGS } from "../../src/cli/serve-command";
+import { productionServer } from "../support/production-server";
 
 // `npm run backup` against the production server while phones write to it, then the restore
 // DEVELOPERS.md documents: stop, set the live files aside, put the copy in place, start again.
@@ -13,28 +13,9 @@ const port = Number(process.env.E2E_BACKUP_PORT || 3131);
 const dir = path.join(root, "tests/.tmp", `backup-${process.pid}`);
 const db = path.join(dir, "grainline.db");
 const copy = path.join(dir, "backup.db");
-const base = `http://localhost:${port}`;
-const env = { ...process.env, GRAINLINE_DB: db, PORT: String(port), NEXT_TELEMETRY_DISABLED: "1" };
+const server = productionServer(port, db);
+const { base, env } = server;
 
-function startServer(): ChildProcess {
-  return spawn(process.execPath, SERVE_ARGS, { cwd: root, env, stdio: "ignore" });
-}
-
-async function waitUp() {
-  for (let i = 0; i < 300; i++) {
-    try {
-      if ((await fetch(`${base}/sign-in`)).ok) return;
-    } catch {}
-    await new Promise((r) => setTimeout(r, 100));
-  }
-  throw new Error("server did not start");
-}
-
-async function stop(server: ChildProcess) {
-  const exited = new Promise((r) => server.once("exit", r));
-  server.kill("SIGTERM");
-  await exited;
-}
 
 function rows(file: string) {
   const d = new Database(file, { readonly: true });
@@ -51,8 +32,7 @@ test("npm run backup while the server takes writes; the documented restore bring
   mkdirSync(dir, { recursive: true });
   execFileSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), "--conditions=react-server", "src/cli/prepare-db.ts"], { cwd: root, env });
 
-  let server = startServer();
-  await waitUp();
+  let running = await server.start();
   const signIn = await fetch(`${base}/api/auth/sign-in`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email: "brewer@example.com", password: "grainline-demo" }) });
   const cookie = signIn.headers.get("set-cookie")!.split(";")[0]!;
   const write = (n: number) =>
@@ -90,16 +70,15 @@ test("npm run backup while the server takes writes; the documented restore bring
   expect(eventsIn(backup)).toBeLessThan(eventsIn(live)); // writes went on after the copy was taken
 
   // Restore as documented.
-  await stop(server);
+  await server.stop(running);
   for (const suffix of ["", "-wal", "-shm"]) if (existsSync(db + suffix)) renameSync(db + suffix, `${db}${suffix}.before-restore`);
   copyFileSync(copy, db);
-  server = startServer();
-  await waitUp();
+  running = await server.start();
   const lot = await fetch(`${base}/api/lots/P26-0001`, { headers: { cookie } });
   expect(lot.status).toBe(200); // the session in the copy still signs the brewer in
   const again = await write(0);
   expect(again).toBe(201);
-  await stop(server);
+  await server.stop(running);
   const restored = rows(db);
   expect(restored.integrity).toBe("ok");
   expect(eventsIn(restored)).toBe(eventsIn(backup) + 1);

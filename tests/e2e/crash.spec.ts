@@ -1,34 +1,18 @@
-import { execFileSync, spawn, type ChildProcess } from "node:child_process";
+import { execFileSync } from "node:child_process";
 import { mkdirSync, rmSync } from "node:fs";
 import path from "node:path";
 import Database from "better-sqlite3";
 import { expect, test } from "@playwright/test";
-import { SERVE_ARGS } from "../../src/cli/serve-command";
+import { productionServer } from "../support/production-server";
 
 // The production server (as `npm start` runs it, fast path included) on a database of its own,
 // killed with SIGKILL in the middle of a burst.
 const root = path.resolve(import.meta.dirname, "../..");
 const port = Number(process.env.E2E_CRASH_PORT || 3130);
 const db = path.join(root, "tests/.tmp", `crash-${process.pid}.db`);
-const base = `http://localhost:${port}`;
 
-function startServer(): ChildProcess {
-  return spawn(process.execPath, SERVE_ARGS, {
-    cwd: root,
-    env: { ...process.env, GRAINLINE_DB: db, PORT: String(port), NEXT_TELEMETRY_DISABLED: "1" },
-    stdio: "ignore",
-  });
-}
-
-async function waitUp() {
-  for (let i = 0; i < 200; i++) {
-    try {
-      if ((await fetch(`${base}/sign-in`)).ok) return;
-    } catch {}
-    await new Promise((r) => setTimeout(r, 100));
-  }
-  throw new Error("server did not start");
-}
+const server = productionServer(port, db);
+const { base } = server;
 
 test("kill -9 during a burst of 1,000 writes: the database is intact and every acknowledged write is there", async () => {
   test.setTimeout(180_000);
@@ -36,8 +20,7 @@ test("kill -9 during a burst of 1,000 writes: the database is intact and every a
   for (const suffix of ["", "-wal", "-shm"]) rmSync(db + suffix, { force: true });
   execFileSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), "--conditions=react-server", "src/cli/prepare-db.ts"], { cwd: root, env: { ...process.env, GRAINLINE_DB: db } });
 
-  let server = startServer();
-  await waitUp();
+  let running = await server.start();
   const signIn = await fetch(`${base}/api/auth/sign-in`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email: "brewer@example.com", password: "grainline-demo" }) });
   const cookie = signIn.headers.get("set-cookie")!.split(";")[0]!;
 
@@ -53,18 +36,17 @@ test("kill -9 during a burst of 1,000 writes: the database is intact and every a
   };
   const burst = Promise.allSettled(Array.from({ length: 1000 }, (_, i) => new Promise((r) => setTimeout(r, i)).then(write)));
   await new Promise((r) => setTimeout(r, 400));
-  server.kill("SIGKILL");
+  running.kill("SIGKILL");
   await burst;
   expect(acknowledged.length).toBeGreaterThan(0);
   expect(acknowledged.length).toBeLessThan(1000);
 
-  server = startServer();
-  await waitUp();
+  running = await server.start();
   const check = new Database(db, { readonly: true });
   expect(check.pragma("integrity_check", { simple: true })).toBe("ok");
   const stored = new Set((check.prepare("select id from events where step = 'measuring'").all() as { id: number }[]).map((r) => r.id));
   const missing = acknowledged.filter((id) => !stored.has(id));
   expect(missing).toEqual([]);
   check.close();
-  server.kill("SIGTERM");
+  await server.stop(running);
 });
