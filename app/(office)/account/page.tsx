@@ -6,9 +6,10 @@ import { can } from "@/domain/permissions";
 import { actionTranslator } from "@/server/action";
 import { requirePageUser } from "@/server/page-guard";
 import { getParty } from "@/server/parties";
-import { accountRows } from "@/server/supplier-describe";
+import { accountRows, type AccountRow } from "@/server/supplier-describe";
 import { growerPortal, millPortal } from "@/server/supplier-portal";
 import { HarvestTrails, MyFields } from "./components";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("nav"))("account") };
@@ -25,17 +26,11 @@ export default async function AccountPage() {
 }
 
 async function GrowerAccount() {
-  const user = await requirePageUser();
-  const p = growerPortal(user);
+  const p = growerPortal(await requirePageUser());
   const t = await getTranslations("suppliers");
   const rows = accountRows(p.ledger, await actionTranslator());
   return (
-    <div className="space-y-8">
-      <header>
-        <h1 className="text-3xl font-bold">{t("portal.growerTitle")}</h1>
-        <p className="max-w-3xl text-ink-soft">{t("portal.growerIntro")}</p>
-      </header>
-      <BalancePanel title={t("portal.owed")} balanceYen={p.ledger.balanceYen} ageing={p.ledger.ageing} note={t("portal.owedNote")} />
+    <AccountFrame portal={p} rows={rows} title={t("portal.growerTitle")} intro={t("portal.growerIntro")} after={<Section title={t("portal.fields")}><MyFields rows={p.fields} /></Section>}>
       <Section title={t("portal.harvests")}>
         <p className="text-sm text-ink-soft">{t("portal.harvestsIntro")}</p>
         <HarvestTrails rows={p.harvests} />
@@ -43,34 +38,16 @@ async function GrowerAccount() {
       <Section title={t("portal.deliveries")}>
         <DeliveriesTable rows={p.deliveries} />
       </Section>
-      <Section title={t("portal.payments")}>
-        <AccountTable rows={rows.filter((r) => r.kind === "payment")} testId="payments-table" exportName="grainline-payments" />
-      </Section>
-      <Section title={t("detail.entries")}>
-        <AccountTable rows={rows} />
-      </Section>
-      <Section title={t("portal.statements")}>
-        <StatementsTable partyId={p.party.id} rows={p.statements.map(({ totals: _t, ...s }) => s)} />
-      </Section>
-      <Section title={t("portal.fields")}>
-        <MyFields rows={p.fields} />
-      </Section>
-    </div>
+    </AccountFrame>
   );
 }
 
 async function MillAccount() {
-  const user = await requirePageUser();
-  const p = millPortal(user);
+  const p = millPortal(await requirePageUser());
   const t = await getTranslations("suppliers");
   const rows = accountRows(p.ledger, await actionTranslator());
   return (
-    <div className="space-y-8">
-      <header>
-        <h1 className="text-3xl font-bold">{t("portal.millTitle")}</h1>
-        <p className="max-w-3xl text-ink-soft">{t("portal.millIntro")}</p>
-      </header>
-      <BalancePanel title={t("portal.owed")} balanceYen={p.ledger.balanceYen} ageing={p.ledger.ageing} note={t("portal.owedNote")} />
+    <AccountFrame portal={p} rows={rows} title={t("portal.millTitle")} intro={t("portal.millIntro")}>
       <Section title={t("detail.receipts")}>
         <ReceiptsTable rows={p.receipts} />
       </Section>
@@ -80,6 +57,23 @@ async function MillAccount() {
       <Section title={t("portal.fees")}>
         <AccountTable rows={rows.filter((r) => r.kind === "polishing-fee" || r.kind === "reversal")} testId="fees-table" exportName="grainline-fees" />
       </Section>
+    </AccountFrame>
+  );
+}
+
+type Portal = Pick<ReturnType<typeof growerPortal>, "party" | "ledger" | "statements">;
+
+/**
+ * What both accounts show around their own sections: what is owed first; then the payments,
+ * every entry and the statements.
+ */
+async function AccountFrame({ portal: p, rows, title, intro, children, after }: { portal: Portal; rows: AccountRow[]; title: string; intro: string; children: React.ReactNode; after?: React.ReactNode }) {
+  const t = await getTranslations("suppliers");
+  return (
+    <div className="space-y-8">
+      <PageHeader title={title} intro={intro} wide />
+      <BalancePanel title={t("portal.owed")} balanceYen={p.ledger.balanceYen} ageing={p.ledger.ageing} note={t("portal.owedNote")} />
+      {children}
       <Section title={t("portal.payments")}>
         <AccountTable rows={rows.filter((r) => r.kind === "payment")} testId="payments-table" exportName="grainline-payments" />
       </Section>
@@ -89,6 +83,7 @@ async function MillAccount() {
       <Section title={t("portal.statements")}>
         <StatementsTable partyId={p.party.id} rows={p.statements.map(({ totals: _t, ...s }) => s)} />
       </Section>
+      {after}
     </div>
   );
 }

@@ -2,6 +2,7 @@ import Link from "next/link";
 import { getFormatter, getTranslations } from "next-intl/server";
 import { BREW_DAY_STEPS, listBrewDays } from "@/server/brew-days";
 import { requirePagePermission } from "@/server/page-guard";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("brewDays"))("title") };
@@ -14,10 +15,7 @@ export default async function BrewDaysPage() {
   const days = listBrewDays(user);
   return (
     <div className="space-y-6">
-      <header>
-        <h1 className="text-3xl font-bold">{t("title")}</h1>
-        <p className="text-ink-soft">{t("intro")}</p>
-      </header>
+      <PageHeader title={t("title")} intro={t("intro")} />
       {days.length === 0 ? (
         <p className="notice">{t("empty")}</p>
       ) : (

@@ -8,6 +8,7 @@ import { listParties } from "@/server/parties";
 import { LotsTable } from "@/components/lots-table";
 import { HarvestForm } from "./harvest-form";
 import { FieldForm, FieldsTable } from "./components";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("home"))("fieldsTitleAll") };
@@ -24,10 +25,7 @@ export default async function FieldsPage() {
   const growers = can(user, "fields:write-any") ? listParties("grower").map(({ id, name }) => ({ id, name })) : null;
   return (
     <div className="space-y-8">
-      <header>
-        <h1 className="text-3xl font-bold">{readsAll ? t("home.fieldsTitleAll") : t("home.fieldsTitle")}</h1>
-        <p className="text-ink-soft">{readsAll ? t("home.fieldsIntroAll") : t("home.fieldsIntro")}</p>
-      </header>
+      <PageHeader title={readsAll ? t("home.fieldsTitleAll") : t("home.fieldsTitle")} intro={readsAll ? t("home.fieldsIntroAll") : t("home.fieldsIntro")} />
       <FieldsTable rows={rows} showGrower={readsAll} />
       {can(user, "harvests:record-own") || can(user, "harvests:record-any") ? (
         <section className="panel">

@@ -4,6 +4,7 @@ import { importKindsFor } from "@/server/csv-import";
 import { listFields } from "@/server/fields";
 import { requirePageUser } from "@/server/page-guard";
 import { ImportWorkbench } from "./components";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("csv.import"))("title") };
@@ -18,10 +19,7 @@ export default async function ImportPage() {
   const fields = kinds.includes("harvests") ? listFields(user) : [];
   return (
     <div className="space-y-8">
-      <header>
-        <h1 className="text-3xl font-bold">{t("title")}</h1>
-        <p className="max-w-3xl text-ink-soft">{t("intro")}</p>
-      </header>
+      <PageHeader title={t("title")} intro={t("intro")} wide />
       <ImportWorkbench kinds={kinds} />
       {fields.length ? (
         <details className="panel">

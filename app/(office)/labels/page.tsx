@@ -4,6 +4,7 @@ import { actionOrigin } from "@/server/action";
 import { buildLabelSheet, listLabelCandidates, paginateLabels, parseLabelLayout, QR_WIDTH_MM, type LabelView } from "@/server/labels";
 import { requirePageUser } from "@/server/page-guard";
 import { PrintButton } from "./components";
+import { PageHeader } from "@/components/page-header";
 
 type Props = { searchParams: Promise<Record<string, string | string[] | undefined>> };
 type Text = Awaited<ReturnType<typeof getTranslations>>;
@@ -33,10 +34,7 @@ export default async function LabelsPage({ searchParams }: Props) {
 
   return (
     <div className="space-y-6">
-      <header className="print:hidden">
-        <h1 className="text-3xl font-bold">{t("labels.title")}</h1>
-        <p className="text-ink-soft">{t("labels.intro")}</p>
-      </header>
+      <PageHeader title={t("labels.title")} intro={t("labels.intro")} className="print:hidden" />
 
       <form method="get" action="/labels" className="panel grid gap-4 print:hidden" data-testid="label-form">
         <fieldset>

@@ -7,6 +7,7 @@ import { requirePageUser } from "@/server/page-guard";
 import { listParties } from "@/server/parties";
 import { can } from "@/domain/permissions";
 import { LedgerLotsTable } from "./components";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("lotsPage"))("title") };
@@ -33,10 +34,7 @@ export default async function LotsPage({ searchParams }: { searchParams: Promise
   const { items, total } = listLots(user, { ...query, limit: PAGE_SIZE, offset: (query.page - 1) * PAGE_SIZE });
   return (
     <div className="space-y-6">
-      <header>
-        <h1 className="text-3xl font-bold">{t("title")}</h1>
-        <p className="text-ink-soft">{t("intro")}</p>
-      </header>
+      <PageHeader title={t("title")} intro={t("intro")} />
       <LedgerLotsTable
         rows={items}
         total={total}

@@ -4,6 +4,7 @@ import { listAwaitingPolishing } from "@/server/lots";
 import { requirePagePermission } from "@/server/page-guard";
 import { LotsTable } from "@/components/lots-table";
 import { PolishingRunForm } from "./components";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("home"))("millTitle") };
@@ -16,10 +17,7 @@ export default async function MillPage() {
   const rows = listAwaitingPolishing(can(user, "records:read-all") ? null : user.partyId);
   return (
     <div className="space-y-8">
-      <header>
-        <h1 className="text-3xl font-bold">{t("home.millTitle")}</h1>
-        <p className="text-ink-soft">{t("home.millIntro")}</p>
-      </header>
+      <PageHeader title={t("home.millTitle")} intro={t("home.millIntro")} />
       <LotsTable rows={rows} />
       <section className="panel max-w-4xl">
         <h2 className="text-xl font-bold">{t("polishing.title")}</h2>

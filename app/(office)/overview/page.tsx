@@ -3,6 +3,7 @@ import { AuditTable } from "@/components/audit-table";
 import { listAudit } from "@/server/audit";
 import { overviewCounts } from "@/server/overview";
 import { requirePagePermission } from "@/server/page-guard";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("home"))("overviewTitle") };
@@ -14,10 +15,7 @@ export default async function OverviewPage() {
   const counts = overviewCounts();
   return (
     <div className="space-y-8">
-      <header>
-        <h1 className="text-3xl font-bold">{t("overviewTitle")}</h1>
-        <p className="text-ink-soft">{t("overviewIntro")}</p>
-      </header>
+      <PageHeader title={t("overviewTitle")} intro={t("overviewIntro")} />
       <dl className="grid grid-cols-2 gap-4 sm:grid-cols-5">
         {(Object.keys(counts) as (keyof typeof counts)[]).map((key) => (
           <div key={key} className="panel">

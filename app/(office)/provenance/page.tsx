@@ -8,6 +8,7 @@ import { actionTranslator } from "@/server/action";
 import { findLot } from "@/server/lots";
 import { requirePagePermission } from "@/server/page-guard";
 import { provenanceFor } from "@/server/provenance";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("home"))("provenanceTitle") };
@@ -21,10 +22,7 @@ export default async function ProvenancePage({ searchParams }: { searchParams: P
   const answer = lot ? provenanceFor(user, code, await actionTranslator()) : null;
   return (
     <div className="max-w-3xl space-y-6">
-      <header>
-        <h1 className="text-3xl font-bold">{t("home.provenanceTitle")}</h1>
-        <p className="text-ink-soft">{t("home.provenanceIntro")}</p>
-      </header>
+      <PageHeader title={t("home.provenanceTitle")} intro={t("home.provenanceIntro")} />
       <LotLookupForm action="/provenance" defaultCode={code} />
       {code && !lot ? <p role="alert" className="notice-warn">{t("lookup.notFound", { code })}</p> : null}
       {lot && answer ? (

@@ -6,6 +6,7 @@ import { AppError } from "@/server/errors";
 import { requirePageUser } from "@/server/page-guard";
 import { canReadRecall, loadRecall, recallRows, shipmentsToBuyers, type Recall } from "@/server/recall";
 import { ReachedLotsTable, type ReachedLot } from "./components";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("recall"))("title") };
@@ -32,10 +33,7 @@ export default async function RecallPage({ searchParams }: { searchParams: Promi
   const api = `/api/trace/${encodeURIComponent(code)}`;
   return (
     <div className="max-w-5xl space-y-6">
-      <header>
-        <h1 className="text-3xl font-bold">{t("recall.title")}</h1>
-        <p className="text-ink-soft">{t("recall.intro")}</p>
-      </header>
+      <PageHeader title={t("recall.title")} intro={t("recall.intro")} />
       <LotLookupForm action="/recall" defaultCode={code} />
       {code && !recall ? <p role="alert" className="notice-warn">{t("lookup.notFound", { code })}</p> : null}
       {recall ? (

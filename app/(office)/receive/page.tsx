@@ -4,6 +4,7 @@ import { can } from "@/domain/permissions";
 import { requirePageUser } from "@/server/page-guard";
 import { listParties } from "@/server/parties";
 import { ReceiveForm } from "./components";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("receive"))("title") };
@@ -17,10 +18,7 @@ export default async function ReceivePage() {
   const receivers = can(user, "lots:act-any") ? [...listParties("brewery"), ...listParties("mill")].map(({ id, name }) => ({ id, name })) : null;
   return (
     <div className="max-w-3xl space-y-6">
-      <header>
-        <h1 className="text-3xl font-bold">{t("title")}</h1>
-        <p className="text-ink-soft">{t("intro")}</p>
-      </header>
+      <PageHeader title={t("title")} intro={t("intro")} />
       <section className="panel"><ReceiveForm receivers={receivers} /></section>
     </div>
   );

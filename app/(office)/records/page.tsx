@@ -2,6 +2,7 @@ import { getTranslations } from "next-intl/server";
 import { AuditTable } from "@/components/audit-table";
 import { listAudit } from "@/server/audit";
 import { requirePagePermission } from "@/server/page-guard";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("home"))("recordsTitle") };
@@ -12,10 +13,7 @@ export default async function RecordsPage() {
   const t = await getTranslations();
   return (
     <div className="space-y-6">
-      <header>
-        <h1 className="text-3xl font-bold">{t("home.recordsTitle")}</h1>
-        <p className="text-ink-soft">{t("home.recordsIntro")}</p>
-      </header>
+      <PageHeader title={t("home.recordsTitle")} intro={t("home.recordsIntro")} />
       <AuditTable rows={listAudit(2000)} />
       <p className="notice text-sm">{t("caution.records")}</p>
     </div>

@@ -5,6 +5,7 @@ import { requirePageUser } from "@/server/page-guard";
 import { listSupplierBalances } from "@/server/supplier-ledger";
 import { readTaxRounding } from "@/server/supplier-settings";
 import { RoundingForm, SuppliersTable } from "./components";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("suppliers"))("title") };
@@ -17,10 +18,7 @@ export default async function SuppliersPage() {
   const rows = listSupplierBalances(user).map(({ id, name, kind, invoiceNumber, balanceYen, ageing }) => ({ id, name, kind, invoiceNumber, balanceYen, ageing }));
   return (
     <div className="space-y-8">
-      <header>
-        <h1 className="text-3xl font-bold">{t("title")}</h1>
-        <p className="max-w-3xl text-ink-soft">{t("intro")}</p>
-      </header>
+      <PageHeader title={t("title")} intro={t("intro")} wide />
       <SuppliersTable rows={rows} />
       <section className="panel max-w-3xl space-y-3">
         <h2 className="text-xl font-bold">{t("rounding.title")}</h2>

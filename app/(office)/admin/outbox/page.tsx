@@ -2,6 +2,7 @@ import { getTranslations } from "next-intl/server";
 import { listOutbox } from "@/server/mail";
 import { requirePagePermission } from "@/server/page-guard";
 import { OutboxTable } from "./components";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("outbox"))("title") };
@@ -12,10 +13,7 @@ export default async function OutboxPage() {
   const t = await getTranslations("outbox");
   return (
     <div className="space-y-6">
-      <header>
-        <h1 className="text-3xl font-bold">{t("title")}</h1>
-        <p className="text-ink-soft">{t("intro")}</p>
-      </header>
+      <PageHeader title={t("title")} intro={t("intro")} />
       <OutboxTable rows={listOutbox()} />
     </div>
   );

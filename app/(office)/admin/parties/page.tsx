@@ -2,6 +2,7 @@ import { getTranslations } from "next-intl/server";
 import { listParties } from "@/server/parties";
 import { requirePagePermission } from "@/server/page-guard";
 import { PartiesTable, PartyForm } from "./components";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("parties"))("title") };
@@ -13,10 +14,7 @@ export default async function PartiesPage() {
   const rows = listParties().map(({ id, kind, name, region, email, namedPublicly }) => ({ id, kind, name, region, email, namedPublicly }));
   return (
     <div className="space-y-8">
-      <header>
-        <h1 className="text-3xl font-bold">{t("title")}</h1>
-        <p className="text-ink-soft">{t("intro")}</p>
-      </header>
+      <PageHeader title={t("title")} intro={t("intro")} />
       <PartiesTable rows={rows} />
       <section className="panel">
         <h2 className="mb-4 text-xl font-bold">{t("new")}</h2>

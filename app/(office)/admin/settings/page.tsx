@@ -2,6 +2,7 @@ import { getFormatter, getTranslations } from "next-intl/server";
 import { requirePagePermission } from "@/server/page-guard";
 import { lastSettingsChange, readSettings, SETTING_DEFAULTS } from "@/server/settings";
 import { RestoreDefaultsForm, SettingsForm } from "./components";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("settingsPage"))("title") };
@@ -15,14 +16,12 @@ export default async function SettingsPage() {
   const last = lastSettingsChange();
   return (
     <div className="space-y-6">
-      <header className="space-y-2">
-        <h1 className="text-3xl font-bold">{t("title")}</h1>
-        <p className="text-ink-soft">{t("intro")}</p>
+      <PageHeader title={t("title")} intro={t("intro")} className="space-y-2">
         <p className="notice-warn" data-testid="defaults-source">{t("defaultsSource")}</p>
         <p className="text-sm text-ink-soft">
           {last ? t("lastChange", { at: format.dateTime(last.at, { dateStyle: "medium", timeStyle: "short" }), by: last.by }) : t("allDefaults")}
         </p>
-      </header>
+      </PageHeader>
       <SettingsForm current={current} defaults={SETTING_DEFAULTS} />
       <section className="panel max-w-2xl space-y-3">
         <h2 className="text-xl font-bold">{t("restoreTitle")}</h2>

@@ -3,6 +3,7 @@ import { listParties } from "@/server/parties";
 import { requirePagePermission } from "@/server/page-guard";
 import { listUsers } from "@/server/users";
 import { InviteForm, UsersTable } from "./components";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("users"))("title") };
@@ -15,10 +16,7 @@ export default async function UsersPage() {
   const parties = listParties().map(({ id, name, kind }) => ({ id, name, kind }));
   return (
     <div className="space-y-8">
-      <header>
-        <h1 className="text-3xl font-bold">{t("title")}</h1>
-        <p className="text-ink-soft">{t("intro")}</p>
-      </header>
+      <PageHeader title={t("title")} intro={t("intro")} />
       <UsersTable rows={rows} />
       <section className="panel">
         <h2 className="mb-4 text-xl font-bold">{t("invite")}</h2>

@@ -7,6 +7,7 @@ import { AppError } from "@/server/errors";
 import { requirePageUser } from "@/server/page-guard";
 import { listTransactionRecords, parseDateRange, type TransactionRecord } from "@/server/transactions-export";
 import { TransactionsTable } from "./components";
+import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("csv.records"))("title") };
@@ -35,11 +36,9 @@ export default async function TransactionsPage({ searchParams }: { searchParams:
   const download = `/api/records/transactions.csv?${new URLSearchParams({ from, to })}`;
   return (
     <div className="space-y-6">
-      <header>
-        <h1 className="text-3xl font-bold">{t("title")}</h1>
-        <p className="max-w-3xl text-ink-soft">{t("intro")}</p>
+      <PageHeader title={t("title")} intro={t("intro")} wide>
         {can(user, "records:read-all") ? null : <p className="mt-2 text-sm text-ink-soft">{t("scopeOwn")}</p>}
-      </header>
+      </PageHeader>
       <form method="get" className="panel flex flex-wrap items-end gap-4" noValidate>
         <FormField label={t("from")} name="from" type="date" required defaultValue={from} errors={errors.from} />
         <FormField label={t("to")} name="to" type="date" required defaultValue={to} errors={errors.to} />

@@ -10,6 +10,21 @@ import { issueStatementAction, recordAdjustmentAction, recordPaymentAction, setI
 
 type Action = (prev: FormState, formData: FormData) => Promise<FormState>;
 
+const GRID = { 1: ["grid gap-4", ""], 2: ["grid gap-4 sm:grid-cols-2", "sm:col-span-2"], 3: ["grid gap-4 sm:grid-cols-3", "sm:col-span-3"] } as const;
+
+/** What every supplier form has around its fields: the party, the form's message, and one submit button across the grid. */
+export function SupplierForm({ form, partyId, testId, columns, submit, children }: { form: ReturnType<typeof useSupplierForm>; partyId: string; testId: string; columns: 1 | 2 | 3; submit: string; children: React.ReactNode }) {
+  const [grid, span] = GRID[columns];
+  return (
+    <form action={form.run} key={form.key} className={grid} noValidate data-testid={testId}>
+      <input type="hidden" name="partyId" value={partyId} />
+      <div className={span}><FormMessage state={form.state} /></div>
+      {children}
+      <div className={span}><button type="submit" className="btn" disabled={form.pending}>{submit}</button></div>
+    </form>
+  );
+}
+
 /** One form's state, with values kept after an error and cleared after a success. */
 export function useSupplierForm(action: Action) {
   const [state, run, pending] = useActionState(action, initialFormState);
@@ -44,15 +59,12 @@ export function PaymentForm({ partyId, today }: { partyId: string; today: string
   const t = useTranslations("suppliers");
   const f = useSupplierForm(recordPaymentAction);
   return (
-    <form action={f.run} key={f.key} className="grid gap-4 sm:grid-cols-2" noValidate data-testid="payment-form">
-      <input type="hidden" name="partyId" value={partyId} />
-      <div className="sm:col-span-2"><FormMessage state={f.state} /></div>
+    <SupplierForm form={f} partyId={partyId} testId="payment-form" columns={2} submit={t("payment.save")}>
       <FormField label={t("payment.date")} name="payDate" type="date" defaultValue={f.v("payDate", today)} errors={f.state.fields?.date} />
       <FormField label={t("payment.amount")} name="payAmount" inputMode="numeric" defaultValue={f.v("payAmount")} errors={f.state.fields?.amountYen} />
       <Select label={t("payment.method")} name="payMethod" value={f.v("payMethod", "bank-transfer")} options={PAYMENT_METHODS.map((m) => [m, t(`methods.${m}`)])} errors={f.state.fields?.method} />
       <FormField label={t("payment.reference")} name="payReference" defaultValue={f.v("payReference")} errors={f.state.fields?.reference} />
-      <div className="sm:col-span-2"><button type="submit" className="btn" disabled={f.pending}>{t("payment.save")}</button></div>
-    </form>
+    </SupplierForm>
   );
 }
 
@@ -60,15 +72,12 @@ export function AdjustmentForm({ partyId, today }: { partyId: string; today: str
   const t = useTranslations("suppliers");
   const f = useSupplierForm(recordAdjustmentAction);
   return (
-    <form action={f.run} key={f.key} className="grid gap-4 sm:grid-cols-2" noValidate data-testid="adjustment-form">
-      <input type="hidden" name="partyId" value={partyId} />
-      <div className="sm:col-span-2"><FormMessage state={f.state} /></div>
+    <SupplierForm form={f} partyId={partyId} testId="adjustment-form" columns={2} submit={t("adjustment.save")}>
       <FormField label={t("adjustment.date")} name="adjDate" type="date" defaultValue={f.v("adjDate", today)} errors={f.state.fields?.date} />
       <FormField label={t("adjustment.amount")} name="adjAmount" inputMode="numeric" defaultValue={f.v("adjAmount")} errors={f.state.fields?.amountYen} />
       <Select label={t("adjustment.rate")} name="adjRate" value={f.v("adjRate", "0")} options={["0", "8", "10"].map((r) => [r, t(`rates.${r}`)])} errors={f.state.fields?.taxRatePct} />
       <FormField label={t("adjustment.reason")} name="adjReason" defaultValue={f.v("adjReason")} errors={f.state.fields?.reason} />
-      <div className="sm:col-span-2"><button type="submit" className="btn" disabled={f.pending}>{t("adjustment.save")}</button></div>
-    </form>
+    </SupplierForm>
   );
 }
 
@@ -76,9 +85,7 @@ export function StatementForm({ partyId, from, to, hasEmail }: { partyId: string
   const t = useTranslations("suppliers.statements");
   const f = useSupplierForm(issueStatementAction);
   return (
-    <form action={f.run} key={f.key} className="grid gap-4 sm:grid-cols-3" noValidate data-testid="statement-form">
-      <input type="hidden" name="partyId" value={partyId} />
-      <div className="sm:col-span-3"><FormMessage state={f.state} /></div>
+    <SupplierForm form={f} partyId={partyId} testId="statement-form" columns={3} submit={t("issue")}>
       <FormField label={t("from")} name="from" type="date" defaultValue={f.v("from", from)} errors={f.state.fields?.from} />
       <FormField label={t("to")} name="to" type="date" defaultValue={f.v("to", to)} errors={f.state.fields?.to} />
       <label className="flex items-center gap-2 self-end pb-2">
@@ -86,7 +93,6 @@ export function StatementForm({ partyId, from, to, hasEmail }: { partyId: string
         {t("email")}
       </label>
       {f.state.fields?.email ? <p className="field-error sm:col-span-3">{f.state.fields.email.join(" ")}</p> : null}
-      <div className="sm:col-span-3"><button type="submit" className="btn" disabled={f.pending}>{t("issue")}</button></div>
-    </form>
+    </SupplierForm>
   );
 }

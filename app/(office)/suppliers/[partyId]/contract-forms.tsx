@@ -4,11 +4,10 @@ import { useFormatter, useTranslations } from "next-intl";
 import type { ColumnDef } from "@tanstack/react-table";
 import { DataTable } from "@/components/data-table";
 import { FormField } from "@/components/ui/form-field";
-import { FormMessage } from "@/components/ui/form-message";
 import { GRADES } from "@/domain/grades";
 import type { GrowerTerms, MillTerms } from "@/domain/supplier-prices";
 import { addGrowerContractAction, addMillContractAction } from "./actions";
-import { useSupplierForm } from "./components";
+import { SupplierForm, useSupplierForm } from "./components";
 
 export type ContractRow = { id: number; kind: "grower" | "mill"; variety: string | null; cropYear: number | null; version: number; terms: GrowerTerms | MillTerms; note: string; by: string; createdAt: Date; superseded: boolean };
 
@@ -41,9 +40,7 @@ export function GrowerContractForm({ partyId, defaultYear }: { partyId: string; 
   const tl = useTranslations("lot");
   const f = useSupplierForm(addGrowerContractAction);
   return (
-    <form action={f.run} key={f.key} className="grid gap-4 sm:grid-cols-3" noValidate data-testid="grower-contract-form">
-      <input type="hidden" name="partyId" value={partyId} />
-      <div className="sm:col-span-3"><FormMessage state={f.state} /></div>
+    <SupplierForm form={f} partyId={partyId} testId="grower-contract-form" columns={3} submit={t("save")}>
       <FormField label={t("variety")} name="variety" defaultValue={f.v("variety")} errors={f.state.fields?.variety} />
       <FormField label={t("cropYear")} name="cropYear" inputMode="numeric" defaultValue={f.v("cropYear", String(defaultYear))} errors={f.state.fields?.cropYear} />
       <FormField label={t("note")} name="note" defaultValue={f.v("note")} errors={f.state.fields?.note} />
@@ -65,8 +62,7 @@ export function GrowerContractForm({ partyId, defaultYear }: { partyId: string; 
         </div>
         <FormField label={t("deduction")} name="moistureDeductionYen" inputMode="numeric" defaultValue={f.v("moistureDeductionYen", "0")} errors={f.state.fields?.moistureDeductionYen} />
       </fieldset>
-      <div className="sm:col-span-3"><button type="submit" className="btn" disabled={f.pending}>{t("save")}</button></div>
-    </form>
+    </SupplierForm>
   );
 }
 
@@ -77,9 +73,7 @@ export function MillContractForm({ partyId, current }: { partyId: string; curren
   const given = current.map((tier) => [tier.upToRatioPct === null ? "" : String(tier.upToRatioPct), String(tier.feePerKgYen)]);
   const defaults = [...given, ...[["50", ""], ["60", ""], ["70", ""], ["", ""]].slice(given.length)].slice(0, 4);
   return (
-    <form action={f.run} key={f.key} className="grid gap-4" noValidate data-testid="mill-contract-form">
-      <input type="hidden" name="partyId" value={partyId} />
-      <FormMessage state={f.state} />
+    <SupplierForm form={f} partyId={partyId} testId="mill-contract-form" columns={1} submit={t("save")}>
       <fieldset className="grid gap-3 sm:grid-cols-4">
         <legend className="field-label mb-1">{t("tiersLegend")}</legend>
         {defaults.map(([upTo, fee], n) => (
@@ -92,7 +86,6 @@ export function MillContractForm({ partyId, current }: { partyId: string; curren
       </fieldset>
       {f.state.fields?.tiers ? <p className="field-error">{f.state.fields.tiers.join(" ")}</p> : null}
       <FormField label={t("note")} name="note" defaultValue={f.v("note")} errors={f.state.fields?.note} />
-      <div><button type="submit" className="btn" disabled={f.pending}>{t("save")}</button></div>
-    </form>
+    </SupplierForm>
   );
 }
