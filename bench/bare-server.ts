@@ -2,11 +2,14 @@
  * The bare comparison for `npm run bench:load`: node:http + better-sqlite3 and nothing else,
  * running exactly the SQL the app ran for one request of each route (captured by the bench
  * through better-sqlite3's verbose hook, values included), the write in one IMMEDIATE
- * transaction as the app does. Usage: tsx bench/bare-server.ts <db> <statements.json> <port>
+ * transaction as the app does, on a connection set up as the app's is (the same pragmas, and
+ * WAL checkpoints in a worker thread: src/server/checkpointer.ts).
+ * Usage: tsx --conditions=react-server bench/bare-server.ts <db> <statements.json> <port>
  */
 import { readFileSync } from "node:fs";
 import http from "node:http";
 import Database from "better-sqlite3";
+import { startCheckpointer } from "../src/server/checkpointer";
 
 const [dbFile, statementsFile, port] = process.argv.slice(2) as [string, string, string];
 const captured = JSON.parse(readFileSync(statementsFile, "utf8")) as { read: string[]; write: string[] };
@@ -16,6 +19,7 @@ db.pragma("journal_mode = WAL");
 db.pragma("busy_timeout = 5000");
 db.pragma("foreign_keys = ON");
 db.pragma("synchronous = NORMAL");
+startCheckpointer(db);
 
 const prepare = (sql: string) => {
   const statement = db.prepare(sql);

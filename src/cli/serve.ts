@@ -21,6 +21,10 @@ const nextHandler = app.getRequestHandler();
 const fastPath = env.GRAINLINE_FAST_PATH === "off" ? null : (await import("../server/fast-path")).serveFast;
 
 const { PEER_HEADER } = await import("../server/client-address");
+// WAL checkpoints in a worker thread, so no request waits for one (src/server/checkpointer.ts);
+// GRAINLINE_CHECKPOINTS=inline leaves them to SQLite's default, at commit.
+const { getSqlite } = await import("../server/db");
+const checkpointer = env.GRAINLINE_CHECKPOINTS === "inline" ? null : (await import("../server/checkpointer")).startCheckpointer(getSqlite());
 
 const server = http.createServer((req, res) => {
   if (fastPath?.(req, res)) return;
@@ -38,6 +42,7 @@ server.listen(port, hostname, () => console.log(`Grainline is listening on http:
 
 async function stop() {
   server.close();
+  await checkpointer?.stop();
   await app.close();
   process.exit(0);
 }

@@ -69,7 +69,8 @@ export function previewImport(actor: SessionUser, body: ImportRequest, t: Transl
 /** The same run, kept only when no row failed; the same Idempotency-Key answers the first commit again. */
 export function commitImport(actor: SessionUser, body: ImportRequest, t: Translate, idempotencyKey: string | null) {
   const columns = mapHeader(body.kind, body.header, t);
-  const hash = requestHash({ path: "import", body });
+  // Only a request with an Idempotency-Key is remembered, so only its body is hashed.
+  const hash = idempotencyKey ? requestHash({ path: "import", body }) : "";
   return immediately((tx) => {
     const replayed = replay(tx, idempotencyKey, actor.id, hash);
     if (replayed) return { status: replayed.status, report: replayed.body as ImportReport };

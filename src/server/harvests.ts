@@ -6,7 +6,7 @@ import { MAX_MOISTURE_PCT } from "@/domain/grades";
 import { can, canRecordOnField } from "@/domain/permissions";
 import type { HarvestInput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
-import { getDb } from "./db";
+import { writeTransaction } from "./db";
 import { forbidden, invalid } from "./errors";
 import { remember, replay, requestHash, type StoredResponse } from "./idempotency";
 import { allocateLotCode } from "./lot-codes";
@@ -17,17 +17,15 @@ import type { SessionUser } from "./session";
  * grower. Its content is its brown weight — the basis polishing runs share by.
  */
 export function registerHarvest(actor: SessionUser, input: HarvestInput, t: Translate, idempotencyKey: string | null = null): StoredResponse {
-  const hash = requestHash({ path: "harvests", input });
-  return getDb().transaction(
-    (tx) => {
-      const replayed = replay(tx, idempotencyKey, actor.id, hash);
-      if (replayed) return replayed;
-      const response = { status: 201, body: registerHarvestInTx(tx, actor, input, t) };
-      remember(tx, idempotencyKey, actor.id, hash, response);
-      return response;
-    },
-    { behavior: "immediate" },
-  );
+  // Only a request with an Idempotency-Key is remembered, so only its body is hashed.
+  const hash = idempotencyKey ? requestHash({ path: "harvests", input }) : "";
+  return writeTransaction((tx) => {
+    const replayed = replay(tx, idempotencyKey, actor.id, hash);
+    if (replayed) return replayed;
+    const response = { status: 201, body: registerHarvestInTx(tx, actor, input, t) };
+    remember(tx, idempotencyKey, actor.id, hash, response);
+    return response;
+  });
 }
 
 /** Registers one harvest lot inside a transaction the caller holds. */

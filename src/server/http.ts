@@ -1,6 +1,6 @@
 import "server-only";
 import { z } from "zod";
-import { pickLocale } from "@/i18n/locale";
+import { pickLocale, type Locale } from "@/i18n/locale";
 import { translator } from "@/i18n/messages";
 import { fieldErrorsFrom, type Translate } from "@/lib/validation/field-errors";
 import { clientAddress } from "./client-address";
@@ -26,9 +26,24 @@ export type ApiRequest = {
 export type JsonReply = { status: number; body: unknown };
 export const reply = (body: unknown, status = 200): JsonReply => ({ status, body });
 
+/** Translators by Accept-Language value: a site sees a handful, and every API request needs one. */
+const apiTranslators = new Map<string, Translate>();
+const byLocale = new Map<Locale, Translate>();
+const MAX_REMEMBERED_HEADERS = 100;
+
 export function translatorFor(request: Pick<ApiRequest, "headers">): Translate {
-  const t = translator(pickLocale(undefined, request.headers.get("accept-language")));
-  return (key, values) => t(key as never, values as never);
+  const header = request.headers.get("accept-language") ?? "";
+  let translate = apiTranslators.get(header);
+  if (translate) return translate;
+  const locale = pickLocale(undefined, header);
+  translate = byLocale.get(locale);
+  if (!translate) {
+    const t = translator(locale);
+    byLocale.set(locale, (translate = (key, values) => t(key as never, values as never)));
+  }
+  // Bounded: a client sending a new header each time must not grow the map.
+  if (apiTranslators.size < MAX_REMEMBERED_HEADERS) apiTranslators.set(header, translate);
+  return translate;
 }
 
 async function paramsOf(context?: NextContext): Promise<Record<string, string>> {
@@ -60,9 +75,7 @@ export type JsonRoute = ((request: Request, context?: NextContext) => Promise<Re
 /** `handle` for routes that answer JSON: Next calls it as a route handler, the fast path calls `run`. */
 export function jsonRoute(fn: (request: ApiRequest, ctx: RouteContext) => Promise<JsonReply>): JsonRoute {
   const run = async (request: ApiRequest, params: Record<string, string>): Promise<JsonReply> => {
-    // Built on first use: a request that succeeds needs no message.
-    let translate: Translate | undefined;
-    const t: Translate = (key, values) => (translate ??= translatorFor(request))(key, values);
+    const t = translatorFor(request);
     try {
       if (!["GET", "HEAD", "OPTIONS"].includes(request.method)) checkOrigin(request);
       return await fn(request, { params, t });

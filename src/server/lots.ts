@@ -45,6 +45,7 @@ function selectLots() {
 
 /** The API's Lot shape (../shared/api.md). */
 export function toApiLot(r: Row) {
+  const createdAt = r.createdAt.toISOString();
   return {
     code: r.code,
     kind: r.kind,
@@ -60,8 +61,8 @@ export function toApiLot(r: Row) {
     field: r.fieldId ? { id: r.fieldId, name: r.fieldName!, region: r.region! } : undefined,
     attributes: JSON.parse(r.attributes) as Record<string, unknown>,
     // For the floor's "days rested since polishing" (polished lots only).
-    polishedAt: r.kind === "polished" ? r.createdAt.toISOString() : undefined,
-    createdAt: r.createdAt.toISOString(),
+    polishedAt: r.kind === "polished" ? createdAt : undefined,
+    createdAt,
   };
 }
 export type ApiLot = ReturnType<typeof toApiLot>;

@@ -1,6 +1,6 @@
 import "server-only";
 import { DrizzleSQLiteAdapter } from "@lucia-auth/adapter-drizzle";
-import { eq, getTableColumns, sql } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import type { DatabaseSession, DatabaseUser } from "lucia";
 import type { Db } from "@/db/client";
 import { sessions, users } from "@/db/schema";
@@ -8,7 +8,8 @@ import { sessions, users } from "@/db/schema";
 /**
  * Lucia's Drizzle adapter, with the one lookup every signed-in request makes — session and
  * user by session id — built once as a prepared statement instead of on every request
- * (building a Drizzle query costs more than running it; `npm run bench:load`).
+ * (building a Drizzle query costs more than running it; `npm run bench:load`). It reads only
+ * the user attributes the session carries (src/server/auth.ts): never the password hash.
  */
 export class PreparedSessionAdapter extends DrizzleSQLiteAdapter {
   private readonly sessionAndUser;
@@ -16,7 +17,15 @@ export class PreparedSessionAdapter extends DrizzleSQLiteAdapter {
   constructor(db: Db) {
     super(db, sessions, users);
     this.sessionAndUser = db
-      .select({ session: sessions, user: getTableColumns(users) })
+      .select({
+        userId: sessions.userId,
+        expiresAt: sessions.expiresAt,
+        email: users.email,
+        name: users.name,
+        role: users.role,
+        partyId: users.partyId,
+        disabledAt: users.disabledAt,
+      })
       .from(sessions)
       .innerJoin(users, eq(users.id, sessions.userId))
       .where(eq(sessions.id, sql.placeholder("id")))
@@ -26,11 +35,10 @@ export class PreparedSessionAdapter extends DrizzleSQLiteAdapter {
   override async getSessionAndUser(sessionId: string): Promise<[DatabaseSession | null, DatabaseUser | null]> {
     const row = this.sessionAndUser.get({ id: sessionId });
     if (!row) return [null, null];
-    const { id, userId, expiresAt, ...sessionAttributes } = row.session;
-    const { id: uid, ...userAttributes } = row.user;
+    const { userId, expiresAt, ...userAttributes } = row;
     return [
-      { id, userId, expiresAt: new Date(expiresAt * 1000), attributes: sessionAttributes },
-      { id: uid, attributes: userAttributes },
+      { id: sessionId, userId, expiresAt: new Date(expiresAt * 1000), attributes: {} },
+      { id: userId, attributes: userAttributes },
     ];
   }
 }

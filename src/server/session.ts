@@ -23,7 +23,7 @@ async function validate(sessionId: string | null): Promise<Validated & { fresh?:
 }
 
 /** For route handlers: reads the session from the request's own Cookie header. */
-export async function sessionFromRequest(request: { headers: { get(name: string): string | null } }) {
+export function sessionFromRequest(request: { headers: { get(name: string): string | null } }) {
   let sessionId: string | null;
   try {
     sessionId = lucia().readSessionCookie(request.headers.get("cookie") ?? "");
