@@ -1,4 +1,5 @@
 import "server-only";
+import { parse as parseCookies } from "cookie";
 import { cookies, headers } from "next/headers";
 import { cache } from "react";
 import type { Session } from "lucia";
@@ -22,16 +23,14 @@ async function validate(sessionId: string | null): Promise<Validated & { fresh?:
   };
 }
 
-/** For route handlers: reads the session from the request's own Cookie header. */
+/**
+ * For route handlers: reads the session from the request's own Cookie header, with the
+ * `cookie` package's parser (several times faster than lucia's on every API request; a
+ * malformed escape is left as it came, and so matches no session).
+ */
 export function sessionFromRequest(request: { headers: { get(name: string): string | null } }) {
-  let sessionId: string | null;
-  try {
-    sessionId = lucia().readSessionCookie(request.headers.get("cookie") ?? "");
-  } catch {
-    // A malformed Cookie header (a stray "%") is no session, not a server error.
-    sessionId = null;
-  }
-  return validate(sessionId);
+  const header = request.headers.get("cookie");
+  return validate(header ? (parseCookies(header)[lucia().sessionCookieName] ?? null) : null);
 }
 
 export function isHttps(request: { url: string; headers: Headers }): boolean {
