@@ -5,6 +5,7 @@ import * as lotRoute from "../../app/api/lots/[code]/route";
 import { AppError } from "./errors";
 import { errorReply, type ApiRequest, type JsonReply, type JsonRoute } from "./http";
 import { SECURITY_HEADERS } from "./security-headers";
+import { inTurn } from "./turns";
 
 /** `params` decodes the route's parameters, as Next gives them; it throws on a malformed escape. */
 type FastRoute = { method: string; pattern: RegExp; route: JsonRoute; params: (match: RegExpExecArray) => Record<string, string> };
@@ -42,11 +43,13 @@ export function serveFast(req: IncomingMessage, res: ServerResponse): boolean {
       return false; // a malformed escape is Next's to answer
     }
     if (req.method !== "GET" && (req.headers["transfer-encoding"] !== undefined || !(Number(req.headers["content-length"] ?? 0) <= FAST_PATH_MAX_BODY))) return false;
-    respond(req, res, entry.route, params).catch((error: unknown) => {
-      // Only writing the reply itself can fail here; the socket is closed rather than left hanging.
-      console.error(error);
-      res.destroy();
-    });
+    inTurn(() =>
+      respond(req, res, entry.route, params).catch((error: unknown) => {
+        // Only writing the reply itself can fail here; the socket is closed rather than left hanging.
+        console.error(error);
+        res.destroy();
+      }),
+    );
     return true;
   }
   return false;
