@@ -10,9 +10,8 @@ import type { EventInput, NewOutput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
 import { insertInChunks } from "./batch";
 import { correctEvent } from "./corrections";
-import { writeTransaction } from "./db";
 import { AppError, forbidden, invalid, type FieldErrors } from "./errors";
-import { remember, replay, requestHash, type StoredResponse } from "./idempotency";
+import { createOnce, type StoredResponse } from "./idempotency";
 import { allocateLotCode } from "./lot-codes";
 import { checkFloorStep } from "./floor-steps";
 import { checkPolishingRun } from "./polishing-runs";
@@ -33,15 +32,7 @@ const EPS = 1e-6;
  * The same Idempotency-Key with the same body answers the first response again.
  */
 export function recordEvent(actor: SessionUser, input: EventInput, t: Translate, idempotencyKey: string | null = null): StoredResponse {
-  // Only a request with an Idempotency-Key is remembered, so only its body is hashed.
-  const hash = idempotencyKey ? requestHash({ path: "events", input }) : "";
-  return writeTransaction((tx) => {
-    const replayed = replay(tx, idempotencyKey, actor.id, hash);
-    if (replayed) return replayed;
-    const response = { status: 201, body: applyEvent(tx, actor, input, t) };
-    remember(tx, idempotencyKey, actor.id, hash, response);
-    return response;
-  });
+  return createOnce("events", input, actor.id, idempotencyKey, (tx) => applyEvent(tx, actor, input, t));
 }
 
 /** Records one event inside a transaction the caller holds (an import commits many at once). */

@@ -6,9 +6,8 @@ import { MAX_MOISTURE_PCT } from "@/domain/grades";
 import { can, canRecordOnField } from "@/domain/permissions";
 import type { HarvestInput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
-import { writeTransaction } from "./db";
 import { forbidden, invalid } from "./errors";
-import { remember, replay, requestHash, type StoredResponse } from "./idempotency";
+import { createOnce, type StoredResponse } from "./idempotency";
 import { allocateLotCode } from "./lot-codes";
 import type { SessionUser } from "./session";
 
@@ -17,15 +16,7 @@ import type { SessionUser } from "./session";
  * grower. Its content is its brown weight — the basis polishing runs share by.
  */
 export function registerHarvest(actor: SessionUser, input: HarvestInput, t: Translate, idempotencyKey: string | null = null): StoredResponse {
-  // Only a request with an Idempotency-Key is remembered, so only its body is hashed.
-  const hash = idempotencyKey ? requestHash({ path: "harvests", input }) : "";
-  return writeTransaction((tx) => {
-    const replayed = replay(tx, idempotencyKey, actor.id, hash);
-    if (replayed) return replayed;
-    const response = { status: 201, body: registerHarvestInTx(tx, actor, input, t) };
-    remember(tx, idempotencyKey, actor.id, hash, response);
-    return response;
-  });
+  return createOnce("harvests", input, actor.id, idempotencyKey, (tx) => registerHarvestInTx(tx, actor, input, t));
 }
 
 /** Registers one harvest lot inside a transaction the caller holds. */

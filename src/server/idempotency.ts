@@ -3,6 +3,7 @@ import { createHash } from "node:crypto";
 import { eq } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { idempotencyKeys } from "@/db/schema";
+import { writeTransaction } from "./db";
 import { AppError } from "./errors";
 
 export type StoredResponse = { status: number; body: unknown };
@@ -28,4 +29,20 @@ export function remember(tx: DbOrTx, key: string | null, userId: string, hash: s
   tx.insert(idempotencyKeys)
     .values({ key: `${userId}:${key}`, userId, requestHash: hash, status: response.status, response: JSON.stringify(response.body), createdAt: new Date() })
     .run();
+}
+
+/**
+ * A floor write that answers 201: `write` runs in one write transaction, once per
+ * Idempotency-Key. A retry with the same key and body gets the first answer again.
+ */
+export function createOnce(path: string, input: unknown, userId: string, key: string | null, write: (tx: DbOrTx) => unknown): StoredResponse {
+  // Only a request with an Idempotency-Key is remembered, so only its body is hashed.
+  const hash = key ? requestHash({ path, input }) : "";
+  return writeTransaction((tx) => {
+    const replayed = replay(tx, key, userId, hash);
+    if (replayed) return replayed;
+    const response = { status: 201, body: write(tx) };
+    remember(tx, key, userId, hash, response);
+    return response;
+  });
 }
