@@ -55,8 +55,13 @@ export function serveFast(req: IncomingMessage, res: ServerResponse): boolean {
   return false;
 }
 
-function readBody(req: IncomingMessage): Promise<Buffer> {
+/** The whole body; rejects if the client goes away first, even while the request waited its turn. */
+export function readBody(req: IncomingMessage): Promise<Buffer> {
   return new Promise((resolve, reject) => {
+    if (req.destroyed) return reject(new Error("the request was closed before its body was read"));
+    req.on("close", () => {
+      if (!req.readableEnded) reject(new Error("the request was closed before its body was read"));
+    });
     const chunks: Buffer[] = [];
     let size = 0;
     req.on("data", (chunk: Buffer) => {

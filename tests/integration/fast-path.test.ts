@@ -2,9 +2,11 @@
 // router (src/server/fast-path.ts). These tests hold it to the route handlers Next calls: the
 // same status and body for the same request, the same headers, and everything it should not
 // take left to Next.
+import http from "node:http";
+import net from "node:net";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getSqlite } from "@/server/db";
-import { FAST_PATH_MAX_BODY } from "@/server/fast-path";
+import { FAST_PATH_MAX_BODY, readBody } from "@/server/fast-path";
 import { SECURITY_HEADERS } from "@/server/security-headers";
 import { POST as eventsRoute } from "../../app/api/events/route";
 import { GET as lotRoute } from "../../app/api/lots/[code]/route";
@@ -136,5 +138,23 @@ describe("what the fast path leaves to Next", () => {
   it.each(left)("%s", async (_name, make, extra) => {
     const response = await fast.send(make(), extra);
     expect(response.status).toBe(LEFT_TO_NEXT);
+  });
+});
+
+describe("a request that waits its turn", () => {
+  it("is dropped, not left waiting, when its client goes away first", async () => {
+    const req = new http.IncomingMessage(new net.Socket());
+    req.destroy();
+    await expect(readBody(req)).rejects.toThrow(/closed before its body was read/);
+    const open = new http.IncomingMessage(new net.Socket());
+    const reading = readBody(open);
+    open.destroy();
+    await expect(reading).rejects.toThrow(/closed before its body was read/);
+  });
+
+  it("many requests at once are all answered, each as the route handler answers it", async () => {
+    const codes = Array.from({ length: 24 }, (_, i) => (i % 3 === 0 ? "P26-0001" : `NOPE-${i}`));
+    const answers = await Promise.all(codes.map((code) => fast.send(jsonRequest(`/api/lots/${code}`, { cookie: cookies.brewer }))));
+    expect(answers.map((r) => r.status)).toEqual(codes.map((code) => (code === "P26-0001" ? 200 : 404)));
   });
 });
