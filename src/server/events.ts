@@ -15,7 +15,7 @@ import { createOnce, type StoredResponse } from "./idempotency";
 import { allocateLotCode } from "./lot-codes";
 import { checkFloorStep } from "./floor-steps";
 import { checkPolishingRun } from "./polishing-runs";
-import { prepared } from "./prepared";
+import { placeholdersFor, prepared } from "./prepared";
 import { recordSupplierEntries } from "./supplier-entries";
 import type { SessionUser } from "./session";
 
@@ -170,7 +170,7 @@ function insertEvent(tx: DbOrTx, row: NewEvent): number {
   const statement = prepared(tx, "insert-event", (db) =>
     db
       .insert(events)
-      .values(Object.fromEntries(EVENT_FIELDS.map((f) => [f, sql.placeholder(f)])) as unknown as NewEvent)
+      .values(placeholdersFor<NewEvent>(EVENT_FIELDS))
       .returning({ id: events.id })
       .prepare(),
   );
@@ -184,7 +184,7 @@ function insertEventInput(tx: DbOrTx, row: NewEventInput) {
   prepared(tx, "insert-event-input", (db) =>
     db
       .insert(eventInputs)
-      .values(Object.fromEntries(INPUT_FIELDS.map((f) => [f, sql.placeholder(f)])) as unknown as NewEventInput)
+      .values(placeholdersFor<NewEventInput>(INPUT_FIELDS))
       .prepare(),
   ).run(row as Record<string, unknown>);
 }
@@ -343,7 +343,7 @@ function writeMeasurements(tx: DbOrTx, eventId: number, input: EventInput, held:
   const insert = prepared(tx, "insert-measurement", (db) =>
     db
       .insert(measurements)
-      .values({ eventId: sql.placeholder("eventId"), lotId: sql.placeholder("lotId"), name: sql.placeholder("name"), value: sql.placeholder("value"), unit: sql.placeholder("unit") } as unknown as typeof measurements.$inferInsert)
+      .values(placeholdersFor<typeof measurements.$inferInsert>(["eventId", "lotId", "name", "value", "unit"]))
       .prepare(),
   );
   for (const row of rows) insert.run(row);

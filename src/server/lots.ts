@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, desc, eq, gt, like, lt, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, gt, like, lt, or, sql, type Placeholder, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
 import { fields, lots, parties } from "@/db/schema";
 import { can } from "@/domain/permissions";
@@ -11,9 +11,9 @@ import type { SessionUser } from "./session";
 const holder = alias(parties, "holder");
 
 /** Which lots a user may see: everything for roles that read all records, else their own party's. */
-export function visibleTo(actor: SessionUser): SQL | undefined {
+export function visibleTo(actor: SessionUser, party: string | Placeholder = actor.partyId): SQL | undefined {
   if (can(actor, "records:read-all")) return undefined;
-  return or(eq(lots.partyId, actor.partyId), eq(lots.originPartyId, actor.partyId));
+  return or(eq(lots.partyId, party), eq(lots.originPartyId, party));
 }
 
 const lotColumns = {
@@ -76,7 +76,7 @@ function lotByCode(actor: SessionUser, code: string): Row | undefined {
       .from(lots)
       .innerJoin(holder, eq(holder.id, lots.partyId))
       .leftJoin(fields, eq(fields.id, lots.fieldId))
-      .where(and(eq(lots.code, sql.placeholder("code")), all ? undefined : or(eq(lots.partyId, sql.placeholder("party")), eq(lots.originPartyId, sql.placeholder("party")))))
+      .where(and(eq(lots.code, sql.placeholder("code")), visibleTo(actor, sql.placeholder("party"))))
       .prepare(),
   );
   return statement.get({ code, party: actor.partyId }) as Row | undefined;

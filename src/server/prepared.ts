@@ -1,5 +1,6 @@
 import "server-only";
 import type Database from "better-sqlite3";
+import { sql } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 
 const byConnection = new WeakMap<Database.Database, Map<string, unknown>>();
@@ -30,4 +31,12 @@ export function prepared<T>(db: DbOrTx, name: string, build: (db: DbOrTx) => T):
     statements.set(name, statement);
   }
   return statement;
+}
+
+/**
+ * `{ field: sql.placeholder("field") }` for each field: the values of a prepared insert, to be
+ * filled by name when it runs. Typed as the row it stands for, as Drizzle's `values` expects.
+ */
+export function placeholdersFor<Row>(fields: readonly (keyof Row & string)[]): Row {
+  return Object.fromEntries(fields.map((f) => [f, sql.placeholder(f)])) as Row;
 }
