@@ -8,17 +8,25 @@ import Database from "better-sqlite3";
 
 const { file, intervalMs } = workerData;
 const db = new Database(file, { fileMustExist: true });
+// The latest request for news of a pass (checkpointer.ts `nextPass`): each report names the
+// request seen before its pass began, so a caller never takes a report from an older pass.
+let asked = 0;
 
 const timer = setInterval(() => {
+  const seen = asked;
   try {
     const [result] = db.pragma("wal_checkpoint(PASSIVE)");
-    parentPort.postMessage({ checkpointed: result.checkpointed, log: result.log });
+    parentPort.postMessage({ checkpointed: result.checkpointed, log: result.log, asked: seen });
   } catch (error) {
     parentPort.postMessage({ error: String(error) });
   }
 }, intervalMs);
 
 parentPort.on("message", (message) => {
+  if (typeof message === "number") {
+    asked = message;
+    return;
+  }
   if (message !== "stop") return;
   clearInterval(timer);
   db.close();

@@ -11,7 +11,10 @@ import { Worker } from "node:worker_threads";
 export const WAL_BOUND_PAGES = 16_000;
 
 export type Checkpointer = {
-  /** Resolves after the worker's next pass (a test's way to wait for one). */
+  /**
+   * Resolves with the report of the first pass that began after this call (a test's way to
+   * wait for one); a report already queued from an earlier pass does not count.
+   */
   nextPass(): Promise<{ checkpointed: number; log: number }>;
   stop(): Promise<void>;
 };
@@ -29,18 +32,28 @@ export function startCheckpointer(sqlite: Database.Database, { intervalMs = 100,
   sqlite.pragma(`wal_autocheckpoint = ${boundPages}`);
   const worker = new Worker(new URL("./checkpoint-worker.mjs", import.meta.url), { workerData: { file: sqlite.name, intervalMs } });
   worker.unref();
-  let waiting: ((pass: { checkpointed: number; log: number }) => void)[] = [];
-  worker.on("message", (message: { checkpointed: number; log: number } | { error: string }) => {
+  type Pass = { checkpointed: number; log: number };
+  let waiting: { ask: number; resolve: (pass: Pass) => void }[] = [];
+  let asks = 0;
+  worker.on("message", (message: (Pass & { asked: number }) | { error: string }) => {
     if ("error" in message) {
       // A pass that failed (a disk error, say) is logged; the next pass, or the bound, retries.
       console.error(`checkpoint: ${message.error}`);
       return;
     }
-    for (const resolve of waiting.splice(0)) resolve(message);
+    const { checkpointed, log, asked } = message;
+    const answered = waiting.filter(({ ask }) => ask <= asked);
+    waiting = waiting.filter(({ ask }) => ask > asked);
+    for (const { resolve } of answered) resolve({ checkpointed, log });
   });
   worker.on("error", (error) => console.error("checkpoint worker:", error));
   return {
-    nextPass: () => new Promise((resolve) => waiting.push(resolve)),
+    nextPass: () =>
+      new Promise((resolve) => {
+        const ask = ++asks;
+        waiting.push({ ask, resolve });
+        worker.postMessage(ask);
+      }),
     async stop() {
       const exited = new Promise((resolve) => worker.once("exit", resolve));
       worker.postMessage("stop");

@@ -46,12 +46,16 @@ describe("background WAL checkpoints", () => {
     entry.checkpointer = startCheckpointer(sqlite, { intervalMs: 20 });
     await entry.checkpointer.nextPass();
     const before = size(file);
-    writePages(sqlite, 400);
+    writePages(sqlite, 200);
+    // The worker runs on its own thread: while this one is busy, its passes catch up with the
+    // first 200 pages and their reports queue here. Waiting must not take one of those.
+    const busyUntil = Date.now() + 100;
+    while (Date.now() < busyUntil);
+    writePages(sqlite, 200);
     // Far below the bound: the writing connection has not checkpointed anything itself.
     expect(400).toBeLessThan(WAL_BOUND_PAGES);
     let pass = await entry.checkpointer.nextPass();
     while (pass.checkpointed < pass.log) pass = await entry.checkpointer.nextPass();
-    expect(pass.log).toBeGreaterThanOrEqual(400);
     // The rows are in the database file itself now: it grew by at least the pages written.
     expect(size(file) - before).toBeGreaterThanOrEqual(400 * PAGE * 0.9);
   });
