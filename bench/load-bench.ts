@@ -13,7 +13,7 @@ import { copyFileSync, mkdirSync, rmSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import autocannon from "autocannon";
 import Database from "better-sqlite3";
-import { SERVE_ARGS } from "../src/cli/serve-command";
+import { buildIfNeeded, SERVE_ARGS } from "../src/cli/serve-command";
 
 const root = path.resolve(import.meta.dirname, "..");
 const dataDir = path.join(root, "bench/.data");
@@ -159,6 +159,7 @@ async function withServer<T>(args: string[], env: Record<string, string>, ready:
   }
 }
 
+buildIfNeeded();
 prepareDatabase();
 const base = `http://localhost:${PORT}`;
 const { cookie, statements } = await captureStatements();

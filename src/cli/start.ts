@@ -3,29 +3,19 @@
  * production build, then serve with src/cli/serve.ts (Next.js behind a fast path for the
  * floor's busiest API calls).
  */
-import { spawn, spawnSync } from "node:child_process";
-import { existsSync } from "node:fs";
-import path from "node:path";
+import { spawn } from "node:child_process";
 import { DEMO_PASSWORD, DEMO_USERS } from "../server/seed";
 import { prepareDatabase } from "./prepare-db";
-import { SERVE_ARGS } from "./serve-command";
+import { buildIfNeeded, SERVE_ARGS } from "./serve-command";
 
 const dbFile = process.env.GRAINLINE_DB || "data/grainline.db";
 const port = process.env.PORT || "3000";
 const seedMode = process.env.GRAINLINE_SEED || "demo";
-const nextBin = path.resolve("node_modules/next/dist/bin/next");
 const env = { ...process.env, NEXT_TELEMETRY_DISABLED: "1", GRAINLINE_DB: dbFile };
 
 async function prepare() {
   const seeded = await prepareDatabase(dbFile, seedMode === "demo");
   console.log(`Database ${dbFile}: migrated${seeded ? ", demo scenario seeded" : ""}.`);
-}
-
-function buildIfNeeded() {
-  if (existsSync(".next/BUILD_ID")) return;
-  console.log("No production build yet: running next build…");
-  const result = spawnSync(process.execPath, [nextBin, "build"], { stdio: "inherit", env });
-  if (result.status !== 0) process.exit(result.status ?? 1);
 }
 
 function serve() {
@@ -42,5 +32,5 @@ function serve() {
 }
 
 await prepare();
-buildIfNeeded();
+buildIfNeeded(env);
 serve();
