@@ -199,7 +199,7 @@ const ratios = (key: Key) => runs.app[key].map((r, i) => r.rps / runs.bare[key][
 const spread = (values: number[]) => (values.length > 1 ? `  (runs ${Math.min(...values).toFixed(2)}–${Math.max(...values).toFixed(2)})` : "");
 
 const cell = (r: Result) => `${r.rps.toFixed(0).padStart(6)} req/s  p99 ${r.p99.toFixed(1).padStart(6)} ms${r.non2xx ? `  (non-2xx ${r.non2xx})` : ""}`;
-const p99s = (r: Result[]) => (r.length > 1 ? `  p99 of each run ${r.map((x) => x.p99.toFixed(0)).join(", ")} ms` : "");
+const p99s = (r: Result[]) => (r.length > 1 ? `  each run ${r.map((x) => `${x.rps.toFixed(0)}/s ${x.p99.toFixed(0)} ms`).join(", ")}` : "");
 const row = (name: string, key: Key) => {
   const [bare, app, nextOnly] = (["bare", "app", "nextOnly"] as const).map((n) => summary(runs[n][key])) as [Result, Result, Result];
   return [
