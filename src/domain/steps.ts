@@ -1,4 +1,5 @@
 import type { Permission } from "./permissions";
+import type { PartyKind } from "./roles";
 
 export const LOT_KIND_LIST = ["harvest", "polished", "bran", "soaked", "steamed", "koji", "starter", "tank", "sake", "lees", "blend", "bottled"] as const;
 export type LotKind = (typeof LOT_KIND_LIST)[number];
@@ -73,6 +74,20 @@ export const STEP_RULES = {
 } as const satisfies Record<string, StepRule>;
 
 export type RecordableStep = keyof typeof STEP_RULES;
+
+/**
+ * What a party of each kind takes in by a receipt: the lots that travel to it from another party
+ * (common practice). A mill takes in brown rice to polish; a brewery brown or polished rice, and
+ * sake bought in bulk from another brewery. Lots in process (soaked and steamed rice, koji,
+ * starter, a tank's mash) never leave the brewery that made them, and growers and buyers record
+ * no receipts. A lot the receiver cannot see yet, of a kind outside this list, is unknown to it.
+ */
+export const RECEIVABLE_KINDS: Record<PartyKind, readonly LotKind[]> = {
+  mill: ["harvest"],
+  brewery: ["harvest", "polished", "sake"],
+  grower: [],
+  buyer: [],
+};
 
 /** The steps `POST /api/events` takes (../shared/api.md): every rule above, and corrections. */
 export const API_STEPS = [

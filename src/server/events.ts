@@ -5,7 +5,7 @@ import { eventInputs, eventOutputs, events, lineageEdges, lotSourceDeltas, lots,
 import { carryContent, contentOfDraw, edgesOf, propagateComposition, type SourceAmounts } from "@/domain/composition";
 import { lowestGrade, type Grade } from "@/domain/grades";
 import { can, canActOnLot, canSeeLot, type Permission } from "@/domain/permissions";
-import { STEP_RULES, UNIT_OF_KIND, type LotKind, type RecordableStep } from "@/domain/steps";
+import { RECEIVABLE_KINDS, STEP_RULES, UNIT_OF_KIND, type LotKind, type RecordableStep } from "@/domain/steps";
 import type { EventInput, NewOutput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
 import { insertInChunks } from "./batch";
@@ -63,13 +63,17 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
 
   // A transformation draws something from every input; 0 kg is a typing slip, refused up front.
   if (rule.content !== "none") input.inputs.forEach((i, n) => i.quantity > 0 || fail(`inputs.${n}.quantity`, t("validation.tooSmall", { minimum: 0 })));
+  const eventParty = resolveEventParty(tx, actor, input, t);
+  // A receipt names the sender's lots (the bags in hand), of the kinds that come to its receiver.
+  const inputKinds: readonly LotKind[] | "any" = step === "receiving" ? RECEIVABLE_KINDS[partyKind(tx, eventParty)] : rule.inputKinds;
   // A lot this user cannot see answers as unknown, as GET /api/lots/{code} does: no one learns
-  // from a refusal that a code exists. A receipt names the sender's lots (the bags in hand).
-  const known = (lot: LotRow | undefined) => (lot && (step === "receiving" || canSeeLot(actor, lot)) ? lot : undefined);
+  // from a refusal that a code exists. A receipt may name a lot not seen yet, if it may come here.
+  const known = (lot: LotRow | undefined) =>
+    lot && (canSeeLot(actor, lot) || (step === "receiving" && inputKinds !== "any" && inputKinds.includes(lot.kind))) ? lot : undefined;
   const inLots = input.inputs.map((i, n) => {
     const lot = known(lotByCode(tx, i.lot));
     if (!lot) fail(`inputs.${n}.lot`, t("validation.unknownLot"));
-    else if (rule.inputKinds !== "any" && !(rule.inputKinds as readonly string[]).includes(lot.kind)) {
+    else if (inputKinds !== "any" && !inputKinds.includes(lot.kind)) {
       fail(`inputs.${n}.lot`, t("validation.kindNotAllowed", { step, kind: lot.kind }));
     }
     return lot;
@@ -97,7 +101,6 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
   if (Object.keys(errors).length) throw invalid(errors);
   const held = inLots as LotRow[];
 
-  const eventParty = resolveEventParty(tx, actor, input, t);
   const counterparty = resolveCounterparty(tx, step, input, held, t);
   const moves = step === "receiving" || (step === "shipping" && counterparty?.kind !== "buyer");
   const observes = step === "measuring";
@@ -195,6 +198,10 @@ function resolveEventParty(tx: DbOrTx, actor: SessionUser, input: EventInput, t:
   if (!can(actor, "lots:act-any")) throw forbidden("You record events only for your own party.");
   if (!tx.select({ id: parties.id }).from(parties).where(eq(parties.id, input.partyId)).get()) throw invalid({ partyId: [t("validation.unknownParty")] });
   return input.partyId;
+}
+
+function partyKind(tx: DbOrTx, partyId: string) {
+  return tx.select({ kind: parties.kind }).from(parties).where(eq(parties.id, partyId)).get()!.kind;
 }
 
 function resolveCounterparty(tx: DbOrTx, step: RecordableStep, input: EventInput, held: LotRow[], t: Translate) {

@@ -246,3 +246,46 @@ describe("a lot someone cannot see is unknown to them, not forbidden", () => {
     expect(res.status).toBe(201);
   });
 });
+
+describe("a receipt takes only what travels to its receiver (src/domain/steps.ts RECEIVABLE_KINDS)", () => {
+  /** A lot of this kind the brewery holds and has stock of; `madeBy` filters on who made it. */
+  const brewery = (kind: string, madeBy = "%") =>
+    getSqlite()
+      .prepare("select code, on_hand as onHand from lots where kind = ? and party_id = 'brewery-kirinoha' and origin_party_id like ? and on_hand > 0 order by id limit 1")
+      .get(kind, madeBy) as { code: string; onHand: number };
+
+  it("the mill naming a brewery lot it cannot see is told 'unknown', as for a missing code, and takes nothing", async () => {
+    // The demo brewery has stock of these kinds, made in its own house; none ever goes to a mill.
+    const kinds = getSqlite().prepare("select distinct kind from lots where party_id = 'brewery-kirinoha' and origin_party_id = party_id and on_hand > 0 order by kind").pluck().all() as string[];
+    expect(kinds).toEqual(expect.arrayContaining(["bottled", "lees", "sake"]));
+    for (const kind of kinds) {
+      const theirs = brewery(kind, "brewery-kirinoha");
+      const before = await tableDigests();
+      const taken = await event(miller, { step: "receiving", inputs: [{ lot: theirs.code, quantity: theirs.onHand }] });
+      const missing = await event(miller, { step: "receiving", inputs: [{ lot: "BT26-9999", quantity: theirs.onHand }] });
+      expect(taken.status, kind).toBe(422);
+      expect(taken.body, kind).toEqual(missing.body);
+      expect(await tableDigests(), kind).toEqual(before);
+    }
+  });
+
+  it("a lot the receiver can see but does not take in is refused by its kind: polished rice back at the mill", async () => {
+    // The mill made it and still sees it; the office sees every lot and records for the mill.
+    const polished = brewery("polished", "mill-shirotae");
+    const before = await tableDigests();
+    for (const [cookie, partyId] of [[miller, undefined], [admin, "mill-shirotae"]] as const) {
+      const res = await event(cookie, { step: "receiving", partyId, inputs: [{ lot: polished.code, quantity: polished.onHand }] });
+      expect(res.status).toBe(422);
+      expect(res.body.error.fields["inputs.0.lot"]).toEqual(["A receiving step cannot use a lot of kind polished."]);
+    }
+    expect(await tableDigests()).toEqual(before);
+  });
+
+  it("the mill takes in brown rice the brewery bought, to polish it for the brewery", async () => {
+    const code = (await harvest(admin, { brownKg: 180 })).body.code as string;
+    expect((await event(admin, { step: "receiving", partyId: "brewery-kirinoha", inputs: [{ lot: code, quantity: 180 }] })).status).toBe(201);
+    const res = await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 180 }], counterpartyId: "brewery-kirinoha" });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect((await lot(admin, code)).party.id).toBe("mill-shirotae");
+  });
+});
