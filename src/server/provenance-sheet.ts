@@ -1,15 +1,18 @@
 import "server-only";
 import { PDFDocument, StandardFonts, rgb } from "pdf-lib";
+import type { Translate } from "@/lib/validation/field-errors";
 import type { Provenance } from "./provenance";
 
-const pct = (v: number) => `${Math.round(v * 1000) / 10} %`;
 // The PDF standard fonts cover WinAnsi only; anything else is written as "?" rather than failing.
 const ascii = (s: string) => s.replace(/[^\x20-\x7e]/g, "?");
 
-/** A one-page A4 provenance sheet for buyers, from the same answer the screen shows. */
-export async function provenanceSheetPdf(p: Provenance, brewery: string, caution: string): Promise<Uint8Array> {
+/** A one-page A4 provenance sheet for buyers, from the same answer the screen shows, in the catalogue's words. */
+export async function provenanceSheetPdf(p: Provenance, brewery: string, t: Translate): Promise<Uint8Array> {
+  const title = t("provenance.sheetTitle", { code: p.lot.code });
+  const share = (name: string, value: number) => t("provenance.share", { name, share: Math.round(value * 1000) / 10 });
+  const percent = (value: number) => t("provenance.percent", { value });
   const pdf = await PDFDocument.create();
-  pdf.setTitle(`Provenance of ${p.lot.code}`);
+  pdf.setTitle(ascii(title));
   pdf.setCreator("Grainline");
   const page = pdf.addPage([595.28, 841.89]);
   const regular = await pdf.embedFont(StandardFonts.Helvetica);
@@ -30,21 +33,21 @@ export async function provenanceSheetPdf(p: Provenance, brewery: string, caution
     page.drawText(row, { x: 210, y, size: 11, font: regular });
     y -= 24;
   };
-  page.drawText(ascii(`Provenance of ${p.lot.code}`), { x: 56, y, size: 20, font: bold, color: cedar });
+  page.drawText(ascii(title), { x: 56, y, size: 20, font: bold, color: cedar });
   y -= 22;
   page.drawText(ascii(brewery), { x: 56, y, size: 11, font: regular });
   y -= 36;
-  line("Varieties", p.varieties.map((v) => `${v.name} ${pct(v.share)}`).join(", "));
-  if (p.cropYears.length) line("Crop year", p.cropYears.join(", "));
-  line("Rice origin", p.originStatement || "-");
-  line("Growers", p.growers.map((g) => `${g.name ?? "growers not named at their request"} ${pct(g.share)}`).join(", "));
-  if (p.polishingRatiosPct.length) line("Polishing ratio", p.polishingRatiosPct.map((r) => `${r} %`).join(", "));
-  if (p.kojiRatioPct !== null) line("Koji rice", `${Math.round(p.kojiRatioPct * 10) / 10} % of the rice (dry basis)`);
-  if (p.lot.kind !== "harvest") line("Premium categories", p.categories.length ? p.categories.join(", ") : "none");
-  if (p.brewedOn.length) line("Brewed", p.brewedOn.map((d) => d.slice(0, 10)).join(", "));
-  if (p.pressedOn.length) line("Pressed", p.pressedOn.map((d) => d.slice(0, 10)).join(", "));
-  if (p.bottledOn.length) line("Bottled", p.bottledOn.map((d) => d.slice(0, 10)).join(", "));
+  line(t("provenance.varieties"), p.varieties.map((v) => share(v.name, v.share)).join(", "));
+  if (p.cropYears.length) line(t("provenance.cropYears"), p.cropYears.join(", "));
+  line(t("provenance.origin"), p.originStatement || "-");
+  line(t("provenance.growers"), p.growers.map((g) => share(g.name ?? t("provenance.unnamedGrower"), g.share)).join(", "));
+  if (p.polishingRatiosPct.length) line(t("provenance.polishingRatio"), p.polishingRatiosPct.map(percent).join(", "));
+  if (p.kojiRatioPct !== null) line(t("provenance.kojiRatio"), t("provenance.kojiRatioValue", { value: Math.round(p.kojiRatioPct * 10) / 10 }));
+  if (p.lot.kind !== "harvest") line(t("provenance.categories"), p.categories.length ? p.categories.join(", ") : t("provenance.noCategory"));
+  if (p.brewedOn.length) line(t("provenance.brewedOn"), p.brewedOn.map((d) => d.slice(0, 10)).join(", "));
+  if (p.pressedOn.length) line(t("provenance.pressedOn"), p.pressedOn.map((d) => d.slice(0, 10)).join(", "));
+  if (p.bottledOn.length) line(t("provenance.bottledOn"), p.bottledOn.map((d) => d.slice(0, 10)).join(", "));
   y -= 10;
-  line("Note", caution);
+  line(t("provenance.note"), t("caution.records"));
   return pdf.save();
 }
