@@ -29,12 +29,12 @@ export type AttachmentItem = {
 
 function visibleLot(actor: SessionUser, code: string) {
   const lot = getDb().select({ id: lots.id, partyId: lots.partyId, originPartyId: lots.originPartyId }).from(lots).where(and(eq(lots.code, code), visibleTo(actor))).get();
-  if (!lot) throw notFound(`Lot ${code}`);
+  if (!lot) throw notFound({ key: "errors.lotNotFound", values: { code } });
   return lot;
 }
 
 /** 413 (RFC 9110 §15.5.14) in the API's error shape. */
-const uploadTooLarge = () => new AppError("too_large", `The file is larger than ${MAX_ATTACHMENT_BYTES / (1024 * 1024)} MB.`);
+const uploadTooLarge = () => new AppError("too_large", { key: "errors.fileTooLarge", values: { megabytes: MAX_ATTACHMENT_BYTES / (1024 * 1024) } });
 
 // Room for the multipart boundaries, headers, title and event id around the file itself.
 const FORM_OVERHEAD_BYTES = 64 * 1024;
@@ -170,7 +170,7 @@ export async function addAttachment(actor: SessionUser, code: string, request: R
 /** A lot's attachments, newest first; 404 for a lot the user may not see. */
 export function listAttachments(actor: SessionUser, code: string): AttachmentItem[] {
   const lotId = findLotId(actor, code);
-  if (lotId === null) throw notFound(`Lot ${code}`);
+  if (lotId === null) throw notFound({ key: "errors.lotNotFound", values: { code } });
   return getDb()
     .select({ a: attachments, userName: users.name })
     .from(attachments)
@@ -206,6 +206,6 @@ export async function readAttachment(actor: SessionUser, id: number) {
     .innerJoin(lots, eq(lots.id, attachments.lotId))
     .where(and(eq(attachments.id, id), visibleTo(actor)))
     .get();
-  if (!row) throw notFound("Attachment");
+  if (!row) throw notFound("errors.attachmentNotFound");
   return { ...row, bytes: await readFile(blobPath(row.sha256)) };
 }

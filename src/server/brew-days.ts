@@ -85,7 +85,7 @@ const measured = (e: LotEvent, name: string) => e.measurements.find((m) => m.nam
  */
 export function brewDaySummary(actor: SessionUser, date: string) {
   requireRecords(actor);
-  if (!isCalendarDate(date)) throw notFound(`Brew day ${date}`);
+  if (!isCalendarDate(date)) throw notFound({ key: "errors.brewDayNotFound", values: { date } });
   const { start, end } = tokyoDayRange(date);
   const db = getDb();
   const ids = db

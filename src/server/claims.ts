@@ -60,7 +60,7 @@ export function claimsFor(actor: SessionUser, code: string, t: Translate) {
 
 /** The same, for a lot already found (the public bottle page has no signed-in actor). */
 export function claimsForLot(lot: { id: number; code: string; kind: string }, t: Translate) {
-  if (!CLAIMABLE.includes(lot.kind)) throw invalid({ code: [t("validation.notClaimable")] }, "Claims apply to tanks, sake, blends and bottlings.");
+  if (!CLAIMABLE.includes(lot.kind)) throw invalid({ code: [t("validation.notClaimable")] }, "errors.notClaimable");
   const tanks = ancestorsOfKind(lot.id, "tank").map((tank) => ({ code: tank.code, facts: tankFacts(tank) }));
   const verdicts = tanks.map((x) => assessCategories(x.facts));
   const categories: CategoryVerdict[] = (verdicts[0] ?? assessCategories(emptyFacts)).map((v, n) => {

@@ -26,9 +26,9 @@ export function correctEvent(tx: DbOrTx, actor: SessionUser, input: EventInput, 
 
   const original = tx.select().from(events).where(eq(events.id, input.corrects!)).get();
   if (!original || original.step === "correcting") throw invalid({ corrects: [t("validation.cannotCorrect")] });
-  if (!canCorrect(actor, original)) throw forbidden("Only the office or the person who recorded it may correct this event.");
+  if (!canCorrect(actor, original)) throw forbidden("errors.notYourEvent");
   if (tx.select({ id: events.id }).from(events).where(eq(events.corrects, original.id)).get()) {
-    throw new AppError("conflict", "This event has already been corrected.", { corrects: [t("validation.alreadyCorrected")] });
+    throw new AppError("conflict", "errors.alreadyCorrected", { corrects: [t("validation.alreadyCorrected")] });
   }
 
   const id = tx
@@ -74,7 +74,7 @@ function takeBackOutputs(tx: DbOrTx, correctionId: number, originalId: number) {
       .run().changes;
     if (changed === 0) {
       const lot = tx.select({ code: lots.code }).from(lots).where(eq(lots.id, out.lotId)).get()!;
-      throw new AppError("conflict", `Lot ${lot.code} has already been used by later events; correct those first.`);
+      throw new AppError("conflict", { key: "errors.usedSince", values: { code: lot.code } });
     }
     tx.insert(eventInputs).values({ eventId: correctionId, lotId: out.lotId, quantity: out.quantity, content: out.content, use: "draw" }).run();
   }
@@ -89,7 +89,7 @@ function returnInputs(tx: DbOrTx, correctionId: number, original: typeof events.
       tx.insert(eventOutputs).values({ eventId: correctionId, lotId: input.lotId, quantity: input.quantity, content: input.content }).run();
     } else if (input.use === "move" && input.previousPartyId) {
       const lot = tx.select().from(lots).where(eq(lots.id, input.lotId)).get()!;
-      if (lot.partyId !== destination) throw new AppError("conflict", `Lot ${lot.code} has moved on since; correct the later move first.`);
+      if (lot.partyId !== destination) throw new AppError("conflict", { key: "errors.movedSince", values: { code: lot.code } });
       tx.insert(eventInputs).values({ eventId: correctionId, lotId: lot.id, quantity: lot.onHand, content: 0, use: "move", previousPartyId: lot.partyId }).run();
       tx.update(lots).set({ partyId: input.previousPartyId }).where(eq(lots.id, lot.id)).run();
     }

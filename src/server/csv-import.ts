@@ -176,7 +176,7 @@ const COLUMN_OF: Record<ImportKind, Record<string, string>> = {
 function problemOf(error: unknown, kind: ImportKind, t: Translate): { code: ErrorCode; fields: FieldErrors } {
   const rename = (f: FieldErrors) => Object.fromEntries(Object.entries(f).map(([k, v]) => [COLUMN_OF[kind][k] ?? k, v]));
   if (error instanceof z.ZodError) return { code: "invalid", fields: rename(cellErrors(error, t)) };
-  if (error instanceof AppError) return { code: error.code, fields: rename(error.fields ?? { _: [error.message] }) };
+  if (error instanceof AppError) return { code: error.code, fields: rename(error.fields ?? { _: [error.say(t)] }) };
   throw error;
 }
 

@@ -1,3 +1,6 @@
+import { translator } from "@/i18n/messages";
+import type { Translate } from "@/lib/validation/field-errors";
+
 /** The one application error. Its code decides the HTTP status, in one place. */
 export type ErrorCode =
   | "unauthenticated"
@@ -20,23 +23,42 @@ export const STATUS_FOR_CODE: Record<ErrorCode, number> = {
 
 export type FieldErrors = Record<string, string[]>;
 
+/**
+ * How an error is worded: a key of the message catalogue (src/i18n/messages) and its values.
+ * The answer to a request says it in the reader's language; `message` keeps the English for logs.
+ */
+export type ErrorMessage = { key: string; values?: Record<string, string | number> };
+
+const english = translator("en");
+const inEnglish: Translate = (key, values) => english(key as never, values as never);
+
 export class AppError extends Error {
+  readonly key: string;
+  readonly values?: Record<string, string | number>;
+
   constructor(
     readonly code: ErrorCode,
-    message: string,
+    message: string | ErrorMessage = `errors.${code}`,
     readonly fields?: FieldErrors,
   ) {
-    super(message);
+    const { key, values } = typeof message === "string" ? { key: message, values: undefined } : message;
+    super(inEnglish(key, values));
     this.name = "AppError";
+    this.key = key;
+    this.values = values;
   }
 
   get status() {
     return STATUS_FOR_CODE[this.code];
   }
+
+  /** The message in the language of `t`. */
+  say(t: Translate): string {
+    return t(this.key, this.values);
+  }
 }
 
-export const unauthenticated = () => new AppError("unauthenticated", "Sign in to continue.");
-export const forbidden = (message = "Your role does not allow this.") => new AppError("forbidden", message);
-export const notFound = (what = "That record") => new AppError("not_found", `${what} was not found.`);
-export const invalid = (fields: FieldErrors, message = "Some fields need correcting.") =>
-  new AppError("invalid", message, fields);
+export const unauthenticated = () => new AppError("unauthenticated");
+export const forbidden = (message: string | ErrorMessage = "errors.forbidden") => new AppError("forbidden", message);
+export const notFound = (message: string | ErrorMessage = "errors.not_found") => new AppError("not_found", message);
+export const invalid = (fields: FieldErrors, message: string | ErrorMessage = "errors.invalid") => new AppError("invalid", message, fields);

@@ -109,12 +109,12 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
   // A receipt is of lots the sender holds, taken in by the recording party.
   for (const lot of held) {
     if (step === "receiving") {
-      if (lot.partyId !== counterparty!.id || lot.partyId === eventParty) throw new AppError("conflict", `Lot ${lot.code} is not held by the sender.`);
+      if (lot.partyId !== counterparty!.id || lot.partyId === eventParty) throw new AppError("conflict", { key: "errors.notHeldBySender", values: { code: lot.code } });
     } else if (!canActOnLot(actor, lot) && !(observes && lot.originPartyId === actor.partyId)) {
-      throw forbidden("This lot is not held by your party.");
+      throw forbidden("errors.notYourLot");
     }
   }
-  for (const o of outs) if (o.existing && !canActOnLot(actor, o.existing)) throw forbidden("This lot is not held by your party.");
+  for (const o of outs) if (o.existing && !canActOnLot(actor, o.existing)) throw forbidden("errors.notYourLot");
 
   const warnings: string[] = [];
   const polishing = step === "polishing" ? checkPolishingRun(tx, input, held, outs, t) : null;
@@ -195,7 +195,7 @@ function insertEventInput(tx: DbOrTx, row: NewEventInput) {
 function resolveEventParty(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Translate): string {
   if (!input.partyId || input.partyId === actor.partyId) return actor.partyId;
   // Only the office records on another party's behalf (e.g. a receipt at the mill).
-  if (!can(actor, "lots:act-any")) throw forbidden("You record events only for your own party.");
+  if (!can(actor, "lots:act-any")) throw forbidden("errors.notYourParty");
   if (!tx.select({ id: parties.id }).from(parties).where(eq(parties.id, input.partyId)).get()) throw invalid({ partyId: [t("validation.unknownParty")] });
   return input.partyId;
 }
@@ -232,7 +232,7 @@ function drawFromOnHand(tx: DbOrTx, draws: { lot: LotRow; quantity: number; use:
       .run().changes;
     if (changed === 0) {
       const onHand = tx.select({ onHand: lots.onHand }).from(lots).where(eq(lots.id, lot.id)).get()!.onHand;
-      throw new AppError("conflict", `Lot ${lot.code} has only ${onHand} ${lot.unit} on hand.`, {
+      throw new AppError("conflict", { key: "errors.overdraw", values: { code: lot.code, onHand: String(onHand), unit: lot.unit } }, {
         [`inputs.${index}.quantity`]: [t("validation.overdraw", { onHand, unit: lot.unit })],
       });
     }

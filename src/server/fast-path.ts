@@ -3,7 +3,7 @@ import type { IncomingMessage, ServerResponse } from "node:http";
 import * as eventsRoute from "../../app/api/events/route";
 import * as lotRoute from "../../app/api/lots/[code]/route";
 import { AppError } from "./errors";
-import { errorReply, type ApiRequest, type JsonReply, type JsonRoute } from "./http";
+import { errorReply, translatorFor, type ApiRequest, type JsonReply, type JsonRoute } from "./http";
 import { SECURITY_HEADERS } from "./security-headers";
 import { inTurn } from "./turns";
 
@@ -116,7 +116,7 @@ async function respond(req: IncomingMessage, res: ServerResponse, route: JsonRou
   } catch (error) {
     if (req.destroyed) return;
     // `run` answers its own errors; this is a body that could not be read at all.
-    result = errorReply(new AppError("invalid", "The request could not be read."), (key) => key);
+    result = errorReply(new AppError("invalid", "errors.unreadable"), translatorFor(new NodeApiRequest(req, null)));
     console.error(error);
   }
   const payload = JSON.stringify(result.body);

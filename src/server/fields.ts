@@ -33,7 +33,7 @@ export function createField(actor: SessionUser, input: FieldInput, t: Translate)
   // A grower may leave growerId out; naming another grower is refused, not silently changed.
   const growerId = input.growerId ?? (can(actor, "fields:write-any") ? undefined : actor.partyId);
   if (!growerId) throw invalid({ growerId: [t("validation.required")] });
-  if (!canRecordOnField(actor, { growerId })) throw forbidden("You can register fields only for your own farm.");
+  if (!canRecordOnField(actor, { growerId })) throw forbidden("errors.notYourFarm");
   const id = generateIdFromEntropySize(10);
   getDb().transaction((tx) => {
     const grower = tx.select({ kind: parties.kind }).from(parties).where(eq(parties.id, growerId)).get();

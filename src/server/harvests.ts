@@ -26,7 +26,7 @@ export function registerHarvestInTx(tx: DbOrTx, actor: SessionUser, input: Harve
   if (input.moisturePct > MAX_MOISTURE_PCT && input.grade !== "out-of-grade") throw invalid({ grade: [t("validation.moistureTooHigh")] });
   const field = tx.select().from(fields).where(eq(fields.id, input.fieldId)).get();
   if (!field) throw invalid({ fieldId: [t("validation.unknownField")] });
-  if (!canRecordOnField(actor, field)) throw forbidden("You can record harvests only on your own fields.");
+  if (!canRecordOnField(actor, field)) throw forbidden("errors.notYourField");
   const at = input.at ? new Date(input.at) : new Date();
   const eventId = tx
     .insert(events)

@@ -98,10 +98,10 @@ export function errorResponse(error: unknown, t: Translate): Response {
 export function errorReply(error: unknown, t: Translate): JsonReply {
   if (error instanceof z.ZodError) error = invalid(fieldErrorsFrom(error, t));
   if (error instanceof AppError) {
-    return reply({ error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) } }, error.status);
+    return reply({ error: { code: error.code, message: error.say(t), ...(error.fields ? { fields: error.fields } : {}) } }, error.status);
   }
   console.error(error);
-  return reply({ error: { code: "internal", message: "Something went wrong on our side." } }, 500);
+  return reply({ error: { code: "internal", message: t("errors.internal") } }, 500);
 }
 
 /**
@@ -116,13 +116,13 @@ export function checkOrigin(request: Pick<ApiRequest, "headers" | "url">): void 
     try {
       originHost = new URL(origin).host;
     } catch {
-      throw forbidden("The request's origin does not match this site.");
+      throw forbidden("errors.crossOrigin");
     }
-    if (originHost !== host) throw forbidden("The request's origin does not match this site.");
+    if (originHost !== host) throw forbidden("errors.crossOrigin");
     return;
   }
   const site = request.headers.get("sec-fetch-site");
-  if (site && site !== "same-origin" && site !== "none") throw forbidden("The request's origin does not match this site.");
+  if (site && site !== "same-origin" && site !== "none") throw forbidden("errors.crossOrigin");
 }
 
 /** Parses a JSON body with a zod schema; malformed JSON and wrong shapes are both 422. */
@@ -131,7 +131,7 @@ export async function readJson<S extends z.ZodType>(request: Pick<ApiRequest, "j
   try {
     body = await request.json();
   } catch {
-    throw invalid({ _: [t("validation.malformedJson")] }, "The request body is not valid JSON.");
+    throw invalid({ _: [t("validation.malformedJson")] }, "errors.malformedJson");
   }
   const parsed = schema.safeParse(body);
   if (!parsed.success) throw invalid(fieldErrorsFrom(parsed.error, t));

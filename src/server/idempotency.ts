@@ -20,7 +20,7 @@ export function replay(tx: DbOrTx, key: string | null, userId: string, hash: str
   if (!key) return null;
   const row = tx.select().from(idempotencyKeys).where(eq(idempotencyKeys.key, `${userId}:${key}`)).get();
   if (!row) return null;
-  if (row.requestHash !== hash) throw new AppError("conflict", "This Idempotency-Key was already used for a different request.");
+  if (row.requestHash !== hash) throw new AppError("conflict", "errors.idempotencyKeyReused");
   return { status: row.status, body: JSON.parse(row.response) };
 }
 

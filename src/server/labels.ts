@@ -46,7 +46,7 @@ export function parseLabelLayout(raw: string | string[] | undefined): LabelLayou
  */
 export async function renderLabelPng(actor: SessionUser, code: string, origin: string): Promise<Buffer> {
   const lot = findLot(actor, code);
-  if (!lot) throw notFound(`Lot ${code}`);
+  if (!lot) throw notFound({ key: "errors.lotNotFound", values: { code } });
   const url = labelUrl(origin, lot);
   const level = pickErrorCorrection(url, QR_WIDTH_MM.sheet);
   return QRCode.toBuffer(url, {

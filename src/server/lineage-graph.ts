@@ -105,7 +105,7 @@ function toNode(row: LotRow, id: string): LineageNode {
  */
 export function lineageGraph(actor: SessionUser, code: string, { maxNodes = 400 }: { maxNodes?: number } = {}): LineageGraph {
   const rootId = findLotId(actor, code);
-  if (rootId === null) throw notFound(`Lot ${code}`);
+  if (rootId === null) throw notFound({ key: "errors.lotNotFound", values: { code } });
   const { ids, truncated } = pickIds(rootId, reach(rootId, maxNodes + 1), maxNodes);
   const rows = lotRows(actor, ids);
   const hidden = new Map(rows.filter((r) => !r.visible).map((r, n) => [r.id, `hidden-${n + 1}`]));

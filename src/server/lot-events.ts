@@ -12,7 +12,7 @@ const counterparty = alias(parties, "counterparty");
 /** Every event that drew from, added to, moved or measured a lot, oldest first, with its corrections. */
 export function listLotEvents(actor: SessionUser, code: string) {
   const lotId = findLotId(actor, code);
-  if (lotId === null) throw notFound(`Lot ${code}`);
+  if (lotId === null) throw notFound({ key: "errors.lotNotFound", values: { code } });
   const db = getDb();
   const touching = db
     .select({ id: eventInputs.eventId })

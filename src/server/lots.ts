@@ -84,7 +84,7 @@ function lotByCode(actor: SessionUser, code: string): Row | undefined {
 
 export function getLot(actor: SessionUser, code: string): ApiLot {
   const row = lotByCode(actor, code);
-  if (!row) throw notFound(`Lot ${code}`);
+  if (!row) throw notFound({ key: "errors.lotNotFound", values: { code } });
   return toApiLot(row);
 }
 

@@ -34,7 +34,7 @@ export function updateParty(actor: SessionUser, id: string, input: PartyInput) {
   if (!canManageParties(actor)) throw forbidden();
   getDb().transaction((tx) => {
     const before = tx.select().from(parties).where(eq(parties.id, id)).get();
-    if (!before) throw notFound("That party");
+    if (!before) throw notFound("errors.partyNotFound");
     // The kind stays: users and contracts hang on it.
     const { kind: _kind, ...changes } = input;
     tx.update(parties).set(changes).where(eq(parties.id, id)).run();

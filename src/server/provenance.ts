@@ -75,7 +75,7 @@ export function findBottling(gtin14: string, lotCode: string) {
   const row = getDb().get<{ id: number; code: string; kind: string; contentIn: number; gtin: string; bottleMl: number; quantity: number }>(sql`
     select id, code, kind, content_in as contentIn, json_extract(attributes, '$.gtin') as gtin, json_extract(attributes, '$.bottleMl') as bottleMl, quantity_in as quantity
     from lots where code = ${lotCode} and kind = 'bottled'`);
-  if (!row || String(row.gtin).padStart(14, "0") !== gtin14) throw notFound("That bottling");
+  if (!row || String(row.gtin).padStart(14, "0") !== gtin14) throw notFound("errors.bottlingNotFound");
   return row;
 }
 

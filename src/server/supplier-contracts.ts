@@ -20,7 +20,7 @@ const MILL_SCOPE = "polishing";
 
 function supplier(tx: DbOrTx, partyId: string, kind: "grower" | "mill", t: Translate) {
   const party = tx.select({ id: parties.id, kind: parties.kind }).from(parties).where(eq(parties.id, partyId)).get();
-  if (!party || (party.kind !== "grower" && party.kind !== "mill")) throw notFound("That supplier");
+  if (!party || (party.kind !== "grower" && party.kind !== "mill")) throw notFound("errors.supplierNotFound");
   if (party.kind !== kind) throw invalid({ _: [t("suppliers.validation.wrongKind")] });
   return party;
 }

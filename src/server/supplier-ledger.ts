@@ -83,7 +83,7 @@ export function ledgerOf(db: DbOrTx, partyId: string, asOf = new Date()): Ledger
 
 export function requireSupplier(db: DbOrTx, partyId: string) {
   const party = db.select().from(parties).where(eq(parties.id, partyId)).get();
-  if (!party || (party.kind !== "grower" && party.kind !== "mill")) throw notFound("That supplier");
+  if (!party || (party.kind !== "grower" && party.kind !== "mill")) throw notFound("errors.supplierNotFound");
   return party;
 }
 
@@ -92,7 +92,7 @@ export function requireSupplier(db: DbOrTx, partyId: string) {
  * or mill only its own party (403 otherwise — the route says whose money, not which lot).
  */
 export function readSupplierLedger(actor: SessionUser, partyId: string) {
-  if (!canReadLedgerOf(actor, partyId)) throw forbidden("You may read only your own account.");
+  if (!canReadLedgerOf(actor, partyId)) throw forbidden("errors.notYourAccount");
   const db = getDb();
   requireSupplier(db, partyId);
   const ledger = ledgerOf(db, partyId);

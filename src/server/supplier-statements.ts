@@ -59,7 +59,7 @@ export function issueStatement(actor: SessionUser, partyId: string, raw: unknown
       .returning({ id: supplierStatements.id })
       .get().id;
     tx.insert(supplierStatementEntries).values(covered.map((e) => ({ statementId: id, entryId: e.id }))).run();
-    if (computeLedger(loadAccount(tx, partyId), rounding, issuedAt, issuedAt).balanceYen !== balanceYen) throw new AppError("conflict", "The statement does not reconcile with the account; nothing was issued.");
+    if (computeLedger(loadAccount(tx, partyId), rounding, issuedAt, issuedAt).balanceYen !== balanceYen) throw new AppError("conflict", "errors.statementUnreconciled");
     return { id, number, totals, balanceYen, email: input.email };
   });
 }
@@ -93,9 +93,9 @@ function loadStatement(db: DbOrTx, number: string) {
 
 /** One statement of one supplier: the office and auditors any, a supplier only its own (403). */
 export function readStatement(actor: SessionUser, partyId: string, number: string): StatementView {
-  if (!canReadLedgerOf(actor, partyId)) throw forbidden("You may read only your own statements.");
+  if (!canReadLedgerOf(actor, partyId)) throw forbidden("errors.notYourStatements");
   const view = loadStatement(getDb(), number);
-  if (!view || view.supplier.id !== partyId) throw notFound(`Statement ${number}`);
+  if (!view || view.supplier.id !== partyId) throw notFound({ key: "errors.statementNotFound", values: { number } });
   return view;
 }
 

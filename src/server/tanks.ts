@@ -57,10 +57,10 @@ export function addedAlcoholKg(tankId: number): number {
 
 export function tankSummary(actor: SessionUser, code: string) {
   const id = findLotId(actor, code);
-  if (id === null) throw notFound(`Lot ${code}`);
+  if (id === null) throw notFound({ key: "errors.lotNotFound", values: { code } });
   const db = getDb();
   const tank = db.select().from(lots).where(eq(lots.id, id)).get()!;
-  if (tank.kind !== "tank") throw notFound(`Tank ${code}`);
+  if (tank.kind !== "tank") throw notFound({ key: "errors.tankNotFound", values: { code } });
   const additionEvents = db
     .select({ id: events.id, at: events.at, attributes: events.attributes, corrected: sql<number>`exists (select 1 from events c where c.corrects = ${events.id})` })
     .from(events)

@@ -19,7 +19,7 @@ type LotHead = { id: number; code: string; kind: string; contentIn: number };
 
 function head(actor: SessionUser, code: string): LotHead {
   const id = findLotId(actor, code);
-  if (id === null) throw notFound(`Lot ${code}`);
+  if (id === null) throw notFound({ key: "errors.lotNotFound", values: { code } });
   return getDb().get<LotHead>(sql`select id, code, kind, content_in as contentIn from lots where id = ${id}`)!;
 }
 

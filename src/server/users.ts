@@ -29,13 +29,13 @@ const toPublic = (u: typeof users.$inferSelect): PublicUser => ({
 /** Checks a password and opens a new session; throttled per e-mail and per client. */
 export async function signIn(email: string, password: string, client: string) {
   if (isThrottled(email, client)) {
-    throw new AppError("rate_limited", "Too many failed sign-in attempts. Wait 15 minutes and try again.");
+    throw new AppError("rate_limited", "errors.signInThrottled");
   }
   const row = getDb().select().from(users).where(eq(users.email, email)).get();
   const ok = row?.passwordHash && !row.disabledAt ? await verifyPassword(row.passwordHash, password) : (await burnPasswordCheck(password), false);
   if (!row || !ok) {
     recordFailure(email, client);
-    throw new AppError("unauthenticated", "The e-mail or password is not right.");
+    throw new AppError("unauthenticated", "errors.badCredentials");
   }
   clearFailures(email);
   const session = await lucia().createSession(row.id, {});
@@ -71,7 +71,7 @@ export async function inviteUser(actor: SessionUser, input: InviteInput, origin:
       throw invalid({ role: [t("validation.roleNeedsParty", { kind: t(`parties.kinds.${PARTY_KIND_FOR_ROLE[input.role]}`) })] });
     }
     if (tx.select({ id: users.id }).from(users).where(eq(users.email, input.email)).get()) {
-      throw new AppError("conflict", "That e-mail address already has a user.", { email: [t("validation.emailTaken")] });
+      throw new AppError("conflict", "errors.emailTaken", { email: [t("validation.emailTaken")] });
     }
     tx.insert(users).values({ id, email: input.email, name: input.name, role: input.role, partyId: input.partyId, createdAt: new Date() }).run();
     tx.insert(passwordTokens).values({ id: generateIdFromEntropySize(10), userId: id, tokenHash: hash, purpose: "invite", expiresAt: new Date(Date.now() + INVITE_TTL_MS), createdAt: new Date() }).run();
@@ -120,7 +120,7 @@ export async function setPasswordWithToken(token: string, password: string, t: T
       .from(passwordTokens)
       .where(and(eq(passwordTokens.tokenHash, hashLinkToken(token)), isNull(passwordTokens.usedAt), gt(passwordTokens.expiresAt, new Date())))
       .get();
-    if (!row) throw invalid({ token: [t("validation.linkExpired")] }, "This link has been used or has expired.");
+    if (!row) throw invalid({ token: [t("validation.linkExpired")] }, "errors.linkExpired");
     tx.update(passwordTokens).set({ usedAt: new Date() }).where(eq(passwordTokens.id, row.id)).run();
     tx.update(users).set({ passwordHash }).where(eq(users.id, row.userId)).run();
     recordAudit(tx, { userId: row.userId, action: "user.password-set", subject: row.userId, detail: { via: row.purpose } });

@@ -14,7 +14,7 @@ export async function forgotPasswordAction(_prev: FormState, formData: FormData)
     const client = await actionClientKey();
     // Each request counts against the same budget as failed sign-ins, so the form
     // cannot be used to flood someone's mailbox.
-    if (isThrottled(email, client)) throw new AppError("rate_limited", "Too many requests.");
+    if (isThrottled(email, client)) throw new AppError("rate_limited", "errors.tooManyRequests");
     recordFailure(email, client);
     await requestPasswordReset(email, await actionOrigin(), t);
     return { ok: true, message: t("auth.linkSent") };

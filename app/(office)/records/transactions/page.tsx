@@ -26,12 +26,12 @@ export default async function TransactionsPage({ searchParams }: { searchParams:
   const to = one(query.to) ?? today;
   let records: TransactionRecord[] | null = null;
   let errors: Record<string, string[]> = {};
+  const translate = await actionTranslator();
   try {
-    const translate = await actionTranslator();
     records = listTransactionRecords(user, parseDateRange({ from, to }, translate), translate);
   } catch (error) {
     if (!(error instanceof AppError)) throw error;
-    errors = error.fields ?? { _: [error.message] };
+    errors = error.fields ?? { _: [error.say(translate)] };
   }
   const download = `/api/records/transactions.csv?${new URLSearchParams({ from, to })}`;
   return (

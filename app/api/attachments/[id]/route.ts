@@ -6,7 +6,7 @@ import { handle, requireApiUser } from "@/server/http";
 export const GET = handle(async (request, { params }) => {
   const actor = await requireApiUser(request);
   const id = /^[1-9]\d{0,15}$/.test(params.id ?? "") ? Number(params.id) : null;
-  if (id === null) throw notFound("Attachment");
+  if (id === null) throw notFound("errors.attachmentNotFound");
   const file = await readAttachment(actor, id);
   // Stored types were sniffed on upload; anything else would mean a row written by hand.
   const type = isAttachmentType(file.contentType) ? file.contentType : null;
