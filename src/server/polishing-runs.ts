@@ -42,7 +42,7 @@ export function checkPolishingRun(tx: DbOrTx, input: EventInput, _held: unknown[
   const margin = readSetting(tx, "polishingMarginPts");
   const warnings: string[] = [];
   if (missedTarget(achievedPct, target, margin)) {
-    warnings.push(`Achieved polishing ratio ${roundPct(achievedPct)} % is more than ${margin} point(s) from the target ${target} %.`);
+    warnings.push(t("polishing.missedTarget", { achieved: roundPct(achievedPct), margin, target }));
   }
   return {
     achievedPct,

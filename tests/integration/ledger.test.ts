@@ -138,7 +138,7 @@ describe("receipt and polishing run at the mill", () => {
       measurements: [{ name: "targetPolishingRatioPct", value: 60, unit: "%" }],
     });
     expect(res.status).toBe(201);
-    expect(res.body.warnings[0]).toMatch(/62 %.*target 60 %/);
+    expect(res.body.warnings).toEqual(["Achieved polishing ratio 62 % is more than 1 point from the target 60 %."]);
   });
 
   it("refuses an over-draw with 409 and leaves every table as it was", async () => {
