@@ -8,33 +8,18 @@ import { PNG } from "pngjs";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { can, type Permission } from "@/domain/permissions";
 import { ROLES, type Role } from "@/domain/roles";
-import { initialFormState, type FormState } from "@/lib/form-state";
 import { ACTIONS, actionKey, ATTACHMENT, BOTTLED, DEMO_EMAIL, DEVIATIONS, HTTP_METHODS, PAGES, ROUTES, routeKey, WHO, type Outcome, type PageGuard, type Who } from "../authz/matrix";
+import { scope, submit, type Action } from "../support/action-scope";
 import { ORIGIN, jsonRequest, signInAs, tableDigests } from "../support/api";
 
-// Server actions read the session through next/headers and their messages through next-intl; outside
-// Next.js both need a request scope, so this file supplies one: the cookie of whoever is acting.
-const scope = vi.hoisted(() => ({ cookie: "" }));
-vi.mock("next/headers", () => ({
-  cookies: async () => ({
-    get: (name: string) => {
-      const [key, ...value] = scope.cookie.split("=");
-      return key === name ? { name, value: value.join("=") } : undefined;
-    },
-    set: () => undefined,
-  }),
-  headers: async () => new Headers({ host: "localhost:3000" }),
-}));
-vi.mock("next/cache", () => ({ revalidatePath: () => undefined, revalidateTag: () => undefined }));
-vi.mock("next-intl/server", async () => {
-  const { translator } = await import("@/i18n/messages");
-  const t = translator("en");
-  return { getTranslations: async () => (key: string, values?: Record<string, unknown>) => t(key as never, values as never) };
-});
+// Server actions read the session through next/headers and their messages through next-intl:
+// tests/support/action-scope.ts stands in for Next's request scope.
+vi.mock("next/headers", async () => (await import("../support/action-scope")).nextHeaders);
+vi.mock("next/cache", async () => (await import("../support/action-scope")).nextCache);
+vi.mock("next-intl/server", async () => (await import("../support/action-scope")).nextIntlServer());
 
 const ROOT = path.resolve(import.meta.dirname, "../..");
 type Handler = (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response>;
-type Action = (state: FormState, form: FormData) => Promise<FormState | void>;
 
 /** Every page.tsx, route.ts and actions.ts under app/, as repository paths. */
 function discover(name: string): string[] {
@@ -159,18 +144,12 @@ describe("route handlers, for every role and anonymous", () => {
 async function runAction(action: Action, form: Record<string, string>): Promise<string> {
   const { translator } = await import("@/i18n/messages");
   const t = translator("en");
-  const data = new FormData();
-  for (const [k, v] of Object.entries(form)) data.append(k, v);
-  try {
-    const state = (await action(initialFormState, data)) ?? {};
-    if (state.ok) return "ok";
-    for (const [outcome, [, code]] of Object.entries(STATUS)) if (state.message === t(`errors.${code}` as never)) return outcome;
-    return `form state ${JSON.stringify(state)}`;
-  } catch (error) {
-    const digest = (error as { digest?: unknown }).digest;
-    if (typeof digest === "string" && digest.startsWith("NEXT_REDIRECT;")) return `redirect:${digest.split(";")[2]}`;
-    throw error;
-  }
+  const answer = await submit(action, form);
+  if ("redirect" in answer) return `redirect:${answer.redirect}`;
+  const { state } = answer;
+  if (state.ok) return "ok";
+  for (const [outcome, [, code]] of Object.entries(STATUS)) if (state.message === t(`errors.${code}` as never)) return outcome;
+  return `form state ${JSON.stringify(state)}`;
 }
 
 describe("server actions, for every role and anonymous", () => {

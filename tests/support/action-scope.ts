@@ -1,0 +1,43 @@
+// Server actions read the session through next/headers and their messages through next-intl; outside
+// Next.js both need a request scope. A test file mocks those modules with these stand-ins, whose
+// cookie is that of whoever is acting:
+//   vi.mock("next/headers", async () => (await import("../support/action-scope")).nextHeaders);
+//   vi.mock("next/cache", async () => (await import("../support/action-scope")).nextCache);
+//   vi.mock("next-intl/server", async () => (await import("../support/action-scope")).nextIntlServer());
+import { translator } from "@/i18n/messages";
+import { initialFormState, type FormState } from "@/lib/form-state";
+
+export const scope = { cookie: "" };
+
+export const nextHeaders = {
+  cookies: async () => ({
+    get: (name: string) => {
+      const [key, ...value] = scope.cookie.split("=");
+      return key === name ? { name, value: value.join("=") } : undefined;
+    },
+    set: () => undefined,
+  }),
+  headers: async () => new Headers({ host: "localhost:3000" }),
+};
+
+export const nextCache = { revalidatePath: () => undefined, revalidateTag: () => undefined };
+
+export async function nextIntlServer() {
+  const t = translator("en");
+  return { getTranslations: async () => (key: string, values?: Record<string, unknown>) => t(key as never, values as never) };
+}
+
+export type Action = (state: FormState, form: FormData) => Promise<FormState | void>;
+
+/** Submits a form to an action as the browser would: the state it answers, or where it redirects. */
+export async function submit(action: Action, form: Record<string, string> | [string, string][]): Promise<{ state: FormState } | { redirect: string }> {
+  const data = new FormData();
+  for (const [k, v] of Array.isArray(form) ? form : Object.entries(form)) data.append(k, v);
+  try {
+    return { state: (await action(initialFormState, data)) ?? {} };
+  } catch (error) {
+    const digest = (error as { digest?: unknown }).digest;
+    if (typeof digest === "string" && digest.startsWith("NEXT_REDIRECT;")) return { redirect: digest.split(";")[2]! };
+    throw error;
+  }
+}
