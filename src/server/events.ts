@@ -131,7 +131,11 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
       return { lot, quantity: 0, content: 0, use: "observe" as const };
     }
     if (moves) {
-      if (Math.abs(quantity - lot.onHand) > EPS) throw invalid({ [`inputs.${n}.quantity`]: [t("validation.wholeLotOnly", { onHand: lot.onHand, unit: lot.unit })] });
+      if (Math.abs(quantity - lot.onHand) > EPS) {
+        // A receiver who cannot see the lot yet is not told what it weighs: the slip in hand says.
+        const message = canSeeLot(actor, lot) ? t("validation.wholeLotOnly", { onHand: lot.onHand, unit: lot.unit }) : t("validation.wholeLotOnlyUnseen");
+        throw invalid({ [`inputs.${n}.quantity`]: [message] });
+      }
       return { lot, quantity, content: 0, use: "move" as const };
     }
     if (!(quantity > 0)) throw invalid({ [`inputs.${n}.quantity`]: [t("validation.tooSmall", { minimum: 0 })] });

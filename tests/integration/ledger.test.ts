@@ -242,6 +242,13 @@ describe("a lot someone cannot see is unknown to them, not forbidden", () => {
 
   it("a receipt names the sender's lots, which the receiver does not hold yet", async () => {
     const code = (await harvest(grower, { brownKg: 140 })).body.code as string;
+    // The wrong weight is refused without telling a receiver who cannot see the lot what it weighs.
+    const before = await tableDigests();
+    const wrong = await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 100 }] });
+    expect(wrong.status).toBe(422);
+    expect(wrong.body.error.fields["inputs.0.quantity"]).toEqual(["A lot moves between parties whole: enter the weight on the sender's delivery slip."]);
+    expect(JSON.stringify(wrong.body)).not.toContain("140");
+    expect(await tableDigests()).toEqual(before);
     const res = await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 140 }] });
     expect(res.status).toBe(201);
   });
