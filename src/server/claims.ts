@@ -68,7 +68,8 @@ export function claimsForLot(lot: { id: number; code: string; kind: string }, t:
     return { name: v.name, eligible: verdicts.length > 0 && reasons.length === 0, reasons: verdicts.length ? reasons : ["no tank behind this lot"] };
   });
   const facts = tanks.map((x) => x.facts);
-  const worst = <T,>(values: T[], pick: (a: T, b: T) => T) => (values.length ? values.reduce(pick) : null);
+  // Two at a time: handed to reduce directly, Math.min would also weigh the index and the array.
+  const worst = <T,>(values: T[], pick: (a: T, b: T) => T) => (values.length ? values.reduce((a, b) => pick(a, b)) : null);
   return {
     lot: { code: lot.code, kind: lot.kind },
     polishingRatioPct: worst(facts.map((f) => f.polishingRatioPct).filter((v): v is number => v !== null), Math.max),

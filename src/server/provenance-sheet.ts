@@ -1,5 +1,5 @@
 import "server-only";
-import { PDFDocument, StandardFonts, rgb } from "pdf-lib";
+import { PDFDocument, StandardFonts, rgb, type PDFFont } from "pdf-lib";
 import type { Translate } from "@/lib/validation/field-errors";
 import type { Provenance } from "./provenance";
 
@@ -19,19 +19,25 @@ export async function provenanceSheetPdf(p: Provenance, brewery: string, t: Tran
   const bold = await pdf.embedFont(StandardFonts.HelveticaBold);
   const cedar = rgb(0.18, 0.36, 0.31);
   let y = 790;
-  const line = (label: string, value: string) => {
-    page.drawText(ascii(label), { x: 56, y, size: 10, font: bold, color: cedar });
-    const words = ascii(value).split(" ");
+  /** Words in rows no wider than `width` at this font and size. */
+  const rows = (text: string, font: PDFFont, size: number, width: number) => {
+    const out: string[] = [];
     let row = "";
-    for (const word of words) {
-      if (regular.widthOfTextAtSize(`${row} ${word}`, 11) > 330) {
-        page.drawText(row, { x: 210, y, size: 11, font: regular });
-        y -= 15;
+    for (const word of ascii(text).split(" ")) {
+      if (row && font.widthOfTextAtSize(`${row} ${word}`, size) > width) {
+        out.push(row);
         row = word;
       } else row = row ? `${row} ${word}` : word;
     }
-    page.drawText(row, { x: 210, y, size: 11, font: regular });
-    y -= 24;
+    return [...out, row];
+  };
+  // A label in the left column (wrapped before the values start), its value beside it.
+  const line = (label: string, value: string) => {
+    const left = rows(label, bold, 10, 140);
+    const right = rows(value, regular, 11, 330);
+    left.forEach((row, i) => page.drawText(row, { x: 56, y: y - i * 13, size: 10, font: bold, color: cedar }));
+    right.forEach((row, i) => page.drawText(row, { x: 210, y: y - i * 15, size: 11, font: regular }));
+    y -= Math.max(left.length * 13, right.length * 15) + 9;
   };
   page.drawText(ascii(title), { x: 56, y, size: 20, font: bold, color: cedar });
   y -= 22;

@@ -47,6 +47,14 @@ describe("premium-category claims from the lineage", () => {
     expect(body.categories.find((c: { name: string }) => c.name === "junmai ginjo").reasons.some((r: string) => r.endsWith("distilled alcohol was added"))).toBe(true);
   });
 
+  it("a blend states the least polished rice and the smallest koji share of its tanks", async () => {
+    const [two, three, blend] = [await claims(tank("Tank 2")), await claims(tank("Tank 3")), await claims(bottledOf("9506000134376"))];
+    // A label may claim only what holds for every part (NTA labelling standard, ../shared/references.md).
+    expect(blend.body.polishingRatioPct).toBeCloseTo(Math.max(two.body.polishingRatioPct, three.body.polishingRatioPct), 9);
+    expect(blend.body.kojiRatioPct).toBeCloseTo(Math.min(two.body.kojiRatioPct, three.body.kojiRatioPct), 9);
+    expect(blend.body.polishingRatioPct).toBeCloseTo(60, 9);
+  });
+
   it("refuses lots that are not tanks, sake, blends or bottlings", async () => {
     const { status, body } = await claims("P26-0001");
     expect(status).toBe(422);

@@ -60,6 +60,9 @@ describe("provenance answer", () => {
     expect(text).toContain("Rice origin Hyogo, Okayama");
     expect(text).toContain("Growers who asked not to be named 78.3 %");
     expect(text).toContain("Polishing ratio 60 %");
+    // The smaller koji share of the two tanks, as a number.
+    expect(text).toMatch(/Koji rice \d+(\.\d)? % of the rice \(dry basis\)/);
+    expect(text).not.toContain("NaN");
     expect(text).toContain("Recall and labelling decisions follow");
   });
 });
