@@ -107,9 +107,10 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
 
   // Ownership: you record on lots your party holds (or, measuring, lots your party made).
   // A receipt is of lots the sender holds, taken in by the recording party.
-  for (const lot of held) {
+  for (const [n, lot] of held.entries()) {
     if (step === "receiving") {
-      if (lot.partyId !== counterparty!.id || lot.partyId === eventParty) throw new AppError("conflict", { key: "errors.notHeldBySender", values: { code: lot.code } });
+      const refused = lot.partyId === eventParty ? "errors.alreadyHeld" : lot.partyId !== counterparty!.id ? "errors.notHeldBySender" : null;
+      if (refused) throw new AppError("conflict", { key: refused, values: { code: lot.code } }, { [`inputs.${n}.lot`]: [t(refused, { code: lot.code })] });
     } else if (!canActOnLot(actor, lot) && !(observes && lot.originPartyId === actor.partyId)) {
       throw forbidden("errors.notYourLot");
     }

@@ -109,7 +109,7 @@ describe("receipt import", () => {
     const before = await tableDigests();
     const checked = await preview(miller, "receipts", "receipts-same-lot-twice.csv");
     // Line 3 is blank; the second receipt sits on line 4 and sees the first one's move.
-    expect(checked.body.problems).toEqual([{ line: 4, code: "conflict", fields: { _: ["Lot H25-0003 is not held by the sender."] } }]);
+    expect(checked.body.problems).toEqual([{ line: 4, code: "conflict", fields: { lot: ["Lot H25-0003 is already held by your party."] } }]);
     const res = await commit(miller, "receipts", "receipts-same-lot-twice.csv");
     expect(res.status).toBe(422);
     expect(await tableDigests()).toEqual(before);

@@ -252,6 +252,19 @@ describe("a lot someone cannot see is unknown to them, not forbidden", () => {
     const res = await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 140 }] });
     expect(res.status).toBe(201);
   });
+
+  it("a receipt that cannot be says why, beside the lot: already yours, or not the named sender's", async () => {
+    const code = (await harvest(grower, { brownKg: 150 })).body.code as string;
+    const before = await tableDigests();
+    const wrongSender = await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 150 }], counterpartyId: "grower-nakase" });
+    expect(wrongSender.status).toBe(409);
+    expect(wrongSender.body.error.fields).toEqual({ "inputs.0.lot": [`Lot ${code} is not held by the sender.`] });
+    expect(await tableDigests()).toEqual(before);
+    expect((await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 150 }] })).status).toBe(201);
+    const again = await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 150 }] });
+    expect(again.status).toBe(409);
+    expect(again.body.error).toMatchObject({ message: `Lot ${code} is already held by your party.`, fields: { "inputs.0.lot": [`Lot ${code} is already held by your party.`] } });
+  });
 });
 
 describe("a receipt takes only what travels to its receiver (src/domain/steps.ts RECEIVABLE_KINDS)", () => {
