@@ -1,10 +1,9 @@
 import "server-only";
-import { PDFDocument, StandardFonts, rgb, type PDFFont } from "pdf-lib";
+import { PDFDocument, StandardFonts, rgb } from "pdf-lib";
 import type { Translate } from "@/lib/validation/field-errors";
+import { ascii, wrapWords } from "./pdf-text";
 import type { Provenance } from "./provenance";
 
-// The PDF standard fonts cover WinAnsi only; anything else is written as "?" rather than failing.
-const ascii = (s: string) => s.replace(/[^\x20-\x7e]/g, "?");
 
 /** A one-page A4 provenance sheet for buyers, from the same answer the screen shows, in the catalogue's words. */
 export async function provenanceSheetPdf(p: Provenance, brewery: string, t: Translate): Promise<Uint8Array> {
@@ -19,22 +18,10 @@ export async function provenanceSheetPdf(p: Provenance, brewery: string, t: Tran
   const bold = await pdf.embedFont(StandardFonts.HelveticaBold);
   const cedar = rgb(0.18, 0.36, 0.31);
   let y = 790;
-  /** Words in rows no wider than `width` at this font and size. */
-  const rows = (text: string, font: PDFFont, size: number, width: number) => {
-    const out: string[] = [];
-    let row = "";
-    for (const word of ascii(text).split(" ")) {
-      if (row && font.widthOfTextAtSize(`${row} ${word}`, size) > width) {
-        out.push(row);
-        row = word;
-      } else row = row ? `${row} ${word}` : word;
-    }
-    return [...out, row];
-  };
   // A label in the left column (wrapped before the values start), its value beside it.
   const line = (label: string, value: string) => {
-    const left = rows(label, bold, 10, 140);
-    const right = rows(value, regular, 11, 330);
+    const left = wrapWords(label, bold, 10, 140);
+    const right = wrapWords(value, regular, 11, 330);
     left.forEach((row, i) => page.drawText(row, { x: 56, y: y - i * 13, size: 10, font: bold, color: cedar }));
     right.forEach((row, i) => page.drawText(row, { x: 210, y: y - i * 15, size: 11, font: regular }));
     y -= Math.max(left.length * 13, right.length * 15) + 9;

@@ -3,12 +3,11 @@ import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFPage } from "pdf
 import { csvText } from "@/lib/validation/csv";
 import { dayInJapan } from "@/lib/validation/csv";
 import type { Translate } from "@/lib/validation/field-errors";
+import { ascii, wrapWords } from "./pdf-text";
 import { describeEntry } from "./supplier-describe";
 import type { StatementView } from "./supplier-statements";
 
 const yen = (v: number) => new Intl.NumberFormat("en-US").format(v);
-// The PDF standard fonts cover WinAnsi only; other characters print as "?" rather than failing.
-const ascii = (s: string) => s.replace(/[^\x20-\x7e]/g, "?");
 const REDUCED_MARK = "*";
 
 /** The statement's summary lines, shared by the PDF and the CSV so both name the same totals. */
@@ -49,17 +48,7 @@ export async function statementPdf(s: StatementView, t: Translate): Promise<Uint
   };
   const text = (value: string, x: number, size = 10, font: PDFFont = regular) => page.drawText(ascii(value), { x, y, size, font, color: font === bold ? cedar : undefined });
   const right = (value: string, xRight: number, size = 10, font: PDFFont = regular) => text(value, xRight - font.widthOfTextAtSize(ascii(value), size), size, font);
-  const wrap = (value: string, width: number, size = 10) => {
-    const lines: string[] = [];
-    let row = "";
-    for (const word of ascii(value).split(" ")) {
-      if (row && regular.widthOfTextAtSize(`${row} ${word}`, size) > width) {
-        lines.push(row);
-        row = word;
-      } else row = row ? `${row} ${word}` : word;
-    }
-    return [...lines, row];
-  };
+  const wrap = (value: string, width: number, size = 10) => wrapWords(value, regular, size, width);
 
   text(t("suppliers.statement.title", { number: s.number }), 56, 18, bold);
   y -= 22;

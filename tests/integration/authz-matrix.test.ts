@@ -9,7 +9,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { can, type Permission } from "@/domain/permissions";
 import { ROLES, type Role } from "@/domain/roles";
 import { ACTIONS, actionKey, ATTACHMENT, BOTTLED, DEMO_EMAIL, DEVIATIONS, HTTP_METHODS, PAGES, ROUTES, routeKey, WHO, type Outcome, type PageGuard, type Who } from "../authz/matrix";
-import { scope, submit, type Action } from "../support/action-scope";
+import { submit, type Action } from "../support/action-scope";
 import { ORIGIN, jsonRequest, signInAs, tableDigests } from "../support/api";
 
 // Server actions read the session through next/headers and their messages through next-intl:
@@ -141,10 +141,10 @@ describe("route handlers, for every role and anonymous", () => {
 });
 
 /** What a server action's answer means, in the table's words. */
-async function runAction(action: Action, form: Record<string, string>): Promise<string> {
+async function runAction(cookie: string, action: Action, form: Record<string, string>): Promise<string> {
   const { translator } = await import("@/i18n/messages");
   const t = translator("en");
-  const answer = await submit(action, form);
+  const answer = await submit(cookie, action, form);
   if ("redirect" in answer) return `redirect:${answer.redirect}`;
   const { state } = answer;
   if (state.ok) return "ok";
@@ -159,10 +159,9 @@ describe("server actions, for every role and anonymous", () => {
       const wrong: string[] = [];
       for (const who of WHO) {
         const cookie = who === "anonymous" ? "" : entry.session === "throwaway" ? await signInAs(DEMO_EMAIL[who]) : cookies[who];
-        scope.cookie = cookie;
         const { outcome, bug } = expected(actionKey(entry), who, entry.expect[who]);
         const before = await tableDigests();
-        const got = await runAction(action, entry.form).finally(() => (scope.cookie = ""));
+        const got = await runAction(cookie, action, entry.form);
         if (got !== outcome) wrong.push(`${who}: expected ${outcome}${bug ? ` (known bug: ${bug})` : ""}, got ${got}`);
         if (entry.session === "throwaway" && cookie) {
           const me = ((await load("app/api/me/route.ts")) as { GET: Handler }).GET;

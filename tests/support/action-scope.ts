@@ -7,6 +7,7 @@
 import { translator } from "@/i18n/messages";
 import { initialFormState, type FormState } from "@/lib/form-state";
 
+/** The request scope the stand-ins read: set by `submit` for the length of one call. */
 export const scope = { cookie: "" };
 
 export const nextHeaders = {
@@ -29,15 +30,21 @@ export async function nextIntlServer() {
 
 export type Action = (state: FormState, form: FormData) => Promise<FormState | void>;
 
-/** Submits a form to an action as the browser would: the state it answers, or where it redirects. */
-export async function submit(action: Action, form: Record<string, string> | [string, string][]): Promise<{ state: FormState } | { redirect: string }> {
+/**
+ * Submits a form to an action as the browser would, signed in with `cookie` ("" for nobody):
+ * the state it answers, or where it redirects.
+ */
+export async function submit(cookie: string, action: Action, form: Record<string, string> | [string, string][]): Promise<{ state: FormState } | { redirect: string }> {
   const data = new FormData();
   for (const [k, v] of Array.isArray(form) ? form : Object.entries(form)) data.append(k, v);
+  scope.cookie = cookie;
   try {
     return { state: (await action(initialFormState, data)) ?? {} };
   } catch (error) {
     const digest = (error as { digest?: unknown }).digest;
     if (typeof digest === "string" && digest.startsWith("NEXT_REDIRECT;")) return { redirect: digest.split(";")[2]! };
     throw error;
+  } finally {
+    scope.cookie = "";
   }
 }
