@@ -146,6 +146,9 @@ export const lots = sqliteTable(
     onHand: real("on_hand").notNull().default(0),
     // Rice (dry polished basis) or litres carried into the lot: the denominator of its composition.
     contentIn: real("content_in").notNull().default(0),
+    // The party a dispatch sent the lot to, until its receipt (or the dispatch's correction):
+    // kept with the holder, in the same transaction as those events, so reads need no replay.
+    inTransitTo: text("in_transit_to").references(() => parties.id),
     createdAt: integer("created_at", { mode: "timestamp_ms" }).notNull(),
   },
   (t) => [uniqueIndex("lots_code_unique").on(t.code), index("lots_kind_idx").on(t.kind, t.createdAt), index("lots_party_idx").on(t.partyId)],
@@ -188,9 +191,10 @@ export const eventInputs = sqliteTable(
     quantity: real("quantity").notNull(),
     // The rice (or litres) this draw carried: its weight in the mix of the event's outputs.
     content: real("content").notNull(),
-    // "draw" takes from on-hand; "move" hands the whole lot to another party (receipts,
-    // shipments between parties); "observe" touches nothing (measurements).
-    use: text("use", { enum: ["draw", "move", "observe"] }).notNull(),
+    // "draw" takes from on-hand; "move" hands the whole lot to another party (a receipt);
+    // "dispatch" sends it on its way (the slip weight; custody moves at the receipt); "loss" is
+    // the shortfall a receipt finds (slip − arrival); "observe" touches nothing (measurements).
+    use: text("use", { enum: ["draw", "move", "dispatch", "loss", "observe"] }).notNull(),
     // The holder before a move, kept so that a correction can hand the lot back.
     previousPartyId: text("previous_party_id"),
   },
@@ -295,6 +299,45 @@ export const lotSourceDeltas = sqliteTable(
     amount: real("amount").notNull(),
   },
   (t) => [index("lot_source_by_lot").on(t.lotId, t.sourceLotId, t.amount), index("lot_source_by_source").on(t.sourceLotId, t.lotId, t.amount)],
+);
+
+/**
+ * A receipt no dispatch matched: what the receiver wrote down, kept as typed (the code may
+ * name no lot, or one the receiver may not see), awaiting the sender's word. Appended only.
+ */
+export const receiptRequests = sqliteTable(
+  "receipt_requests",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    receiverPartyId: text("receiver_party_id").notNull().references(() => parties.id),
+    code: text("code").notNull(),
+    // The weight on arrival, in the unit of the lot it turns out to be.
+    quantity: real("quantity").notNull(),
+    // The sender the receiver named, if any (unchecked until the sender confirms).
+    senderPartyId: text("sender_party_id").references(() => parties.id),
+    referenceDoc: text("reference_doc").notNull().default(""),
+    place: text("place").notNull().default(""),
+    note: text("note").notNull().default(""),
+    at: integer("at", { mode: "timestamp_ms" }).notNull(),
+    userId: text("user_id").notNull().references(() => users.id),
+    recordedAt: integer("recorded_at", { mode: "timestamp_ms" }).notNull(),
+  },
+  (t) => [index("receipt_requests_code_idx").on(t.code), index("receipt_requests_receiver_idx").on(t.receiverPartyId)],
+);
+
+/** The sender's (or the office's) answer to a receipt request: confirmed with its receipt event, or declined with a reason. */
+export const receiptOutcomes = sqliteTable(
+  "receipt_outcomes",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    requestId: integer("request_id").notNull().references(() => receiptRequests.id),
+    outcome: text("outcome", { enum: ["confirmed", "declined"] }).notNull(),
+    eventId: integer("event_id").references(() => events.id),
+    reason: text("reason").notNull().default(""),
+    userId: text("user_id").notNull().references(() => users.id),
+    recordedAt: integer("recorded_at", { mode: "timestamp_ms" }).notNull(),
+  },
+  (t) => [uniqueIndex("receipt_outcomes_request_unique").on(t.requestId)],
 );
 
 // ---------------------------------------------------------------------------
