@@ -1,5 +1,6 @@
 import Papa from "papaparse";
 import { z } from "zod";
+import { csvSafeCell, csvSafeText } from "@/domain/csv-safe";
 import { GRADES } from "@/domain/grades";
 import { eventInputSchema, eventSchema, harvestSchema, lotCode } from "./events";
 
@@ -80,12 +81,13 @@ export const dayInJapan = (at: Date) => new Date(at.getTime() + 9 * 3_600_000).t
 
 /**
  * Writes CSV (RFC 4180, CRLF) with a byte-order mark, without which spreadsheet programs in
- * Japan read UTF-8 as Shift_JIS. Text cells starting with = + - @ (or tab, CR) get a leading
- * apostrophe so that a spreadsheet shows them rather than running them (OWASP, "CSV
- * Injection"); numbers stay numbers.
+ * Japan read UTF-8 as Shift_JIS. Every text cell passes csvSafeCell (OWASP, "CSV Injection"),
+ * line breaks or not; numbers stay numbers. papaparse only quotes: its own escapeFormulae
+ * misses a formula that holds a line break.
  */
 export function csvText(fields: string[], rows: unknown[][]): string {
-  return "\uFEFF" + Papa.unparse({ fields, data: rows }, { escapeFormulae: true, newline: "\r\n" });
+  const data = rows.map((row) => row.map(csvSafeCell));
+  return "\uFEFF" + Papa.unparse({ fields: fields.map(csvSafeText), data }, { newline: "\r\n" });
 }
 
 /** Hands CSV text to the browser as a file download. */
