@@ -318,6 +318,8 @@ export const receiptRequests = sqliteTable(
     referenceDoc: text("reference_doc").notNull().default(""),
     place: text("place").notNull().default(""),
     note: text("note").notNull().default(""),
+    // Readings taken at arrival (e.g. moisture), as the API's `measurements` (JSON), recorded on confirmation.
+    measurements: text("measurements").notNull().default("[]"),
     at: integer("at", { mode: "timestamp_ms" }).notNull(),
     userId: text("user_id").notNull().references(() => users.id),
     recordedAt: integer("recorded_at", { mode: "timestamp_ms" }).notNull(),

@@ -1,0 +1,1 @@
+ALTER TABLE `receipt_requests` ADD `measurements` text DEFAULT '[]' NOT NULL;
