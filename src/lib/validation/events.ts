@@ -9,6 +9,19 @@ const positive = z.number().finite().positive().max(MAX_QTY);
 const text = (max: number) => z.string().trim().max(max);
 const attributeValue = z.union([z.string().max(200), z.number().finite(), z.boolean()]);
 
+/**
+ * Event-level attributes are stored as one JSON text on the event and read on every trace:
+ * flat (a value is a string, number or boolean, never an object, so depth is 1), at most 32
+ * names and 4 KB as stored. A mash addition or a koji start needs a handful.
+ */
+export const MAX_EVENT_ATTRIBUTES = 32;
+export const MAX_EVENT_ATTRIBUTE_BYTES = 4096;
+const storedBytes = (value: unknown) => new TextEncoder().encode(JSON.stringify(value)).length;
+const eventAttributes = z
+  .record(z.string().regex(/^[A-Za-z][A-Za-z0-9]*$/).max(40), attributeValue)
+  .refine((a) => Object.keys(a).length <= MAX_EVENT_ATTRIBUTES, { message: "validation.attributesTooMany" })
+  .refine((a) => storedBytes(a) <= MAX_EVENT_ATTRIBUTE_BYTES, { message: "validation.attributesTooLarge" });
+
 export const eventInputSchema = z.object({ lot: lotCode, quantity });
 
 /** A new lot (kind, quantity, unit, and the trade's attributes beside them) or an existing lot to add to. */
@@ -42,7 +55,7 @@ export const eventSchema = z
     corrects: z.number().int().positive().optional(),
     reason: text(500).optional(),
     // Step details that belong to the event, not to one lot (e.g. which mash addition).
-    attributes: z.record(z.string().regex(/^[A-Za-z][A-Za-z0-9]*$/).max(40), attributeValue).optional(),
+    attributes: eventAttributes.optional(),
   })
   .strict();
 export type EventInput = z.infer<typeof eventSchema>;
