@@ -7,6 +7,7 @@ import type { FormState } from "@/lib/form-state";
 import { fieldErrorsFrom, type Translate } from "@/lib/validation/field-errors";
 import { AppError } from "./errors";
 import { clientAddress } from "./client-address";
+import { publicOrigin } from "./public-origin";
 
 export async function actionTranslator(): Promise<Translate> {
   const t = await getTranslations();
@@ -33,13 +34,9 @@ export async function guardAction(
   }
 }
 
-/** The origin links in e-mails should point at, seen from a server action. */
+/** The origin links in e-mails point at: the configured one, never the request's Host (src/server/public-origin.ts). */
 export async function actionOrigin(): Promise<string> {
-  if (process.env.GRAINLINE_ORIGIN) return process.env.GRAINLINE_ORIGIN.replace(/\/$/, "");
-  const h = await headers();
-  const host = h.get("x-forwarded-host") ?? h.get("host") ?? "localhost:3000";
-  const proto = h.get("x-forwarded-proto")?.split(",")[0]?.trim() ?? "http";
-  return `${proto}://${host}`;
+  return publicOrigin();
 }
 
 export async function actionClientKey(): Promise<string> {

@@ -155,15 +155,6 @@ export function clientKey(request: Pick<ApiRequest, "headers">): string {
   return clientAddress(request.headers);
 }
 
-/** The origin links in e-mails point at: GRAINLINE_ORIGIN, else what the request came to. */
-export function appOrigin(request: { url: string; headers: Headers }): string {
-  if (process.env.GRAINLINE_ORIGIN) return process.env.GRAINLINE_ORIGIN.replace(/\/$/, "");
-  const host = request.headers.get("x-forwarded-host") ?? request.headers.get("host");
-  const proto = request.headers.get("x-forwarded-proto")?.split(",")[0]?.trim();
-  if (!host) return new URL(request.url).origin;
-  return `${proto ?? new URL(request.url).protocol.replace(":", "")}://${host}`;
-}
-
 /** The floor's retry key: printable, at most 200 characters; anything else is ignored. */
 export function idempotencyKeyOf(request: Pick<ApiRequest, "headers">): string | null {
   const key = request.headers.get("idempotency-key")?.trim();

@@ -6,6 +6,7 @@ import { translator } from "@/i18n/messages";
 import type { Translate } from "@/lib/validation/field-errors";
 import type { SessionUser } from "./session";
 import { addGrowerContract, addMillContract } from "./supplier-contracts";
+import { publicOrigin } from "./public-origin";
 import { ledgerOf } from "./supplier-ledger";
 import { recordPayment } from "./supplier-office";
 import { mailStatement } from "./supplier-statement-mail";
@@ -60,7 +61,7 @@ export function seedSupplierAccounts(tx: DbOrTx, admin: SessionUser): string[] {
 }
 
 export async function mailSeededStatements(db: DbOrTx, numbers: string[]) {
-  const origin = process.env.GRAINLINE_ORIGIN?.replace(/\/$/, "") || `http://localhost:${process.env.PORT || 3000}`;
+  const origin = publicOrigin();
   // Kept in the outbox only: the demo's parties are invented, their addresses .example.
   for (const number of numbers) await mailStatement(statementByNumber(db, number), origin, t, db, { deliver: false });
 }

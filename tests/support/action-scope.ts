@@ -8,7 +8,7 @@ import { translator } from "@/i18n/messages";
 import { initialFormState, type FormState } from "@/lib/form-state";
 
 /** The request scope the stand-ins read: set by `submit` for the length of one call. */
-export const scope = { cookie: "" };
+export const scope = { cookie: "", headers: {} as Record<string, string> };
 
 export const nextHeaders = {
   cookies: async () => ({
@@ -18,7 +18,7 @@ export const nextHeaders = {
     },
     set: () => undefined,
   }),
-  headers: async () => new Headers({ host: "localhost:3000" }),
+  headers: async () => new Headers({ host: "localhost:3000", ...scope.headers }),
 };
 
 export const nextCache = { revalidatePath: () => undefined, revalidateTag: () => undefined };
@@ -31,13 +31,15 @@ export async function nextIntlServer() {
 export type Action = (state: FormState, form: FormData) => Promise<FormState | void>;
 
 /**
- * Submits a form to an action as the browser would, signed in with `cookie` ("" for nobody):
- * the state it answers, or where it redirects.
+ * Submits a form to an action as the browser would, signed in with `cookie` ("" for nobody),
+ * with any further request `headers` (a forged Host, the peer address): the state it answers,
+ * or where it redirects.
  */
-export async function submit(cookie: string, action: Action, form: Record<string, string> | [string, string][]): Promise<{ state: FormState } | { redirect: string }> {
+export async function submit(cookie: string, action: Action, form: Record<string, string> | [string, string][], headers: Record<string, string> = {}): Promise<{ state: FormState } | { redirect: string }> {
   const data = new FormData();
   for (const [k, v] of Array.isArray(form) ? form : Object.entries(form)) data.append(k, v);
   scope.cookie = cookie;
+  scope.headers = headers;
   try {
     return { state: (await action(initialFormState, data)) ?? {} };
   } catch (error) {
@@ -46,5 +48,6 @@ export async function submit(cookie: string, action: Action, form: Record<string
     throw error;
   } finally {
     scope.cookie = "";
+    scope.headers = {};
   }
 }

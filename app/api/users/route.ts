@@ -1,5 +1,6 @@
 import { inviteSchema } from "@/lib/validation/people";
-import { appOrigin, handle, readJson, requireApiPermission } from "@/server/http";
+import { handle, readJson, requireApiPermission } from "@/server/http";
+import { publicOrigin } from "@/server/public-origin";
 import { inviteUser, listUsers } from "@/server/users";
 
 export const GET = handle(async (request) => {
@@ -10,5 +11,5 @@ export const GET = handle(async (request) => {
 export const POST = handle(async (request, { t }) => {
   const actor = await requireApiPermission(request, "users:manage");
   const input = await readJson(request, inviteSchema, t);
-  return Response.json(await inviteUser(actor, input, appOrigin(request), t), { status: 201 });
+  return Response.json(await inviteUser(actor, input, publicOrigin(), t), { status: 201 });
 });

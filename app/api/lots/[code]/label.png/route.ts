@@ -1,11 +1,12 @@
 import { normaliseLotCode } from "@/domain/lot-code";
-import { appOrigin, handle, requireApiUser } from "@/server/http";
+import { handle, requireApiUser } from "@/server/http";
+import { publicOrigin } from "@/server/public-origin";
 import { renderLabelPng } from "@/server/labels";
 
 export const GET = handle(async (request, { params }) => {
   const actor = await requireApiUser(request);
   const code = normaliseLotCode(params.code ?? "");
-  const png = await renderLabelPng(actor, code, appOrigin(request));
+  const png = await renderLabelPng(actor, code, publicOrigin());
   return new Response(new Uint8Array(png), {
     headers: {
       "Content-Type": "image/png",

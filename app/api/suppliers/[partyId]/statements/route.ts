@@ -1,7 +1,8 @@
 import { z } from "zod";
 import { canReadLedgerOf } from "@/domain/permissions";
 import { forbidden } from "@/server/errors";
-import { appOrigin, handle, readJson, requireApiPermission, requireApiUser } from "@/server/http";
+import { handle, readJson, requireApiPermission, requireApiUser } from "@/server/http";
+import { publicOrigin } from "@/server/public-origin";
 import { mailStatement, statementPdfPath } from "@/server/supplier-statement-mail";
 import { issueStatement, listStatements, statementByNumber } from "@/server/supplier-statements";
 import { getDb } from "@/server/db";
@@ -20,6 +21,6 @@ export const POST = handle(async (request, { params, t }) => {
   const partyId = params.partyId ?? "";
   const body = await readJson(request, z.unknown(), t);
   const issued = issueStatement(actor, partyId, body, t);
-  const mailed = issued.email ? await mailStatement(statementByNumber(getDb(), issued.number), appOrigin(request), t) : null;
+  const mailed = issued.email ? await mailStatement(statementByNumber(getDb(), issued.number), publicOrigin(), t) : null;
   return Response.json({ number: issued.number, totals: issued.totals, balanceYen: issued.balanceYen, mailed, pdf: statementPdfPath(partyId, issued.number) }, { status: 201 });
 });
