@@ -43,6 +43,27 @@ describe("the moisture deduction above 15.0 %", () => {
     expect(moistureSteps(null, perTenth)).toBe(0);
   });
 
+  it("counts part of a step as a step, in whole hundredths: 15.04 % over 15.0 % is one step, 15.0 % none", () => {
+    // The rule the contract states: part of a step counts as a step (MoistureRule.stepPct).
+    expect(moistureSteps(15.04, perTenth)).toBe(1);
+    expect(moistureSteps(15.0, perTenth)).toBe(0);
+    expect(moistureSteps(15.01, perTenth)).toBe(1);
+    expect(moistureSteps(15.11, perTenth)).toBe(2);
+    const perHalf: MoistureRule = { thresholdPct: 15.0, stepPct: 0.5, deductionYenPerBagPerStep: 200 };
+    expect(moistureSteps(15.5, perHalf)).toBe(1);
+    expect(moistureSteps(15.51, perHalf)).toBe(2);
+    expect(moistureSteps(15.0, perHalf)).toBe(0);
+  });
+
+  it("starts from the contract's own threshold: 14.5 % with 0.1 steps", () => {
+    const stricter: MoistureRule = { thresholdPct: 14.5, stepPct: 0.1, deductionYenPerBagPerStep: 100 };
+    expect(moistureSteps(14.5, stricter)).toBe(0);
+    expect(moistureSteps(14.54, stricter)).toBe(1);
+    expect(moistureSteps(15.0, stricter)).toBe(5);
+    // 600 kg = 10 bags at 14.8 %: 3 steps × 100 yen off 24,000 → 10 × 23,700 = 237,000 yen.
+    expect(deliveryPrice(24_000, 600, 14.8, stricter)).toMatchObject({ amountYen: 237_000, steps: 3 });
+  });
+
   it("counts whole points with part of a point as a point", () => {
     expect(moistureSteps(15.3, perPoint)).toBe(1);
     expect(moistureSteps(16.0, perPoint)).toBe(1);

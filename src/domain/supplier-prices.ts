@@ -1,4 +1,4 @@
-import { GRADES, MAX_MOISTURE_PCT, type Grade } from "./grades";
+import { GRADES, hundredthsOf, MAX_MOISTURE_PCT, moistureExcessHundredths, type Grade } from "./grades";
 import { divideRounded, gramsOf } from "./money";
 import { BAG_KG } from "./steps";
 
@@ -8,11 +8,14 @@ import { BAG_KG } from "./steps";
  * so 1,230 kg is 20.5 bags. Line amounts are rounded half-up to the yen (common practice;
  * a contract may say otherwise).
  */
+export const MOISTURE_STEPS_PCT = [0.1, 0.5, 1] as const;
+export type MoistureStepPct = (typeof MOISTURE_STEPS_PCT)[number];
+
 export type MoistureRule = {
-  /** Above this moisture the deduction starts: 15.0 %, the MAFF ceiling for graded brown rice. */
+  /** Above this moisture the deduction starts: 15.0 % (the MAFF ceiling for graded brown rice) unless the contract sets its own. */
   thresholdPct: number;
-  /** Deduct per 0.1 point or per whole point above the threshold; part of a step counts as a step. */
-  stepPct: 0.1 | 1;
+  /** Deduct per 0.1, 0.5 or whole point above the threshold; part of a step counts as a step. */
+  stepPct: MoistureStepPct;
   deductionYenPerBagPerStep: number;
 };
 export type GrowerTerms = { pricesPerBagYen: Partial<Record<Grade, number>>; moisture: MoistureRule };
@@ -23,14 +26,16 @@ export type MillTerms = { tiers: MillTier[] };
 
 export const DEFAULT_MOISTURE_RULE: MoistureRule = { thresholdPct: MAX_MOISTURE_PCT, stepPct: 0.1, deductionYenPerBagPerStep: 0 };
 
-const tenths = (pct: number) => Math.round(pct * 10);
-
-/** How many deduction steps a moisture reading is above the threshold (0 at or below it). */
+/**
+ * How many deduction steps a moisture reading is above the threshold (0 at or below it).
+ * Worked in whole hundredths (the comparison the harvest grade check uses), so 15.04 % over
+ * 15.0 % is 4 hundredths: part of a 0.1 step, which counts as one.
+ */
 export function moistureSteps(moisturePct: number | null, rule: MoistureRule): number {
   if (moisturePct == null) return 0;
-  const excess = tenths(moisturePct) - tenths(rule.thresholdPct);
+  const excess = moistureExcessHundredths(moisturePct, rule.thresholdPct);
   if (excess <= 0) return 0;
-  return rule.stepPct === 1 ? Math.ceil(excess / 10) : excess;
+  return Math.ceil(excess / hundredthsOf(rule.stepPct));
 }
 
 export type DeliveryPrice = { amountYen: number; bags: number; grams: number; steps: number; deductionPerBagYen: number; netPerBagYen: number };

@@ -2,7 +2,7 @@ import "server-only";
 import type { DbOrTx } from "@/db/client";
 import { eq } from "drizzle-orm";
 import { eventOutputs, events, fields, lotSourceDeltas, lots } from "@/db/schema";
-import { MAX_MOISTURE_PCT } from "@/domain/grades";
+import { isTooMoistToGrade } from "@/domain/grades";
 import { can, canRecordOnField } from "@/domain/permissions";
 import type { HarvestInput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
@@ -22,8 +22,8 @@ export function registerHarvest(actor: SessionUser, input: HarvestInput, t: Tran
 /** Registers one harvest lot inside a transaction the caller holds. */
 export function registerHarvestInTx(tx: DbOrTx, actor: SessionUser, input: HarvestInput, t: Translate): { code: string; id: number } {
   if (!can(actor, "harvests:record-own") && !can(actor, "harvests:record-any")) throw forbidden();
-  // MAFF inspection standards: above 15.0 % moisture brown rice takes no grade.
-  if (input.moisturePct > MAX_MOISTURE_PCT && input.grade !== "out-of-grade") throw invalid({ grade: [t("validation.moistureTooHigh")] });
+  // MAFF inspection standards: above 15.0 % moisture brown rice takes no grade (nor an equivalence).
+  if (isTooMoistToGrade(input.moisturePct) && input.grade !== "out-of-grade") throw invalid({ grade: [t("validation.moistureTooHigh")] });
   const field = tx.select().from(fields).where(eq(fields.id, input.fieldId)).get();
   if (!field) throw invalid({ fieldId: [t("validation.unknownField")] });
   if (!canRecordOnField(actor, field)) throw forbidden("errors.notYourField");
