@@ -21,12 +21,16 @@ const nextHandler = app.getRequestHandler();
 const fastPath = env.GRAINLINE_FAST_PATH === "off" ? null : (await import("../server/fast-path")).serveFast;
 
 const { PEER_HEADER } = await import("../server/client-address");
+// HSTS only when the public origin is https (src/server/public-origin.ts). Set here, at run time,
+// because next.config.ts headers are fixed at build time; the fast path's replies keep it too.
+const transportSecurity = (await import("../server/public-origin")).transportSecurityHeaders();
 // WAL checkpoints in a worker thread, so no request waits for one (src/server/checkpointer.ts);
 // GRAINLINE_CHECKPOINTS=inline leaves them to SQLite's default, at commit.
 const { getSqlite } = await import("../server/db");
 const checkpointer = env.GRAINLINE_CHECKPOINTS === "inline" ? null : (await import("../server/checkpointer")).startCheckpointer(getSqlite());
 
 const server = http.createServer((req, res) => {
+  for (const [name, value] of transportSecurity) res.setHeader(name, value);
   if (fastPath?.(req, res)) return;
   // The socket's own peer, for sign-in throttling; whatever a client sent under this name is
   // replaced. (The fast routes do not throttle; they never read it.)

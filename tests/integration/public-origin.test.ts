@@ -2,12 +2,15 @@
 // the request names. The attack is OWASP's "host header injection" (Web Security Testing Guide,
 // WSTG-INPV-17): a forged Host or X-Forwarded-Host makes a password-reset e-mail carry its token
 // to the attacker's server.
+import http from "node:http";
+import type { AddressInfo } from "node:net";
 import { desc } from "drizzle-orm";
 import jsQR from "jsqr";
 import { PNG } from "pngjs";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
 import { outbox } from "@/db/schema";
 import { getDb } from "@/server/db";
+import { serveFast } from "@/server/fast-path";
 import { publicOrigin, transportSecurityHeaders } from "@/server/public-origin";
 import { POST as inviteRoute } from "../../app/api/users/route";
 import { GET as labelPng } from "../../app/api/lots/[code]/label.png/route";
@@ -49,6 +52,23 @@ describe("the public origin", () => {
     expect(transportSecurityHeaders({ GRAINLINE_ORIGIN: CONFIGURED })).toEqual([["Strict-Transport-Security", "max-age=31536000"]]);
     expect(transportSecurityHeaders({ GRAINLINE_ORIGIN: "http://brewery.example" })).toEqual([]);
     expect(transportSecurityHeaders({ PORT: "3000" })).toEqual([]);
+  });
+
+  it("the header src/cli/serve.ts sets before the fast path survives the fast path's reply", async () => {
+    const server = http.createServer((req, res) => {
+      for (const [name, value] of transportSecurityHeaders({ GRAINLINE_ORIGIN: CONFIGURED })) res.setHeader(name, value);
+      if (!serveFast(req, res)) res.writeHead(599).end();
+    });
+    await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
+    try {
+      const { port } = server.address() as AddressInfo;
+      const res = await fetch(`http://127.0.0.1:${port}/api/lots/H26-0001`, { headers: { cookie: admin } });
+      expect(res.status).toBe(200);
+      expect(res.headers.get("strict-transport-security")).toBe("max-age=31536000");
+      expect(res.headers.get("x-frame-options")).toBe("DENY");
+    } finally {
+      await new Promise((resolve) => server.close(resolve));
+    }
   });
 });
 
