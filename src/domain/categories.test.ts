@@ -1,10 +1,12 @@
 import { describe, expect, it } from "vitest";
-import { assessCategories, type CategoryFacts } from "./categories";
+import { alcoholAs95Kg, assessCategories, type CategoryFacts } from "./categories";
 
 // Boundaries from the NTA labelling standard (清酒の製法品質表示基準, NTA Notification No. 8
 // of 1989 as amended in 2003), as tabled in ../shared/references.md.
-const base: CategoryFacts = { polishingRatioPct: 50, kojiRatioPct: 20, lowestGrade: "1", addedAlcoholKg: 0, polishedRiceKg: 1000, ginjoMethod: true };
-const eligible = (f: Partial<CategoryFacts>) => assessCategories({ ...base, ...f }).filter((v) => v.eligible).map((v) => v.name);
+const base: CategoryFacts = { polishingRatioPct: 50, kojiRatioPct: 20, lowestGrade: "1", addedAlcoholKg: 0, addedAlcohol95Kg: 0, polishedRiceKg: 1000, ginjoMethod: true };
+// Alcohol given at 95 % unless a test says otherwise: its weight is then its 95 % weight.
+const eligible = (f: Partial<CategoryFacts>) => assessCategories(facts(f)).filter((v) => v.eligible).map((v) => v.name);
+const facts = (f: Partial<CategoryFacts>): CategoryFacts => ({ ...base, addedAlcohol95Kg: f.addedAlcoholKg ?? 0, ...f });
 
 describe("premium categories at their boundaries", () => {
   it("50 % with the ginjo method and no alcohol: junmai daiginjo and every junmai below it", () => {
@@ -24,9 +26,9 @@ describe("premium categories at their boundaries", () => {
 
   it("alcohol at exactly 10 % of the rice weight qualifies; above it does not", () => {
     expect(eligible({ addedAlcoholKg: 100 })).toEqual(["daiginjo", "ginjo", "tokubetsu honjozo", "honjozo"]);
-    const over = assessCategories({ ...base, addedAlcoholKg: 100.5 }).find((v) => v.name === "honjozo")!;
+    const over = assessCategories(facts({ addedAlcoholKg: 100.5 })).find((v) => v.name === "honjozo")!;
     expect(over.eligible).toBe(false);
-    expect(over.reasons).toEqual(["added alcohol 10.05 % of the rice weight is above 10 %"]);
+    expect(over.reasons).toEqual(["added alcohol 10.05 % of the rice weight (as 95 % alcohol) is above 10 %"]);
   });
 
   it("koji rice at 15 % qualifies; 14.9 % does not, for any premium category", () => {
@@ -42,5 +44,71 @@ describe("premium categories at their boundaries", () => {
 
   it("a special method lets tokubetsu categories pass the 60 % limit", () => {
     expect(eligible({ polishingRatioPct: 65, ginjoMethod: false, specialMethod: true })).toEqual(["tokubetsu junmai", "junmai"]);
+  });
+});
+
+describe("tokubetsu categories are kinds of their parent (NTA labelling standard; ../shared/references.md)", () => {
+  // The special method stands in for the 60 % limit only. Tokubetsu honjozo is a honjozo, so
+  // honjozo's 70 % still binds; tokubetsu junmai is a junmai, and junmai has had no polishing
+  // limit since the 2003 amendment (in force 2004), so none binds it beyond junmai's own rules.
+  const special = { ginjoMethod: false, specialMethod: true, addedAlcoholKg: 50 };
+
+  it("72 % with a special method and alcohol within the limit: neither tokubetsu honjozo nor honjozo", () => {
+    expect(eligible({ ...special, polishingRatioPct: 72 })).toEqual([]);
+    const verdict = assessCategories(facts({ ...special, polishingRatioPct: 72 })).find((v) => v.name === "tokubetsu honjozo")!;
+    expect(verdict.reasons).toEqual(["polishing ratio 72 % is above 70 %"]);
+  });
+
+  it("65 % with a special method: tokubetsu honjozo and honjozo; 70 % still; 70.1 % no longer", () => {
+    expect(eligible({ ...special, polishingRatioPct: 65 })).toEqual(["tokubetsu honjozo", "honjozo"]);
+    expect(eligible({ ...special, polishingRatioPct: 70 })).toEqual(["tokubetsu honjozo", "honjozo"]);
+    expect(eligible({ ...special, polishingRatioPct: 70.1 })).toEqual([]);
+  });
+
+  it("65 % without a special method: honjozo only", () => {
+    expect(eligible({ ...special, specialMethod: false, polishingRatioPct: 65 })).toEqual(["honjozo"]);
+  });
+
+  it("tokubetsu junmai keeps junmai's rules: 72 % with a special method and no alcohol qualifies, with alcohol it does not", () => {
+    expect(eligible({ ginjoMethod: false, specialMethod: true, polishingRatioPct: 72 })).toEqual(["tokubetsu junmai", "junmai"]);
+    expect(eligible({ ...special, polishingRatioPct: 55 })).not.toContain("tokubetsu junmai");
+    expect(eligible({ ginjoMethod: false, specialMethod: true, polishingRatioPct: 72, kojiRatioPct: 14 })).toEqual([]);
+  });
+});
+
+describe("added alcohol is weighed as 95 % alcohol (NTA labelling standard, ≤ 10 % of the polished rice)", () => {
+  // Conversion by pure-alcohol content, kg × strength ÷ 95: references.md's worked example,
+  // 30 kg at 30 % ≈ 9.47 kg at 95 %. From memory of the standard's definitions ("converted to
+  // 95 %"); the densities of the mixtures are not applied.
+  it("converts 30 kg at 30 % to about 9.47 kg at 95 %, and 95 % alcohol to itself", () => {
+    expect(alcoholAs95Kg(30, 30)).toBeCloseTo(9.4737, 4);
+    expect(alcoholAs95Kg(40, 95)).toBe(40);
+  });
+
+  it("300 kg of 30 % alcohol on 1,000 kg of rice is 94.7 kg at 95 %: within 10 %, honjozo", () => {
+    const f = { polishingRatioPct: 68, ginjoMethod: false, addedAlcoholKg: 300, addedAlcohol95Kg: alcoholAs95Kg(300, 30) };
+    expect(eligible(f)).toEqual(["honjozo"]);
+  });
+
+  it("330 kg of 30 % alcohol on 1,000 kg of rice is 104.2 kg at 95 %: above 10 %, no honjozo", () => {
+    const verdict = assessCategories(facts({ polishingRatioPct: 68, ginjoMethod: false, addedAlcoholKg: 330, addedAlcohol95Kg: alcoholAs95Kg(330, 30) })).find((v) => v.name === "honjozo")!;
+    expect(verdict.eligible).toBe(false);
+    expect(verdict.reasons).toEqual(["added alcohol 10.42 % of the rice weight (as 95 % alcohol) is above 10 %"]);
+  });
+
+  it("any alcohol at all rules out the junmai categories, whatever its strength", () => {
+    expect(eligible({ addedAlcoholKg: 1, addedAlcohol95Kg: alcoholAs95Kg(1, 30) })).not.toContain("junmai");
+  });
+});
+
+describe("rice certified equivalent to 3rd grade or better", () => {
+  it("counts for the premium categories like 3rd grade", () => {
+    expect(eligible({ lowestGrade: "equivalent" })).toEqual(["junmai daiginjo", "junmai ginjo", "tokubetsu junmai", "junmai"]);
+  });
+
+  it("does not count while a lot graded equivalent has no certificate attached, and says which", () => {
+    const verdicts = assessCategories(facts({ lowestGrade: "equivalent", uncertifiedEquivalentLots: ["H26-0007"] }));
+    expect(verdicts.every((v) => !v.eligible)).toBe(true);
+    expect(verdicts[0]!.reasons).toEqual(["rice graded equivalent to 3rd grade has no certificate attached (H26-0007)"]);
   });
 });

@@ -1,10 +1,11 @@
 import "server-only";
-import { sql } from "drizzle-orm";
+import { eq, inArray, sql } from "drizzle-orm";
+import { attachments, lots } from "@/db/schema";
 import { assessCategories, type CategoryFacts, type CategoryVerdict } from "@/domain/categories";
 import { lowestGrade, type Grade } from "@/domain/grades";
 import { getDb } from "./db";
 import { invalid } from "./errors";
-import { addedAlcoholKg, kojiFraction } from "./tanks";
+import { addedAlcohol, kojiFraction } from "./tanks";
 import { sourcesOf, traceHead } from "./trace";
 import type { SessionUser } from "./session";
 import type { Translate } from "@/lib/validation/field-errors";
@@ -36,17 +37,33 @@ function highestPolishingRatio(tankId: number): number | null {
   return ratios.length ? Math.max(...ratios) : null;
 }
 
+/**
+ * Harvest lots graded "equivalent" that carry no attachment: the certificate of equivalence
+ * (any file attached to the harvest lot) is what lets such rice count as 3rd grade or better.
+ */
+function uncertifiedEquivalentLots(codes: string[]): string[] {
+  if (!codes.length) return [];
+  const certified = new Set(
+    getDb().selectDistinct({ code: lots.code }).from(lots).innerJoin(attachments, eq(attachments.lotId, lots.id)).where(inArray(lots.code, codes)).all().map((r) => r.code),
+  );
+  return codes.filter((c) => !certified.has(c)).sort();
+}
+
 export function tankFacts(tank: { id: number; contentIn: number; attributes: string }): CategoryFacts {
-  const grades = sourcesOf(tank.id, tank.contentIn).map((s) => s.grade).filter((g): g is Grade => g !== null);
+  const sources = sourcesOf(tank.id, tank.contentIn);
+  const grades = sources.map((s) => s.grade).filter((g): g is Grade => g !== null);
+  const alcohol = addedAlcohol(tank.id);
   const attributes = JSON.parse(tank.attributes) as { ginjoMethod?: boolean; specialMethod?: boolean };
   return {
     polishingRatioPct: highestPolishingRatio(tank.id),
     kojiRatioPct: tank.contentIn > 0 ? kojiFraction(tank.id) * 100 : null,
     lowestGrade: lowestGrade(grades),
-    addedAlcoholKg: addedAlcoholKg(tank.id),
+    addedAlcoholKg: alcohol.kg,
+    addedAlcohol95Kg: alcohol.kg95,
     polishedRiceKg: tank.contentIn,
     ginjoMethod: attributes.ginjoMethod === true,
     specialMethod: attributes.specialMethod === true,
+    uncertifiedEquivalentLots: uncertifiedEquivalentLots(sources.filter((s) => s.grade === "equivalent").map((s) => s.code)),
   };
 }
 
@@ -76,10 +93,13 @@ export function claimsForLot(lot: { id: number; code: string; kind: string }, t:
     kojiRatioPct: worst(facts.map((f) => f.kojiRatioPct).filter((v): v is number => v !== null), Math.min),
     lowestGrade: lowestGrade(facts.map((f) => f.lowestGrade).filter((g): g is Grade => g !== null)),
     addedAlcoholKg: facts.reduce((a, f) => a + f.addedAlcoholKg, 0),
+    // Extension: the same converted to 95 % alcohol, the weight the 10 % limit is judged on.
+    addedAlcohol95Kg: facts.reduce((a, f) => a + f.addedAlcohol95Kg, 0),
     ginjoMethod: facts.length > 0 && facts.every((f) => f.ginjoMethod),
     tanks: tanks.map((x) => ({ code: x.code, ...x.facts })),
     categories,
+    caution: t("caution.labelling"),
   };
 }
 
-const emptyFacts: CategoryFacts = { polishingRatioPct: null, kojiRatioPct: null, lowestGrade: null, addedAlcoholKg: 0, polishedRiceKg: 0, ginjoMethod: false };
+const emptyFacts: CategoryFacts = { polishingRatioPct: null, kojiRatioPct: null, lowestGrade: null, addedAlcoholKg: 0, addedAlcohol95Kg: 0, polishedRiceKg: 0, ginjoMethod: false };

@@ -1,6 +1,7 @@
 import "server-only";
 import type { DbOrTx } from "@/db/client";
 import { ADDITIONS, KOJI_CHECKPOINTS, RICE_USES, checkBand, kojiMeasurementName, steamedGainPct, waterAbsorptionPct, type Band, type RiceUse } from "@/domain/brewing";
+import { ADDED_ALCOHOL_KG, ADDED_ALCOHOL_STRENGTH_PCT } from "@/domain/categories";
 import { contentOfDraw } from "@/domain/composition";
 import { isValidGtin } from "@/domain/gtin";
 import { roundPct } from "@/domain/polishing";
@@ -40,6 +41,7 @@ export function checkFloorStep(tx: DbOrTx, step: RecordableStep, input: EventInp
     return check;
   };
   const useOf = (o: Out | undefined) => (o?.spec?.use as string | undefined) ?? undefined;
+  checkAddedAlcohol(input, held, outs, t);
 
   switch (step) {
     case "soaking": {
@@ -145,4 +147,27 @@ export function checkFloorStep(tx: DbOrTx, step: RecordableStep, input: EventInp
       return null;
   }
   return result;
+}
+
+/**
+ * Brewing alcohol is recorded with its strength: the labelling standard weighs it converted to
+ * 95 % alcohol (src/domain/categories.ts), and 30 kg at 30 % is a third of 30 kg at 95 %. One
+ * addition and one strength per lot in an event, so that each weight pairs with its strength.
+ */
+function checkAddedAlcohol(input: EventInput, held: LotRow[], outs: Out[], t: Translate) {
+  // A reading that names no lot lands on the first lot made, else the first lot drawn (writeMeasurements).
+  const fallback = outs.some((o) => !o.existing) ? "" : (held[0]?.code ?? "");
+  const lotOf = (m: EventInput["measurements"][number]) => m.lot ?? fallback;
+  const errors: FieldErrors = {};
+  for (const lot of new Set(input.measurements.map(lotOf))) {
+    const readings = input.measurements.filter((m) => lotOf(m) === lot);
+    const kg = readings.filter((m) => m.name === ADDED_ALCOHOL_KG);
+    const strength = readings.filter((m) => m.name === ADDED_ALCOHOL_STRENGTH_PCT);
+    if (!kg.length && !strength.length) continue;
+    if (kg.length !== 1 || strength.length > 1) errors[`measurements.${ADDED_ALCOHOL_KG}`] = [t("floor.alcoholOncePerLot")];
+    else if (!(kg[0]!.value > 0)) errors[`measurements.${ADDED_ALCOHOL_KG}`] = [t("floor.alcoholWeight")];
+    if (!strength.length) errors[`measurements.${ADDED_ALCOHOL_STRENGTH_PCT}`] = [t("floor.alcoholStrengthNeeded")];
+    else if (!(strength[0]!.value > 0 && strength[0]!.value <= 100)) errors[`measurements.${ADDED_ALCOHOL_STRENGTH_PCT}`] = [t("floor.alcoholStrength")];
+  }
+  if (Object.keys(errors).length) throw invalid(errors);
 }

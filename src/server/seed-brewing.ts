@@ -76,7 +76,7 @@ export function seedBrewSeason(tx: DbOrTx, u: Users) {
     rec(u.brewer, { step: "mash-addition", at: day(start, 19), attributes: { addition: "middle" }, inputs: [{ lot: koji, quantity: kojiPart(0.3) }, { lot: mid!, quantity: parts[1]! }], outputs: [{ lot: tank, quantity: r1(kojiPart(0.3) + parts[1]! + (2 * water) / 7) }], measurements: [m("waterL", (2 * water) / 7, "L")] });
     const lastKoji = r1(kojiKg - kojiPart(0.1) - kojiPart(0.2) - kojiPart(0.3));
     rec(u.brewer, { step: "mash-addition", at: day(start, 20), attributes: { addition: "final" }, inputs: [{ lot: koji, quantity: lastKoji }, { lot: fin!, quantity: parts[2]! }], outputs: [{ lot: tank, quantity: r1(lastKoji + parts[2]! + (4 * water) / 7) }], measurements: [m("waterL", (4 * water) / 7, "L")] });
-    if (alcoholKg > 0) rec(u.brewer, { step: "measuring", at: day(start, 44), inputs: [{ lot: tank, quantity: 0 }], measurements: [m("addedAlcoholKg", alcoholKg, "kg")] });
+    if (alcoholKg > 0) rec(u.brewer, { step: "measuring", at: day(start, 44), inputs: [{ lot: tank, quantity: 0 }], measurements: [m("addedAlcoholKg", alcoholKg, "kg"), m("addedAlcoholStrengthPct", 95, "%")] });
     return tank;
   };
   const press = (tank: string, onHand: number, rice: number, date: string) =>

@@ -2,6 +2,7 @@ import "server-only";
 import { and, asc, eq, sql } from "drizzle-orm";
 import { eventOutputs, events, lots } from "@/db/schema";
 import { kojiRatioPct, waterRatioPct } from "@/domain/brewing";
+import { ADDED_ALCOHOL_KG, ADDED_ALCOHOL_STRENGTH_PCT, REFERENCE_ALCOHOL_PCT } from "@/domain/categories";
 import { roundPct } from "@/domain/polishing";
 import { getDb } from "./db";
 import { notFound } from "./errors";
@@ -47,12 +48,18 @@ function waterInto(tankId: number): number {
   return (direct?.w ?? 0) + (viaStarter?.w ?? 0);
 }
 
-/** Distilled alcohol recorded on a tank (kg), leaving out readings that were corrected. */
-export function addedAlcoholKg(tankId: number): number {
-  const row = getDb().get<{ kg: number | null }>(sql`
-    select sum(m.value) as kg from measurements m join events e on e.id = m.event_id
-    where m.lot_id = ${tankId} and m.name = 'addedAlcoholKg' and not exists (select 1 from events c where c.corrects = e.id)`);
-  return row?.kg ?? 0;
+/**
+ * Distilled alcohol recorded on a tank, leaving out readings that were corrected: kg as added,
+ * and kg converted to 95 % alcohol with the strength recorded beside it in the same event.
+ * Readings from before the strength was recorded count as 95 %, the most they can weigh.
+ */
+export function addedAlcohol(tankId: number): { kg: number; kg95: number } {
+  const row = getDb().get<{ kg: number | null; kg95: number | null }>(sql`
+    select sum(m.value) as kg, sum(m.value * coalesce(s.value, ${REFERENCE_ALCOHOL_PCT}) / ${REFERENCE_ALCOHOL_PCT}) as kg95
+    from measurements m join events e on e.id = m.event_id
+    left join measurements s on s.event_id = m.event_id and s.lot_id = m.lot_id and s.name = ${ADDED_ALCOHOL_STRENGTH_PCT}
+    where m.lot_id = ${tankId} and m.name = ${ADDED_ALCOHOL_KG} and not exists (select 1 from events c where c.corrects = e.id)`);
+  return { kg: row?.kg ?? 0, kg95: row?.kg95 ?? 0 };
 }
 
 export function tankSummary(actor: SessionUser, code: string) {
@@ -75,6 +82,7 @@ export function tankSummary(actor: SessionUser, code: string) {
   const totalRiceKg = tank.contentIn;
   const kojiRiceKg = kojiFraction(id) * totalRiceKg;
   const waterL = waterInto(id);
+  const alcohol = addedAlcohol(id);
   return {
     code: tank.code,
     name: (JSON.parse(tank.attributes).tankName as string | undefined) ?? tank.code,
@@ -84,7 +92,8 @@ export function tankSummary(actor: SessionUser, code: string) {
     kojiRatioPct: totalRiceKg > 0 ? roundPct(kojiRatioPct(kojiRiceKg, totalRiceKg)) : null,
     waterL,
     waterRatioPct: totalRiceKg > 0 ? roundPct(waterRatioPct(waterL, totalRiceKg)) : null,
-    addedAlcoholKg: addedAlcoholKg(id),
+    addedAlcoholKg: alcohol.kg,
+    addedAlcohol95Kg: alcohol.kg95,
     additions,
   };
 }
