@@ -1,5 +1,6 @@
 import type { NextConfig } from "next";
 import createNextIntlPlugin from "next-intl/plugin";
+import { MAX_BODY_BYTES } from "./src/server/body-limits";
 import { SECURITY_HEADERS } from "./src/server/security-headers";
 
 const withNextIntl = createNextIntlPlugin("./src/i18n/request.ts");
@@ -7,7 +8,8 @@ const withNextIntl = createNextIntlPlugin("./src/i18n/request.ts");
 const nextConfig: NextConfig = {
   poweredByHeader: false,
   // forbidden() from next/navigation renders app/forbidden.tsx with a 403.
-  experimental: { authInterrupts: true },
+  // Server actions take the same 1 MiB as every other request (src/server/body-limits.ts).
+  experimental: { authInterrupts: true, serverActions: { bodySizeLimit: MAX_BODY_BYTES } },
   serverExternalPackages: ["better-sqlite3", "@node-rs/argon2", "@zxing/library"],
   async headers() {
     return [{ source: "/:path*", headers: [...SECURITY_HEADERS] }];

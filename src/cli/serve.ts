@@ -20,7 +20,7 @@ const nextHandler = app.getRequestHandler();
 // GRAINLINE_FAST_PATH=off sends everything through Next (to compare, or if the fast path misbehaves).
 const fastPath = env.GRAINLINE_FAST_PATH === "off" ? null : (await import("../server/fast-path")).serveFast;
 
-const { PEER_HEADER } = await import("../server/client-address");
+const { frontDoor } = await import("../server/front-door");
 // HSTS only when the public origin is https (src/server/public-origin.ts). Set here, at run time,
 // because next.config.ts headers are fixed at build time; the fast path's replies keep it too.
 const transportSecurity = (await import("../server/public-origin")).transportSecurityHeaders();
@@ -29,18 +29,19 @@ const transportSecurity = (await import("../server/public-origin")).transportSec
 const { getSqlite } = await import("../server/db");
 const checkpointer = env.GRAINLINE_CHECKPOINTS === "inline" ? null : (await import("../server/checkpointer")).startCheckpointer(getSqlite());
 
-const server = http.createServer((req, res) => {
-  for (const [name, value] of transportSecurity) res.setHeader(name, value);
-  if (fastPath?.(req, res)) return;
-  // The socket's own peer, for sign-in throttling; whatever a client sent under this name is
-  // replaced. (The fast routes do not throttle; they never read it.)
-  req.headers[PEER_HEADER] = req.socket.remoteAddress ?? "";
+// Malformed paths (400) and bodies over their limit (413) are answered before anything reads
+// the body; then the fast path, else Next (src/server/front-door.ts).
+const handle = frontDoor(fastPath, (req, res) => {
   nextHandler(req, res).catch((error: unknown) => {
     // Next answers its own errors; this is one it could not, so the request still gets an answer.
     console.error(error);
     if (!res.headersSent) res.writeHead(500, { "content-type": "text/plain; charset=utf-8" });
     res.end("Something went wrong on our side.");
   });
+});
+const server = http.createServer((req, res) => {
+  for (const [name, value] of transportSecurity) res.setHeader(name, value);
+  handle(req, res);
 });
 server.listen(port, hostname, () => console.log(`Grainline is listening on http://${hostname ?? "localhost"}:${port}`));
 
