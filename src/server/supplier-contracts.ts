@@ -3,7 +3,7 @@ import { and, desc, eq, sql } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { parties, supplierContracts, users } from "@/db/schema";
 import { can } from "@/domain/permissions";
-import { GRADES, MAX_MOISTURE_PCT } from "@/domain/grades";
+import { GRADES } from "@/domain/grades";
 import type { GrowerTerms, MillTerms } from "@/domain/supplier-prices";
 import type { Translate } from "@/lib/validation/field-errors";
 import { growerContractSchema, millContractSchema, parseSupplierInput } from "@/lib/validation/suppliers";
@@ -41,7 +41,7 @@ export function addGrowerContract(actor: SessionUser, partyId: string, raw: unkn
   if (!can(actor, "ledger:manage")) throw forbidden();
   const input = parseSupplierInput(growerContractSchema, raw, t, (f) => invalid(f));
   const prices = Object.fromEntries(GRADES.flatMap((g) => (input.prices[g] === undefined ? [] : [[g, input.prices[g]]])));
-  const terms: GrowerTerms = { pricesPerBagYen: prices, moisture: { thresholdPct: MAX_MOISTURE_PCT, stepPct: input.moistureStepPct, deductionYenPerBagPerStep: input.moistureDeductionYen } };
+  const terms: GrowerTerms = { pricesPerBagYen: prices, moisture: { thresholdPct: input.moistureThresholdPct, stepPct: input.moistureStepPct, deductionYenPerBagPerStep: input.moistureDeductionYen } };
   return db.transaction((tx) => {
     supplier(tx, partyId, "grower", t);
     return appendVersion(tx, actor, { partyId, kind: "grower", scope: growerScope(input.variety, input.cropYear), variety: input.variety, cropYear: input.cropYear, terms: JSON.stringify(terms), note: input.note });

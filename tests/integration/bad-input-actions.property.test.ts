@@ -67,7 +67,7 @@ const CASES: Case[] = [
     file: "app/(office)/suppliers/[partyId]/actions.ts",
     name: "addGrowerContractAction",
     who: "admin",
-    base: () => ({ partyId: "grower-ikeda", variety: "Omachi", cropYear: "2026", "price-tokujo": "30000", "price-tokuto": "29000", "price-1": "27000", "price-2": "25000", "price-3": "23000", "price-out-of-grade": "", moistureStepPct: "0.1", moistureDeductionYen: "100", note: "" }),
+    base: () => ({ partyId: "grower-ikeda", variety: "Omachi", cropYear: "2026", "price-tokujo": "30000", "price-tokuto": "29000", "price-1": "27000", "price-2": "25000", "price-3": "23000", "price-equivalent": "22000", "price-out-of-grade": "", moistureThresholdPct: "14.5", moistureStepPct: "0.1", moistureDeductionYen: "100", note: "" }),
   },
   {
     file: "app/(office)/suppliers/[partyId]/actions.ts",

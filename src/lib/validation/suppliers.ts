@@ -1,5 +1,6 @@
 import { z } from "zod";
-import { GRADES } from "@/domain/grades";
+import { GRADES, hundredthsOf, MAX_MOISTURE_PCT } from "@/domain/grades";
+import type { MoistureStepPct } from "@/domain/supplier-prices";
 import { isInvoiceNumber, normaliseInvoiceNumber } from "@/domain/invoice-number";
 import { ROUNDINGS } from "@/domain/money";
 import { ENTRY_RATES } from "@/domain/tax";
@@ -25,7 +26,12 @@ export const growerContractSchema = z.object({
   variety: text(60).min(1),
   cropYear: figure(2000, 2100).pipe(z.number().int()),
   prices: z.object(Object.fromEntries(GRADES.map((g) => [g, optionalYen(0)])) as Record<(typeof GRADES)[number], ReturnType<typeof optionalYen>>),
-  moistureStepPct: z.union([z.literal("0.1"), z.literal("1"), z.literal(0.1), z.literal(1)]).transform((v) => Number(v) as 0.1 | 1),
+  moistureStepPct: z.union([z.literal("0.1"), z.literal("0.5"), z.literal("1"), z.literal(0.1), z.literal(0.5), z.literal(1)]).transform((v) => Number(v) as MoistureStepPct),
+  // The contract's own threshold; left blank, the MAFF ceiling for graded brown rice (15.0 %).
+  moistureThresholdPct: z
+    .preprocess((v) => (typeof v === "string" && v.trim() === "" ? undefined : v), figure(10, 20).optional())
+    .refine((v) => v === undefined || Math.abs(v * 100 - hundredthsOf(v)) < 1e-6, { message: "suppliers.validation.hundredths" })
+    .transform((v) => v ?? MAX_MOISTURE_PCT),
   moistureDeductionYen: yen(0, 1_000_000),
   note: text(500).default(""),
 }).refine((c) => Object.values(c.prices).some((p) => p !== undefined), { path: ["prices"], message: "suppliers.validation.needsPrice" });

@@ -32,7 +32,7 @@ export async function addGrowerContractAction(_prev: FormState, formData: FormDa
   const values = formValues(formData);
   return guardAction(values, async (t) => {
     const prices = Object.fromEntries(GRADES.map((g) => [g, values[`price-${g}`] ?? ""]));
-    const raw = { variety: values.variety, cropYear: values.cropYear, prices, moistureStepPct: values.moistureStepPct, moistureDeductionYen: values.moistureDeductionYen, note: values.note ?? "" };
+    const raw = { variety: values.variety, cropYear: values.cropYear, prices, moistureStepPct: values.moistureStepPct, moistureThresholdPct: values.moistureThresholdPct ?? "", moistureDeductionYen: values.moistureDeductionYen, note: values.note ?? "" };
     const { version } = addGrowerContract(await requireUser(), values.partyId ?? "", raw, t);
     done(values.partyId ?? "");
     return { ok: true, message: t("suppliers.growerContract.saved", { version }) };

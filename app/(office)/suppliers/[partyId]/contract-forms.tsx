@@ -22,7 +22,8 @@ export function ContractsTable({ rows }: { rows: ContractRow[] }) {
     }
     const g = r.terms as GrowerTerms;
     const prices = GRADES.filter((grade) => g.pricesPerBagYen[grade] !== undefined).map((grade) => t("terms.price", { grade: tl(`grades.${grade}`), price: n(g.pricesPerBagYen[grade]!) })).join(", ");
-    return t("terms.grower", { prices, deduction: n(g.moisture.deductionYenPerBagPerStep), step: String(g.moisture.stepPct) });
+    // Contracts written before thresholds were set per contract started at the MAFF ceiling, 15.0 %.
+    return t("terms.grower", { prices, deduction: n(g.moisture.deductionYenPerBagPerStep), step: String(g.moisture.stepPct), threshold: format.number(g.moisture.thresholdPct ?? 15, { minimumFractionDigits: 1 }) });
   };
   const columns: ColumnDef<ContractRow, any>[] = [
     { id: "scope", accessorFn: (r) => (r.kind === "mill" ? t("kindLabels.mill") : `${r.variety} ${r.cropYear}`), header: t("columns.scope") },
@@ -53,14 +54,17 @@ export function GrowerContractForm({ partyId, defaultYear }: { partyId: string; 
       </fieldset>
       <fieldset className="grid gap-3 sm:col-span-3 sm:grid-cols-3">
         <legend className="field-label mb-1">{t("moistureLegend")}</legend>
+        <FormField label={t("threshold")} name="moistureThresholdPct" inputMode="decimal" defaultValue={f.v("moistureThresholdPct", "15.0")} errors={f.state.fields?.moistureThresholdPct} aria-describedby={f.state.fields?.moistureThresholdPct ? "moistureThresholdPct-error moisture-threshold-hint" : "moisture-threshold-hint"} />
         <div>
           <label htmlFor="moistureStepPct" className="field-label">{t("step")}</label>
           <select id="moistureStepPct" name="moistureStepPct" className="field-input" defaultValue={f.v("moistureStepPct", "0.1")}>
             <option value="0.1">{t("stepTenth")}</option>
+            <option value="0.5">{t("stepHalf")}</option>
             <option value="1">{t("stepPoint")}</option>
           </select>
         </div>
         <FormField label={t("deduction")} name="moistureDeductionYen" inputMode="numeric" defaultValue={f.v("moistureDeductionYen", "0")} errors={f.state.fields?.moistureDeductionYen} />
+        <p id="moisture-threshold-hint" className="text-xs text-ink-soft sm:col-span-3">{t("thresholdHint")}</p>
       </fieldset>
     </SupplierForm>
   );
