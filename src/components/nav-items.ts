@@ -1,4 +1,5 @@
 import { can, type Actor, type Permission } from "@/domain/permissions";
+import { STEP_RULES } from "@/domain/steps";
 
 export type NavItem = { href: string; label: string; show: (actor: Actor) => boolean };
 
@@ -17,6 +18,7 @@ export const OFFICE_NAV: NavItem[] = [
   { href: "/account", label: "account", show: (a) => can(a, "ledger:read-own") },
   { href: "/suppliers", label: "suppliers", show: (a) => can(a, "ledger:read-all") },
   { href: "/receive", label: "receive", show: (a) => can(a, "polishing:record") || can(a, "brewing:record") },
+  { href: "/dispatch", label: "dispatch", show: (a) => STEP_RULES.shipping.permission.some((p) => can(a, p)) },
   { href: "/scan", label: "scan", show: (a) => can(a, "brewing:record") },
   { href: "/provenance", label: "provenance", show: (a) => can(a, "provenance:read") },
   { href: "/recall", label: "recall", show: (a) => can(a, "provenance:read") || can(a, "records:read-all") },

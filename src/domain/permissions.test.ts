@@ -9,6 +9,7 @@ import {
   canReadFieldsOf,
   canReadLedgerOf,
   canSeeLot,
+  canDispatchLot,
   canRecordOnField,
   type Actor,
 } from "./permissions";
@@ -66,6 +67,24 @@ describe("ownership predicates", () => {
     expect(canSeeLot(actor("miller", "m-2"), lot)).toBe(false);
     expect(canSeeLot(actor("auditor"), lot)).toBe(true);
     expect(canSeeLot(null, lot)).toBe(false);
+  });
+
+  it("shows a dispatched lot to the party it is addressed to, and to no other", () => {
+    const sent = { partyId: "g-1", originPartyId: "g-1", inTransitTo: "m-1" };
+    expect(canSeeLot(actor("miller", "m-1"), sent)).toBe(true);
+    expect(canSeeLot(actor("miller", "m-2"), sent)).toBe(false);
+    expect(canSeeLot(actor("miller", "m-1"), { ...sent, inTransitTo: null })).toBe(false);
+  });
+
+  it("lets the holder dispatch: a grower only its own harvest, mill and brewery staff their lots, the office any", () => {
+    const harvest = { kind: "harvest", partyId: "g-1" };
+    expect(canDispatchLot(actor("grower", "g-1"), harvest)).toBe(true);
+    expect(canDispatchLot(actor("grower", "g-2"), harvest)).toBe(false);
+    expect(canDispatchLot(actor("grower", "g-1"), { kind: "polished", partyId: "g-1" })).toBe(false);
+    expect(canDispatchLot(actor("miller", "m-1"), harvest)).toBe(false); // not the holder
+    expect(canDispatchLot(actor("miller", "m-1"), { kind: "polished", partyId: "m-1" })).toBe(true);
+    expect(canDispatchLot(actor("admin", "b-1"), harvest)).toBe(true);
+    for (const role of ["sales", "auditor"] as const) expect(canDispatchLot(actor(role, "g-1"), harvest)).toBe(false);
   });
 
   it("shows suppliers only their own ledger", () => {

@@ -14,6 +14,7 @@ export const PERMISSIONS = [
   "fields:write-any",
   "harvests:record-own",
   "harvests:record-any",
+  "harvests:dispatch-own",
   "polishing:record",
   "brewing:record",
   "provenance:read",
@@ -49,7 +50,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
     "attachments:add",
   ],
   brewer: ["fields:read-all", "brewing:record", "provenance:read", "records:read-all", "attachments:add"],
-  grower: ["fields:write-own", "harvests:record-own", "ledger:read-own", "attachments:add"],
+  grower: ["fields:write-own", "harvests:record-own", "harvests:dispatch-own", "ledger:read-own", "attachments:add"],
   miller: ["polishing:record", "ledger:read-own", "attachments:add"],
   sales: ["fields:read-all", "provenance:read", "records:read-all"],
   auditor: ["audit:read", "fields:read-all", "provenance:read", "records:read-all", "ledger:read-all"],
@@ -102,12 +103,22 @@ export function canActOnLot(actor: Actor | null, lot: { partyId: string }): bool
 
 /**
  * Whether a lot exists as far as this user can tell: roles that read all records see every
- * lot, others the lots their party holds or made (the same rule as `visibleTo` in
- * src/server/lots.ts). A lot outside it answers as unknown, never as forbidden.
+ * lot, others the lots their party holds or made, or a dispatch addressed to it (the same
+ * rule as `visibleTo` in src/server/lots.ts). A lot outside it answers as unknown, never as forbidden.
  */
-export function canSeeLot(actor: Actor | null, lot: { partyId: string; originPartyId: string }): boolean {
+export function canSeeLot(actor: Actor | null, lot: { partyId: string; originPartyId: string; inTransitTo?: string | null }): boolean {
   if (can(actor, "records:read-all")) return true;
-  return Boolean(actor) && (actor!.partyId === lot.partyId || actor!.partyId === lot.originPartyId);
+  return Boolean(actor) && (actor!.partyId === lot.partyId || actor!.partyId === lot.originPartyId || actor!.partyId === lot.inTransitTo);
+}
+
+/**
+ * Sending a lot to another party (a dispatch with its slip): the holder's mill or brewery staff,
+ * the office, or a grower sending a harvest of its own — the sender's word a receipt needs.
+ */
+export function canDispatchLot(actor: Actor | null, lot: { kind: string; partyId: string }): boolean {
+  if (!canActOnLot(actor, lot)) return false;
+  if (can(actor, "polishing:record") || can(actor, "brewing:record")) return true;
+  return can(actor, "harvests:dispatch-own") && lot.kind === "harvest";
 }
 
 /** Corrections: the office, or the person who recorded the event. */

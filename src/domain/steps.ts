@@ -59,7 +59,8 @@ const RICE_AFTER_MILL: LotKind[] = ["polished", "soaked", "steamed", "koji", "st
 
 export const STEP_RULES = {
   receiving: { permission: ["polishing:record", "brewing:record"], inputKinds: "any", outputKinds: [], minInputs: 1, content: "none" },
-  shipping: { permission: ["polishing:record", "brewing:record"], inputKinds: "any", outputKinds: [], minInputs: 1, content: "none" },
+  // A grower dispatches its own harvest (the sender's word a receipt needs); see canDispatchLot.
+  shipping: { permission: ["polishing:record", "brewing:record", "harvests:dispatch-own"], inputKinds: "any", outputKinds: [], minInputs: 1, content: "none" },
   polishing: { permission: "polishing:record", inputKinds: ["harvest"], outputKinds: ["polished", "bran"], minInputs: 1, content: "restart" },
   soaking: { permission: "brewing:record", inputKinds: ["polished"], outputKinds: ["soaked"], minInputs: 1, content: "carry" },
   steaming: { permission: "brewing:record", inputKinds: ["soaked", "polished"], outputKinds: ["steamed"], minInputs: 1, content: "carry" },
@@ -80,7 +81,7 @@ export type RecordableStep = keyof typeof STEP_RULES;
  * (common practice). A mill takes in brown rice to polish; a brewery brown or polished rice, and
  * sake bought in bulk from another brewery. Lots in process (soaked and steamed rice, koji,
  * starter, a tank's mash) never leave the brewery that made them, and growers and buyers record
- * no receipts. A lot the receiver cannot see yet, of a kind outside this list, is unknown to it.
+ * no receipts. A dispatch goes only to a party that takes in the lot's kind.
  */
 export const RECEIVABLE_KINDS: Record<PartyKind, readonly LotKind[]> = {
   mill: ["harvest"],

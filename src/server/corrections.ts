@@ -9,6 +9,7 @@ import { AppError, forbidden, invalid } from "./errors";
 import { insertInChunks } from "./batch";
 import type { SessionUser } from "./session";
 import { reverseSupplierEntries } from "./supplier-entries";
+import { touchesLotInTransit } from "./receipts";
 
 const EPS = 1e-6;
 
@@ -30,6 +31,8 @@ export function correctEvent(tx: DbOrTx, actor: SessionUser, input: EventInput, 
   if (tx.select({ id: events.id }).from(events).where(eq(events.corrects, original.id)).get()) {
     throw new AppError("conflict", "errors.alreadyCorrected", { corrects: [t("validation.alreadyCorrected")] });
   }
+  const travelling = touchesLotInTransit(tx, original.id);
+  if (travelling) throw new AppError("conflict", { key: "errors.inTransit", values: { code: travelling } });
 
   const id = tx
     .insert(events)
@@ -81,17 +84,25 @@ function takeBackOutputs(tx: DbOrTx, correctionId: number, originalId: number) {
 }
 
 function returnInputs(tx: DbOrTx, correctionId: number, original: typeof events.$inferSelect) {
-  // Where a move took the lot: the receiving party, or the party shipped to.
-  const destination = original.step === "receiving" ? original.partyId : original.counterpartyId;
+  // Where a move took the lot: the receiving party. A receipt that answered a dispatch hands the
+  // lot back to its sender still on its way to the receiver (the dispatch stands until corrected).
+  const destination = original.partyId;
+  const reopens = original.step === "receiving" && (JSON.parse(original.attributes) as { dispatch?: number }).dispatch !== undefined;
   for (const input of tx.select().from(eventInputs).where(eq(eventInputs.eventId, original.id)).all()) {
-    if (input.use === "draw") {
+    if (input.use === "dispatch") {
+      // Withdrawn while open only: once received, the receipt is corrected first.
+      const withdrawn = tx.update(lots).set({ inTransitTo: null }).where(sql`${lots.id} = ${input.lotId} and ${lots.partyId} = ${original.partyId} and ${lots.inTransitTo} = ${original.counterpartyId}`).run().changes;
+      if (withdrawn === 0) throw new AppError("conflict", { key: "errors.movedSince", values: { code: lotCode(tx, input.lotId) } });
+    } else if (input.use === "draw" || input.use === "loss") {
       tx.update(lots).set({ onHand: sql`${lots.onHand} + ${input.quantity}` }).where(eq(lots.id, input.lotId)).run();
       tx.insert(eventOutputs).values({ eventId: correctionId, lotId: input.lotId, quantity: input.quantity, content: input.content }).run();
     } else if (input.use === "move" && input.previousPartyId) {
       const lot = tx.select().from(lots).where(eq(lots.id, input.lotId)).get()!;
       if (lot.partyId !== destination) throw new AppError("conflict", { key: "errors.movedSince", values: { code: lot.code } });
       tx.insert(eventInputs).values({ eventId: correctionId, lotId: lot.id, quantity: lot.onHand, content: 0, use: "move", previousPartyId: lot.partyId }).run();
-      tx.update(lots).set({ partyId: input.previousPartyId }).where(eq(lots.id, lot.id)).run();
+      tx.update(lots).set({ partyId: input.previousPartyId, ...(reopens ? { inTransitTo: original.partyId } : {}) }).where(eq(lots.id, lot.id)).run();
     }
   }
 }
+
+const lotCode = (tx: DbOrTx, id: number) => tx.select({ code: lots.code }).from(lots).where(eq(lots.id, id)).get()!.code;

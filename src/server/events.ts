@@ -1,11 +1,11 @@
 import "server-only";
 import { eq, inArray, sql } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
-import { eventInputs, eventOutputs, events, lineageEdges, lotSourceDeltas, lots, measurements, parties } from "@/db/schema";
+import { eventOutputs, lineageEdges, lotSourceDeltas, lots, parties } from "@/db/schema";
 import { carryContent, contentOfDraw, edgesOf, propagateComposition, type SourceAmounts } from "@/domain/composition";
 import { lowestGrade, type Grade } from "@/domain/grades";
-import { can, canActOnLot, canSeeLot, type Permission } from "@/domain/permissions";
-import { RECEIVABLE_KINDS, STEP_RULES, UNIT_OF_KIND, type LotKind, type RecordableStep } from "@/domain/steps";
+import { can, canActOnLot, canDispatchLot, canSeeLot } from "@/domain/permissions";
+import { STEP_RULES, UNIT_OF_KIND, type LotKind, type RecordableStep } from "@/domain/steps";
 import type { EventInput, NewOutput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
 import { insertInChunks } from "./batch";
@@ -15,13 +15,16 @@ import { createOnce, type StoredResponse } from "./idempotency";
 import { allocateLotCode } from "./lot-codes";
 import { checkFloorStep } from "./floor-steps";
 import { checkPolishingRun } from "./polishing-runs";
-import { placeholdersFor, prepared } from "./prepared";
+import { insertEvent, insertEventInput, lotByCode, requireAny, resolveEventParty, writeMeasurements, type LotRow } from "./event-rows";
+import { applyReceipt, checkDispatch, inTransit } from "./receipts";
 import { recordSupplierEntries } from "./supplier-entries";
 import type { SessionUser } from "./session";
 
-export type LotRow = typeof lots.$inferSelect;
+export { lotByCode, type LotRow } from "./event-rows";
 export type OutputSummary = { code: string; kind: LotKind; quantity: number; unit: string };
 export type EventResult = { id: number; outputs: OutputSummary[]; warnings: string[] };
+/** A receipt no dispatch matched: stored, awaiting the sender; the same answer whatever the code named. */
+export type AwaitingResult = { id: null; awaiting: "sender"; outputs: []; warnings: [] };
 
 /** Tolerance for float sums of weights (a milligram). */
 const EPS = 1e-6;
@@ -32,21 +35,15 @@ const EPS = 1e-6;
  * The same Idempotency-Key with the same body answers the first response again.
  */
 export function recordEvent(actor: SessionUser, input: EventInput, t: Translate, idempotencyKey: string | null = null): StoredResponse {
-  return createOnce("events", input, actor.id, idempotencyKey, (tx) => applyEvent(tx, actor, input, t));
+  const response = createOnce("events", input, actor.id, idempotencyKey, (tx) => applyEvent(tx, actor, input, t));
+  // 202: the receipt is on record, but nothing moves until the sender's word.
+  return (response.body as { awaiting?: string }).awaiting ? { ...response, status: 202 } : response;
 }
 
 /** Records one event inside a transaction the caller holds (an import commits many at once). */
-export function applyEvent(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Translate): EventResult {
-  return input.step === "correcting" ? correctEvent(tx, actor, input, t) : applyStep(tx, actor, input, t);
-}
-
-export function lotByCode(tx: DbOrTx, code: string): LotRow | undefined {
-  return prepared(tx, "lot-by-code", (db) => db.select().from(lots).where(eq(lots.code, sql.placeholder("code"))).prepare()).get({ code });
-}
-
-function requireAny(actor: SessionUser, permission: Permission | readonly Permission[]) {
-  const list = Array.isArray(permission) ? permission : [permission];
-  if (!list.some((p) => can(actor, p as Permission))) throw forbidden();
+export function applyEvent(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Translate): EventResult | AwaitingResult {
+  if (input.step === "correcting") return correctEvent(tx, actor, input, t);
+  return input.step === "receiving" ? applyReceipt(tx, actor, input, t) : applyStep(tx, actor, input, t);
 }
 
 type ResolvedOutput = { existing: LotRow | null; spec: NewOutput | null; kind: LotKind; quantity: number };
@@ -64,12 +61,10 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
   // A transformation draws something from every input; 0 kg is a typing slip, refused up front.
   if (rule.content !== "none") input.inputs.forEach((i, n) => i.quantity > 0 || fail(`inputs.${n}.quantity`, t("validation.tooSmall", { minimum: 0 })));
   const eventParty = resolveEventParty(tx, actor, input, t);
-  // A receipt names the sender's lots (the bags in hand), of the kinds that come to its receiver.
-  const inputKinds: readonly LotKind[] | "any" = step === "receiving" ? RECEIVABLE_KINDS[partyKind(tx, eventParty)] : rule.inputKinds;
+  const inputKinds: readonly LotKind[] | "any" = rule.inputKinds;
   // A lot this user cannot see answers as unknown, as GET /api/lots/{code} does: no one learns
-  // from a refusal that a code exists. A receipt may name a lot not seen yet, if it may come here.
-  const known = (lot: LotRow | undefined) =>
-    lot && (canSeeLot(actor, lot) || (step === "receiving" && inputKinds !== "any" && inputKinds.includes(lot.kind))) ? lot : undefined;
+  // from a refusal that a code exists.
+  const known = (lot: LotRow | undefined) => (lot && canSeeLot(actor, lot) ? lot : undefined);
   const inLots = input.inputs.map((i, n) => {
     const lot = known(lotByCode(tx, i.lot));
     if (!lot) fail(`inputs.${n}.lot`, t("validation.unknownLot"));
@@ -101,21 +96,22 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
   if (Object.keys(errors).length) throw invalid(errors);
   const held = inLots as LotRow[];
 
-  const counterparty = resolveCounterparty(tx, step, input, held, t);
-  const moves = step === "receiving" || (step === "shipping" && counterparty?.kind !== "buyer");
+  const counterparty = resolveCounterparty(tx, step, input, t);
+  // Shipping to a party that holds lots is a dispatch: the lot stays the sender's, in transit,
+  // until the receiver's receipt. Bottles and sake shipped to a buyer are drawn, as ever.
+  const dispatches = step === "shipping" && counterparty?.kind !== "buyer";
   const observes = step === "measuring";
 
-  // Ownership: you record on lots your party holds (or, measuring, lots your party made).
-  // A receipt is of lots the sender holds, taken in by the recording party.
+  // Ownership: you record on lots your party holds (or, measuring, lots your party made); a
+  // lot on its way to another party is drawn by no one until it arrives.
   for (const [n, lot] of held.entries()) {
-    if (step === "receiving") {
-      const refused = lot.partyId === eventParty ? "errors.alreadyHeld" : lot.partyId !== counterparty!.id ? "errors.notHeldBySender" : null;
-      if (refused) throw new AppError("conflict", { key: refused, values: { code: lot.code } }, { [`inputs.${n}.lot`]: [t(refused, { code: lot.code })] });
-    } else if (!canActOnLot(actor, lot) && !(observes && lot.originPartyId === actor.partyId)) {
-      throw forbidden("errors.notYourLot");
-    }
+    const allowed = dispatches ? canDispatchLot(actor, lot) : canActOnLot(actor, lot) || (observes && lot.originPartyId === actor.partyId);
+    if (!allowed) throw forbidden("errors.notYourLot");
+    if (step === "shipping" && !dispatches && !can(actor, "polishing:record") && !can(actor, "brewing:record")) throw forbidden();
+    if (!observes && inTransit(lot)) throw new AppError("conflict", { key: "errors.inTransit", values: { code: lot.code } }, { [`inputs.${n}.lot`]: [t("errors.inTransit", { code: lot.code })] });
   }
   for (const o of outs) if (o.existing && !canActOnLot(actor, o.existing)) throw forbidden("errors.notYourLot");
+  if (dispatches) checkDispatch(tx, { eventParty, counterparty: counterparty!, lots: held }, t);
 
   const warnings: string[] = [];
   const polishing = step === "polishing" ? checkPolishingRun(tx, input, held, outs, t) : null;
@@ -131,13 +127,10 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
       if (quantity !== 0) throw invalid({ [`inputs.${n}.quantity`]: [t("validation.tooBig", { maximum: 0 })] });
       return { lot, quantity: 0, content: 0, use: "observe" as const };
     }
-    if (moves) {
-      if (Math.abs(quantity - lot.onHand) > EPS) {
-        // A receiver who cannot see the lot yet is not told what it weighs: the slip in hand says.
-        const message = canSeeLot(actor, lot) ? t("validation.wholeLotOnly", { onHand: lot.onHand, unit: lot.unit }) : t("validation.wholeLotOnlyUnseen");
-        throw invalid({ [`inputs.${n}.quantity`]: [message] });
-      }
-      return { lot, quantity, content: 0, use: "move" as const };
+    if (dispatches) {
+      // A lot travels whole: the slip weight is what the sender holds.
+      if (Math.abs(quantity - lot.onHand) > EPS) throw invalid({ [`inputs.${n}.quantity`]: [t("validation.wholeLotOnly", { onHand: lot.onHand, unit: lot.unit })] });
+      return { lot, quantity, content: 0, use: "dispatch" as const };
     }
     if (!(quantity > 0)) throw invalid({ [`inputs.${n}.quantity`]: [t("validation.tooSmall", { minimum: 0 })] });
     return { lot, quantity, content: contentOfDraw(quantity, lot), use: "draw" as const };
@@ -159,9 +152,8 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
   });
 
   for (const d of draws) {
-    const newHolder = d.use === "move" ? (step === "receiving" ? eventParty : counterparty!.id) : null;
-    insertEventInput(tx, { eventId, lotId: d.lot.id, quantity: d.quantity, content: d.content, use: d.use, previousPartyId: newHolder ? d.lot.partyId : null });
-    if (newHolder) tx.update(lots).set({ partyId: newHolder }).where(eq(lots.id, d.lot.id)).run();
+    insertEventInput(tx, { eventId, lotId: d.lot.id, quantity: d.quantity, content: d.content, use: d.use, previousPartyId: null });
+    if (d.use === "dispatch") tx.update(lots).set({ inTransitTo: counterparty!.id }).where(eq(lots.id, d.lot.id)).run();
   }
 
   const outputs = writeOutputs(tx, { eventId, at, step, eventParty, draws, outs, polishedRatio: polishing?.achievedPct ?? null, rule: rule.content, carried: floor?.outputAttributes ?? {} });
@@ -170,47 +162,8 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
   return { id: eventId, outputs: outputs.summary, warnings };
 }
 
-type NewEvent = Omit<typeof events.$inferInsert, "id" | "corrects">;
-const EVENT_FIELDS = ["step", "at", "recordedAt", "userId", "partyId", "counterpartyId", "place", "referenceDoc", "note", "reason", "attributes"] as const;
-
-/** Inserts a step's event row (prepared once per connection: every floor write makes one). */
-function insertEvent(tx: DbOrTx, row: NewEvent): number {
-  const statement = prepared(tx, "insert-event", (db) =>
-    db
-      .insert(events)
-      .values(placeholdersFor<NewEvent>(EVENT_FIELDS))
-      .returning({ id: events.id })
-      .prepare(),
-  );
-  return statement.get(row as Record<string, unknown>)!.id;
-}
-
-type NewEventInput = Omit<typeof eventInputs.$inferInsert, "id">;
-const INPUT_FIELDS = ["eventId", "lotId", "quantity", "content", "use", "previousPartyId"] as const;
-
-function insertEventInput(tx: DbOrTx, row: NewEventInput) {
-  prepared(tx, "insert-event-input", (db) =>
-    db
-      .insert(eventInputs)
-      .values(placeholdersFor<NewEventInput>(INPUT_FIELDS))
-      .prepare(),
-  ).run(row as Record<string, unknown>);
-}
-
-function resolveEventParty(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Translate): string {
-  if (!input.partyId || input.partyId === actor.partyId) return actor.partyId;
-  // Only the office records on another party's behalf (e.g. a receipt at the mill).
-  if (!can(actor, "lots:act-any")) throw forbidden("errors.notYourParty");
-  if (!tx.select({ id: parties.id }).from(parties).where(eq(parties.id, input.partyId)).get()) throw invalid({ partyId: [t("validation.unknownParty")] });
-  return input.partyId;
-}
-
-function partyKind(tx: DbOrTx, partyId: string) {
-  return tx.select({ kind: parties.kind }).from(parties).where(eq(parties.id, partyId)).get()!.kind;
-}
-
-function resolveCounterparty(tx: DbOrTx, step: RecordableStep, input: EventInput, held: LotRow[], t: Translate) {
-  const id = input.counterpartyId ?? (step === "receiving" ? held[0]?.partyId : undefined);
+export function resolveCounterparty(tx: DbOrTx, step: RecordableStep, input: EventInput, t: Translate) {
+  const id = input.counterpartyId;
   if (!id) {
     if (step === "shipping") throw invalid({ counterpartyId: [t("validation.needsCounterparty")] });
     return null;
@@ -340,25 +293,3 @@ export function inheritAttributes(sources: LotRow[]) {
   };
 }
 
-function writeMeasurements(tx: DbOrTx, eventId: number, input: EventInput, held: LotRow[], made: LotRow[], t: Translate) {
-  if (!input.measurements.length) return;
-  const known = new Map([...held, ...made].map((l) => [l.code, l.id]));
-  const rows = input.measurements.map((m, n) => {
-    let lotId: number | null = made[0]?.id ?? held[0]?.id ?? null;
-    if (m.lot) {
-      const id = known.get(m.lot);
-      if (id === undefined) throw invalid({ [`measurements.${n}.lot`]: [t("validation.unknownLot")] });
-      lotId = id;
-    }
-    return { eventId, lotId, name: m.name, value: m.value, unit: m.unit };
-  });
-  const insert = prepared(tx, "insert-measurement", (db) =>
-    db
-      .insert(measurements)
-      .values(placeholdersFor<typeof measurements.$inferInsert>(["eventId", "lotId", "name", "value", "unit"]))
-      .prepare(),
-  );
-  for (const row of rows) insert.run(row);
-  const moisture = input.measurements.find((m) => m.name === "moisturePct" && !m.lot);
-  if (moisture && made[0]) tx.update(lots).set({ moisturePct: moisture.value }).where(inArray(lots.id, [made[0].id])).run();
-}

@@ -10,10 +10,13 @@ import type { SessionUser } from "./session";
 
 const holder = alias(parties, "holder");
 
-/** Which lots a user may see: everything for roles that read all records, else their own party's. */
+/**
+ * Which lots a user may see: everything for roles that read all records, else those their party
+ * holds or made, and a lot dispatched to it (canSeeLot in src/domain/permissions.ts, the same rule).
+ */
 export function visibleTo(actor: SessionUser, party: string | Placeholder = actor.partyId): SQL | undefined {
   if (can(actor, "records:read-all")) return undefined;
-  return or(eq(lots.partyId, party), eq(lots.originPartyId, party));
+  return or(eq(lots.partyId, party), eq(lots.originPartyId, party), eq(lots.inTransitTo, party));
 }
 
 const lotColumns = {

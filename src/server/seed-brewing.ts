@@ -30,6 +30,9 @@ export function seedBrewSeason(tx: DbOrTx, u: Users) {
   const rec = (actor: SessionUser, input: Partial<EventInput> & { step: EventInput["step"] }) =>
     applyEvent(tx, actor, { inputs: [], outputs: [], measurements: [], ...input } as EventInput, t);
   const first = (res: { outputs: { code: string }[] }) => res.outputs[0]!.code;
+  // A receipt answers the sender's dispatch, sent early the same day with its slip.
+  const dispatch = (actor: SessionUser, lot: string, kg: number, to: string, slip: string, at: string, partyId?: string) =>
+    rec(actor, { step: "shipping", at: new Date(Date.parse(at) - 3 * 3_600_000).toISOString(), inputs: [{ lot, quantity: kg }], counterpartyId: to, partyId, referenceDoc: slip });
   const m = (name: string, value: number, unit: string) => ({ name, value: r1(value), unit });
 
   const harvest = (actor: SessionUser, fieldId: string, variety: string, kg: number, grade: string, date: string) =>
@@ -38,11 +41,13 @@ export function seedBrewSeason(tx: DbOrTx, u: Users) {
   const b = harvest(u.admin, "field-coop-north", "Yamada Nishiki", 1000, "tokuto", "2024-09-30");
   const c = harvest(u.grower2, "field-nakase-river", "Omachi", 1800, "2", "2024-10-05");
   for (const [lot, kg, n] of [[a, 1500, 1], [b, 1000, 2], [c, 1800, 3]] as const) {
+    dispatch(n === 3 ? u.grower2 : n === 2 ? u.admin : u.grower, lot, kg, "mill-shirotae", `DS-2024-0${n}`, `2024-10-1${n}T10:00:00+09:00`, n === 2 ? "grower-coop" : undefined);
     rec(u.miller, { step: "receiving", at: `2024-10-1${n}T10:00:00+09:00`, inputs: [{ lot, quantity: kg }], referenceDoc: `DS-2024-0${n}`, place: "Shirotae mill yard" });
   }
   const polish = (date: string, inputs: [string, number][], out: number, bran: number, target: number) => {
     const run = rec(u.miller, { step: "polishing", at: `${date}T10:00:00+09:00`, inputs: inputs.map(([lot, quantity]) => ({ lot, quantity })), outputs: [{ kind: "polished", quantity: out }, { kind: "bran", quantity: bran }], measurements: [{ name: "targetPolishingRatioPct", value: target, unit: "%" }] });
     const code = first(run);
+    dispatch(u.miller, code, out, "brewery-kirinoha", `SH-${code}`, day(date, 6));
     rec(u.brewer, { step: "receiving", at: day(date, 6), inputs: [{ lot: code, quantity: out }], referenceDoc: `SH-${code}`, place: "Kirinoha rice store" });
     return code;
   };

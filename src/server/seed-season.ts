@@ -22,7 +22,10 @@ export function seedSeason(tx: DbOrTx, u: Users) {
   const harvest = (actor: SessionUser, fieldId: string, variety: string, brownKg: number, moisturePct: number, grade: string, bags: number, date: string) =>
     registerHarvestInTx(tx, actor, { fieldId, variety, cropYear: 2026, brownKg, moisturePct, grade: grade as never, bags, at: at(date) }, t).code;
   const record = (actor: SessionUser, input: Partial<EventInput> & { step: EventInput["step"] }): EventResult =>
-    applyEvent(tx, actor, { inputs: [], outputs: [], measurements: [], ...input } as EventInput, t);
+    applyEvent(tx, actor, { inputs: [], outputs: [], measurements: [], ...input } as EventInput, t) as EventResult;
+  // Each receipt answers the sender's dispatch of the day before (the slip travels with the rice).
+  const dispatch = (actor: SessionUser, lot: string, kg: number, to: string, slip: string, date: string, partyId?: string) =>
+    record(actor, { step: "shipping", at: `${date}T07:30:00+09:00`, inputs: [{ lot, quantity: kg }], counterpartyId: to, partyId, referenceDoc: slip });
 
   const h1 = harvest(u.grower, "field-ikeda-terrace", "Yamada Nishiki", 1800, 14.6, "1", 30, "2026-09-24");
   const h2 = harvest(u.grower, "field-ikeda-cedar", "Yamada Nishiki", 1200, 14.9, "2", 20, "2026-09-26");
@@ -32,9 +35,12 @@ export function seedSeason(tx: DbOrTx, u: Users) {
   const h6 = harvest(u.admin, "field-coop-stone", "Omachi", 1500, 14.8, "2", 25, "2026-10-08");
 
   const slips: [string, number, string][] = [[h1, 1800, "DS-2026-101"], [h2, 1200, "DS-2026-102"], [h3, 2400, "DS-2026-103"], [h4, 900, "DS-2026-104"], [h5, 3000, "DS-2026-105"], [h6, 1500, "DS-2026-106"]];
-  slips.forEach(([lot, kg, slip], n) =>
-    record(u.miller, { step: "receiving", at: at(`2026-10-${String(10 + n).padStart(2, "0")}`), inputs: [{ lot, quantity: kg }], referenceDoc: slip, place: "Shirotae mill yard" }),
-  );
+  const senders = [u.grower, u.grower, u.grower2, u.grower2, u.admin, u.admin];
+  slips.forEach(([lot, kg, slip], n) => {
+    const date = `2026-10-${String(10 + n).padStart(2, "0")}`;
+    dispatch(senders[n]!, lot, kg, "mill-shirotae", slip, date, n >= 4 ? "grower-coop" : undefined);
+    record(u.miller, { step: "receiving", at: at(date), inputs: [{ lot, quantity: kg }], referenceDoc: slip, place: "Shirotae mill yard" });
+  });
 
   const polish = (date: string, inputs: [string, number][], polishedKg: number, branKg: number, target: number, tgw?: [number, number]) =>
     record(u.miller, {
@@ -57,6 +63,8 @@ export function seedSeason(tx: DbOrTx, u: Users) {
 
   for (const [run, n] of [[r1, 1], [r2, 2], [r3, 3], [r4, 4]] as const) {
     const polished = run.outputs.find((o) => o.kind === "polished")!;
-    record(u.brewer, { step: "receiving", at: at(`2026-11-${String(5 + n).padStart(2, "0")}`), inputs: [{ lot: polished.code, quantity: polished.quantity }], referenceDoc: `SH-2026-0${n}`, place: "Kirinoha rice store" });
+    const date = `2026-11-${String(5 + n).padStart(2, "0")}`;
+    dispatch(u.miller, polished.code, polished.quantity, "brewery-kirinoha", `SH-2026-0${n}`, date);
+    record(u.brewer, { step: "receiving", at: at(date), inputs: [{ lot: polished.code, quantity: polished.quantity }], referenceDoc: `SH-2026-0${n}`, place: "Kirinoha rice store" });
   }
 }

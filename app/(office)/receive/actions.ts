@@ -6,22 +6,24 @@ import { normaliseLotCode } from "@/domain/lot-code";
 import { formValues, type FormState } from "@/lib/form-state";
 import { eventSchema } from "@/lib/validation/events";
 import { guardAction } from "@/server/action";
-import { lotByCode, recordEvent } from "@/server/events";
-import { forbidden, invalid } from "@/server/errors";
+import { recordEvent } from "@/server/events";
+import { forbidden } from "@/server/errors";
 import { can } from "@/domain/permissions";
-import { getDb } from "@/server/db";
-import { getParty } from "@/server/parties";
 import { requireUser } from "@/server/session";
 
 const receiptForm = z.object({
   code: z.string().trim().min(1).max(20),
+  quantity: z.coerce.number().finite().positive().max(10_000_000),
   referenceDoc: z.string().trim().max(100).default(""),
   place: z.string().trim().max(200).default(""),
   date: z.iso.date().optional().or(z.literal("").transform(() => undefined)),
   partyId: z.string().max(64).optional(),
 });
 
-/** A receipt takes the whole lot from whoever holds it now (../shared/references.md, rice traceability). */
+/**
+ * A receipt: the lot named and its weight on arrival (../shared/references.md, rice traceability).
+ * It moves the lot only when it answers the sender's dispatch; otherwise it waits for the sender.
+ */
 export async function receiveLotAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);
   return guardAction(values, async (t) => {
@@ -29,18 +31,17 @@ export async function receiveLotAction(_prev: FormState, formData: FormData): Pr
     if (!can(actor, "polishing:record") && !can(actor, "brewing:record")) throw forbidden();
     const form = receiptForm.parse(values);
     const code = normaliseLotCode(form.code);
-    const lot = lotByCode(getDb(), code);
-    if (!lot) throw invalid({ code: [t("validation.unknownLot")] });
     const input = eventSchema.parse({
       step: "receiving",
-      inputs: [{ lot: code, quantity: lot.onHand }],
+      inputs: [{ lot: code, quantity: form.quantity }],
       referenceDoc: form.referenceDoc || undefined,
       place: form.place || undefined,
       at: form.date ? `${form.date}T12:00:00+09:00` : undefined,
       partyId: form.partyId || undefined,
     });
-    recordEvent(actor, input, t);
+    const { status } = recordEvent(actor, input, t);
     revalidatePath("/mill");
-    return { ok: true, message: t("receive.recorded", { code, from: getParty(lot.partyId)?.name ?? "" }) };
+    revalidatePath("/receive");
+    return { ok: true, message: t(status === 202 ? "receive.awaiting" : "receive.recorded", { code }) };
   });
 }

@@ -1,8 +1,9 @@
 import { forbidden } from "next/navigation";
-import { getTranslations } from "next-intl/server";
+import { getFormatter, getTranslations } from "next-intl/server";
 import { can } from "@/domain/permissions";
 import { requirePageUser } from "@/server/page-guard";
 import { listParties } from "@/server/parties";
+import { listOwnRequests } from "@/server/receipt-requests";
 import { ReceiveForm } from "./components";
 import { PageHeader } from "@/components/page-header";
 
@@ -14,12 +15,28 @@ export default async function ReceivePage() {
   const user = await requirePageUser();
   if (!can(user, "polishing:record") && !can(user, "brewing:record")) forbidden();
   const t = await getTranslations("receive");
+  const format = await getFormatter();
   // The office records receipts on behalf of the mill or the brewery.
   const receivers = can(user, "lots:act-any") ? [...listParties("brewery"), ...listParties("mill")].map(({ id, name }) => ({ id, name })) : null;
+  const requests = listOwnRequests(user);
   return (
     <div className="max-w-3xl space-y-6">
       <PageHeader title={t("title")} intro={t("intro")} />
       <section className="panel"><ReceiveForm receivers={receivers} /></section>
+      {requests.length ? (
+        <section className="panel" data-testid="own-receipt-requests">
+          <h2 className="mb-3 text-xl font-bold">{t("requestsTitle")}</h2>
+          <ul className="space-y-2">
+            {requests.map((r) => (
+              <li key={r.id}>
+                {t("requestLine", { code: r.code, quantity: format.number(r.quantity, { maximumFractionDigits: 3 }), slip: r.referenceDoc || "—", date: format.dateTime(r.at, { dateStyle: "medium" }) })}{" "}
+                <strong>{t(`states.${r.outcome}`)}</strong>
+                {r.reason ? ` — ${r.reason}` : ""}
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
     </div>
   );
 }

@@ -1,0 +1,44 @@
+import { forbidden } from "next/navigation";
+import { getFormatter, getTranslations } from "next-intl/server";
+import { can } from "@/domain/permissions";
+import { normaliseLotCode } from "@/domain/lot-code";
+import { STEP_RULES } from "@/domain/steps";
+import { requirePageUser } from "@/server/page-guard";
+import { listParties } from "@/server/parties";
+import { listRequestsToAnswer } from "@/server/receipt-requests";
+import { PageHeader } from "@/components/page-header";
+import { AnswerRequest, DispatchForm } from "./components";
+
+export async function generateMetadata() {
+  return { title: (await getTranslations("dispatch"))("title") };
+}
+
+export default async function DispatchPage({ searchParams }: { searchParams: Promise<{ code?: string }> }) {
+  const user = await requirePageUser();
+  if (!STEP_RULES.shipping.permission.some((p) => can(user, p))) forbidden();
+  const t = await getTranslations("dispatch");
+  const format = await getFormatter();
+  const code = normaliseLotCode(String((await searchParams).code ?? "")).slice(0, 20);
+  // Lots travel to mills and breweries; a party never dispatches to itself.
+  const receivers = [...listParties("mill"), ...listParties("brewery")].filter((p) => p.id !== user.partyId).map(({ id, name }) => ({ id, name }));
+  const requests = listRequestsToAnswer(user);
+  return (
+    <div className="max-w-3xl space-y-6">
+      <PageHeader title={t("title")} intro={t("intro")} />
+      <section className="panel"><DispatchForm code={code} receivers={receivers} /></section>
+      <section className="panel space-y-4" data-testid="receipts-awaiting">
+        <h2 className="text-xl font-bold">{t("awaitingTitle")}</h2>
+        <p className="text-sm text-ink-soft">{t("awaitingIntro")}</p>
+        {requests.length === 0 ? <p>{t("noneAwaiting")}</p> : null}
+        <ul className="space-y-4">
+          {requests.map((r) => (
+            <li key={r.id} className="border-t border-husk pt-3">
+              <p>{t("request", { receiver: r.receiver, code: r.code, quantity: format.number(r.quantity, { maximumFractionDigits: 3 }), unit: r.unit ?? "", slip: r.referenceDoc || "—", date: format.dateTime(r.at, { dateStyle: "medium" }) })}</p>
+              <AnswerRequest id={r.id} />
+            </li>
+          ))}
+        </ul>
+      </section>
+    </div>
+  );
+}
