@@ -54,8 +54,9 @@ async function captureStatements() {
   for (const p of ["journal_mode = WAL", "busy_timeout = 5000", "foreign_keys = ON", "synchronous = NORMAL"]) sqlite.pragma(p);
   (globalThis as { grainlineDb?: unknown }).grainlineDb = { sqlite }; // the app's modules use this connection
   const { lucia } = await import("../src/server/auth");
-  const session = await lucia().createSession("user-brewer", {});
-  const cookie = `${lucia().sessionCookieName}=${session.id}`;
+  const { openSession } = await import("../src/server/session-token");
+  const { token, session } = await openSession("user-brewer");
+  const cookie = `${lucia().sessionCookieName}=${token}`;
   const lotRoute = await import("../app/api/lots/[code]/route");
   const eventsRoute = await import("../app/api/events/route");
   const read = () => lotRoute.GET(new Request(`http://localhost/api/lots/${LOT}`, { headers: { cookie } }), { params: Promise.resolve({ code: LOT }) });

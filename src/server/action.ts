@@ -28,7 +28,8 @@ export async function guardAction(
   } catch (error) {
     unstable_rethrow(error);
     if (error instanceof z.ZodError) return { message: t("errors.invalid"), fields: fieldErrorsFrom(error, t), values };
-    if (error instanceof AppError) return { message: t(`errors.${error.code}`), fields: error.fields, values };
+    // A wait is worth saying in full ("wait 4 seconds"); other refusals keep their short form.
+    if (error instanceof AppError) return { message: error.code === "rate_limited" ? error.say(t) : t(`errors.${error.code}`), fields: error.fields, values };
     console.error(error);
     return { message: t("errors.internal"), values };
   }

@@ -17,6 +17,7 @@ function createLucia() {
       // Secure is decided per request (https or not) where the cookie is written.
       attributes: { sameSite: "lax", secure: false },
     },
+    getSessionAttributes: (row) => ({ signedInAt: row.signedInAt }),
     getUserAttributes: (row) => ({
       email: row.email,
       name: row.name,
@@ -39,6 +40,8 @@ export function lucia() {
 declare module "lucia" {
   interface Register {
     Lucia: ReturnType<typeof createLucia>;
+    // Unix seconds (src/server/session-token.ts: the absolute lifetime counts from it).
+    DatabaseSessionAttributes: { signedInAt: number };
     DatabaseUserAttributes: {
       email: string;
       name: string;

@@ -35,6 +35,8 @@ const inEnglish: Translate = (key, values) => english(key as never, values as ne
 export class AppError extends Error {
   readonly key: string;
   readonly values?: Record<string, string | number>;
+  /** For a 429: how long to wait, sent as Retry-After (src/server/throttle.ts). */
+  retryAfterSeconds?: number;
 
   constructor(
     readonly code: ErrorCode,

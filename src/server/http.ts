@@ -92,7 +92,8 @@ export function jsonRoute(fn: (request: ApiRequest, ctx: RouteContext) => Promis
 
 export function errorResponse(error: unknown, t: Translate): Response {
   const { status, body } = errorReply(error, t);
-  return Response.json(body, { status });
+  const wait = error instanceof AppError ? error.retryAfterSeconds : undefined;
+  return Response.json(body, { status, headers: wait ? { "Retry-After": String(wait) } : undefined });
 }
 
 export function errorReply(error: unknown, t: Translate): JsonReply {

@@ -20,6 +20,7 @@ export class PreparedSessionAdapter extends DrizzleSQLiteAdapter {
       .select({
         userId: sessions.userId,
         expiresAt: sessions.expiresAt,
+        signedInAt: sessions.signedInAt,
         email: users.email,
         name: users.name,
         role: users.role,
@@ -35,9 +36,9 @@ export class PreparedSessionAdapter extends DrizzleSQLiteAdapter {
   override async getSessionAndUser(sessionId: string): Promise<[DatabaseSession | null, DatabaseUser | null]> {
     const row = this.sessionAndUser.get({ id: sessionId });
     if (!row) return [null, null];
-    const { userId, expiresAt, ...userAttributes } = row;
+    const { userId, expiresAt, signedInAt, ...userAttributes } = row;
     return [
-      { id: sessionId, userId, expiresAt: new Date(expiresAt * 1000), attributes: {} },
+      { id: sessionId, userId, expiresAt: new Date(expiresAt * 1000), attributes: { signedInAt } },
       { id: userId, attributes: userAttributes },
     ];
   }

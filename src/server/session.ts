@@ -7,15 +7,22 @@ import type { Role } from "@/domain/roles";
 import { can, type Actor, type Permission } from "@/domain/permissions";
 import { lucia } from "./auth";
 import { forbidden, unauthenticated } from "./errors";
+import { publicOriginIsHttps } from "./public-origin";
+import { outlivedSession, sessionIdFor } from "./session-token";
 
 export type SessionUser = Actor & { email: string; name: string };
 
 type Validated = { user: SessionUser; session: Session } | null;
 
-async function validate(sessionId: string | null): Promise<Validated & { fresh?: boolean } | null> {
-  if (!sessionId) return null;
-  const { user, session } = await lucia().validateSession(sessionId);
+/** The cookie's token → its session, refused when disabled or past its absolute lifetime. */
+async function validate(token: string | null): Promise<Validated & { fresh?: boolean } | null> {
+  if (!token) return null;
+  const { user, session } = await lucia().validateSession(sessionIdFor(token));
   if (!user || !session || user.disabledAt) return null;
+  if (outlivedSession(session)) {
+    await lucia().invalidateSession(session.id);
+    return null;
+  }
   return {
     user: { id: user.id, email: user.email, name: user.name, role: user.role as Role, partyId: user.partyId },
     session,
@@ -33,15 +40,21 @@ export function sessionFromRequest(request: { headers: { get(name: string): stri
   return validate(header ? (parseCookies(header)[lucia().sessionCookieName] ?? null) : null);
 }
 
+/**
+ * Whether the session cookie is marked Secure: always when the public origin is https, and
+ * when this request says it came over https. Trusting X-Forwarded-Proto here cannot hurt: a
+ * forged one only keeps the sender's own cookie off plain http.
+ */
 export function isHttps(request: { url: string; headers: Headers }): boolean {
+  if (publicOriginIsHttps()) return true;
   const forwarded = request.headers.get("x-forwarded-proto");
   if (forwarded) return forwarded.split(",")[0]!.trim() === "https";
   return new URL(request.url).protocol === "https:";
 }
 
-/** A Set-Cookie value for a new or refreshed session, Secure when served over https. */
-export function sessionCookieHeader(sessionId: string, secure: boolean): string {
-  const c = lucia().createSessionCookie(sessionId);
+/** A Set-Cookie value for a new or refreshed session (its token), Secure when served over https. */
+export function sessionCookieHeader(token: string, secure: boolean): string {
+  const c = lucia().createSessionCookie(token);
   c.attributes.secure = secure;
   return c.serialize();
 }
@@ -73,6 +86,7 @@ export async function requirePermission(permission: Permission): Promise<Session
 
 /** Whether this page request arrived over https (for the Secure cookie flag in actions). */
 export async function requestIsHttps(): Promise<boolean> {
+  if (publicOriginIsHttps()) return true;
   const h = await headers();
   const proto = h.get("x-forwarded-proto");
   return proto ? proto.split(",")[0]!.trim() === "https" : false;

@@ -1,6 +1,7 @@
 import "server-only";
 import { and, asc, eq, gt, isNull } from "drizzle-orm";
 import { generateIdFromEntropySize } from "lucia";
+import type { DbOrTx } from "@/db/client";
 import { parties, passwordTokens, users } from "@/db/schema";
 import { PARTY_KIND_FOR_ROLE } from "@/domain/roles";
 import { canManageUsers } from "@/domain/permissions";
@@ -13,7 +14,8 @@ import { AppError, forbidden, invalid } from "./errors";
 import { sendMail } from "./mail";
 import { burnPasswordCheck, hashPassword, verifyPassword } from "./passwords";
 import type { SessionUser } from "./session";
-import { clearFailures, isThrottled, recordFailure } from "./throttle";
+import { openSession } from "./session-token";
+import { attemptWaitMs, clearSignInFailures, countAttempt, mustWait, recordSignInFailure, signInWaitMs } from "./throttle";
 import { INVITE_TTL_MS, RESET_TTL_MS, hashLinkToken, newLinkToken } from "./tokens";
 
 export type PublicUser = { id: string; email: string; name: string; role: SessionUser["role"]; partyId: string };
@@ -26,21 +28,23 @@ const toPublic = (u: typeof users.$inferSelect): PublicUser => ({
   partyId: u.partyId,
 });
 
-/** Checks a password and opens a new session; throttled per e-mail and per client. */
+/**
+ * Checks a password and opens a new session. Throttled per account and client (a growing
+ * wait), and per client: one client's wrong guesses never hold back anyone else's sign-in.
+ */
 export async function signIn(email: string, password: string, client: string) {
-  if (isThrottled(email, client)) {
-    throw new AppError("rate_limited", "errors.signInThrottled");
-  }
+  const wait = signInWaitMs(email, client);
+  if (wait > 0) throw mustWait(wait, "errors.signInThrottled");
   const row = getDb().select().from(users).where(eq(users.email, email)).get();
   const ok = row?.passwordHash && !row.disabledAt ? await verifyPassword(row.passwordHash, password) : (await burnPasswordCheck(password), false);
   if (!row || !ok) {
-    recordFailure(email, client);
+    recordSignInFailure(email, client);
     throw new AppError("unauthenticated", "errors.badCredentials");
   }
-  clearFailures(email);
-  const session = await lucia().createSession(row.id, {});
+  clearSignInFailures(email, client);
+  const { token } = await openSession(row.id);
   recordAudit(getDb(), { userId: row.id, action: "user.signed-in", subject: row.id });
-  return { user: toPublic(row), sessionId: session.id };
+  return { user: toPublic(row), sessionToken: token };
 }
 
 export async function signOut(sessionId: string, userId: string) {
@@ -86,13 +90,23 @@ export async function inviteUser(actor: SessionUser, input: InviteInput, origin:
   return { id };
 }
 
-/** Always answers the same way, so the form does not reveal which addresses exist. */
-export async function requestPasswordReset(email: string, origin: string, t: Translate) {
+/**
+ * Always answers the same way, so the form does not reveal which addresses exist. Throttled per
+ * address and per client on counters of their own: a reset request is not a failed sign-in.
+ * A new link voids the person's older ones, so only the latest e-mail works.
+ */
+export async function requestPasswordReset(email: string, client: string, origin: string, t: Translate) {
+  const wait = Math.max(attemptWaitMs("resetEmail", email), attemptWaitMs("resetClient", client));
+  if (wait > 0) throw mustWait(wait);
+  countAttempt("resetEmail", email);
+  countAttempt("resetClient", client);
   const db = getDb();
   const row = db.select().from(users).where(eq(users.email, email)).get();
   if (!row || row.disabledAt) return;
   const { token, hash } = newLinkToken();
   db.transaction((tx) => {
+    // Spent, not deleted: the row keeps when the link was sent; the audit log says why.
+    tx.update(passwordTokens).set({ usedAt: new Date() }).where(and(eq(passwordTokens.userId, row.id), isNull(passwordTokens.usedAt))).run();
     tx.insert(passwordTokens).values({ id: generateIdFromEntropySize(10), userId: row.id, tokenHash: hash, purpose: "reset", expiresAt: new Date(Date.now() + RESET_TTL_MS), createdAt: new Date() }).run();
     recordAudit(tx, { userId: null, action: "user.reset-requested", subject: row.id });
   });
@@ -110,17 +124,32 @@ export function findLinkHolder(token: string) {
   return row ?? null;
 }
 
-/** Uses a link once: sets the password and ends every session the person had. */
-export async function setPasswordWithToken(token: string, password: string, t: Translate) {
-  const passwordHash = await hashPassword(password);
+const liveLink = (tx: DbOrTx, token: string) =>
+  tx
+    .select()
+    .from(passwordTokens)
+    .where(and(eq(passwordTokens.tokenHash, hashLinkToken(token)), isNull(passwordTokens.usedAt), gt(passwordTokens.expiresAt, new Date())))
+    .get();
+
+/**
+ * Uses a link once: sets the password and ends every session the person had. The link is
+ * checked before the password is hashed, so a made-up link costs no argon2 work; links that
+ * do not work are counted per client.
+ */
+export async function setPasswordWithToken(token: string, password: string, client: string, t: Translate) {
+  const wait = attemptWaitMs("linkClient", client);
+  if (wait > 0) throw mustWait(wait);
+  const expired = () => invalid({ token: [t("validation.linkExpired")] }, "errors.linkExpired");
   const db = getDb();
+  if (!liveLink(db, token)) {
+    countAttempt("linkClient", client);
+    throw expired();
+  }
+  const passwordHash = await hashPassword(password);
   const userId = db.transaction((tx) => {
-    const row = tx
-      .select()
-      .from(passwordTokens)
-      .where(and(eq(passwordTokens.tokenHash, hashLinkToken(token)), isNull(passwordTokens.usedAt), gt(passwordTokens.expiresAt, new Date())))
-      .get();
-    if (!row) throw invalid({ token: [t("validation.linkExpired")] }, "errors.linkExpired");
+    // Again inside the transaction: the link may have been used while the password was hashed.
+    const row = liveLink(tx, token);
+    if (!row) throw expired();
     tx.update(passwordTokens).set({ usedAt: new Date() }).where(eq(passwordTokens.id, row.id)).run();
     tx.update(users).set({ passwordHash }).where(eq(users.id, row.userId)).run();
     recordAudit(tx, { userId: row.userId, action: "user.password-set", subject: row.userId, detail: { via: row.purpose } });

@@ -51,7 +51,7 @@ type Case = { file: string; name: string; who: Who; base: () => Record<string, s
 const CASES: Case[] = [
   { file: "app/(auth)/sign-in/actions.ts", name: "signInAction", who: "anonymous", base: () => ({ email: "grower2@example.com", password: "grainline-demo" }), mayChange: ["sign_in_throttle"] },
   { file: "app/(auth)/forgot-password/actions.ts", name: "forgotPasswordAction", who: "anonymous", base: () => ({ email: "nobody@example.org" }), mayChange: ["sign_in_throttle"] },
-  { file: "app/(auth)/set-password/[token]/actions.ts", name: "setPasswordAction", who: "anonymous", base: () => ({ token: prepared.token, password: "a long probe password", confirm: "a long probe password" }) },
+  { file: "app/(auth)/set-password/[token]/actions.ts", name: "setPasswordAction", who: "anonymous", base: () => ({ token: prepared.token, password: "a long probe password", confirm: "a long probe password" }), mayChange: ["sign_in_throttle"] },
   { file: "app/(office)/admin/parties/actions.ts", name: "createPartyAction", who: "admin", base: () => ({ kind: "grower", name: "Probe Farm", address: "1 Probe Lane", region: "Hyogo", email: "", phone: "", namedPublicly: "" }) },
   { file: "app/(office)/admin/parties/actions.ts", name: "updatePartyAction", who: "admin", base: () => ({ id: "grower-coop", kind: "grower", name: "Upper Asagiri Growers' Cooperative", address: "Asagiri Valley", region: "Okayama", email: "", phone: "", namedPublicly: "on" }) },
   { file: "app/(office)/admin/settings/actions.ts", name: "saveSettingsAction", who: "admin", base: settingsForm },

@@ -26,10 +26,10 @@ describe("inviting a user", () => {
     const stored = getDb().select().from(passwordTokens).all();
     expect(stored.some((row) => row.tokenHash === token)).toBe(false);
 
-    await setPasswordWithToken(token!, "a long new password", t);
+    await setPasswordWithToken(token!, "a long new password", "local", t);
     expect(await signInAs("mei@example.com", "a long new password")).toMatch(/^grainline_session=/);
 
-    await expect(setPasswordWithToken(token!, "another password!!", t)).rejects.toMatchObject({ code: "invalid" });
+    await expect(setPasswordWithToken(token!, "another password!!", "local", t)).rejects.toMatchObject({ code: "invalid" });
   });
 
   it("refuses a second user with the same e-mail (409) and a role that does not fit the party (422)", async () => {

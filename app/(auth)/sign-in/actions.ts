@@ -17,13 +17,13 @@ export async function signInAction(_prev: FormState, formData: FormData): Promis
   const state = await guardAction({ email: values.email ?? "" }, async (t) => {
     const input = signInSchema.parse(values);
     try {
-      const { user, sessionId } = await signIn(input.email, input.password, await actionClientKey());
-      const cookie = lucia().createSessionCookie(sessionId);
+      const { user, sessionToken } = await signIn(input.email, input.password, await actionClientKey());
+      const cookie = lucia().createSessionCookie(sessionToken);
       (await cookies()).set(cookie.name, cookie.value, { ...cookie.attributes, secure: await requestIsHttps() });
       home = HOME_FOR_ROLE[user.role];
     } catch (error) {
       if (error instanceof AppError && error.code === "unauthenticated") return { message: t("auth.wrongCredentials"), values: { email: input.email } };
-      if (error instanceof AppError && error.code === "rate_limited") return { message: t("auth.throttled"), values: { email: input.email } };
+      if (error instanceof AppError && error.code === "rate_limited") return { message: t("auth.throttled", error.values), values: { email: input.email } };
       throw error;
     }
   });

@@ -5,6 +5,6 @@ import { signIn } from "@/server/users";
 
 export const POST = handle(async (request, { t }) => {
   const input = await readJson(request, signInSchema, t);
-  const { user, sessionId } = await signIn(input.email, input.password, clientKey(request));
-  return Response.json({ user }, { headers: { "Set-Cookie": sessionCookieHeader(sessionId, isHttps(request)) } });
+  const { user, sessionToken } = await signIn(input.email, input.password, clientKey(request));
+  return Response.json({ user }, { headers: { "Set-Cookie": sessionCookieHeader(sessionToken, isHttps(request)) } });
 });
