@@ -121,11 +121,7 @@ export function canDispatchLot(actor: Actor | null, lot: { kind: string; partyId
   return can(actor, "harvests:dispatch-own") && lot.kind === "harvest";
 }
 
-/** Corrections: the office, or the person who recorded the event. */
-export function canCorrect(actor: Actor | null, event: { userId: string }): boolean {
-  if (can(actor, "records:correct")) return true;
-  return Boolean(actor) && actor!.id === event.userId;
-}
+// Corrections (who may undo an event, before and after its lots change hands): ./corrections.ts.
 
 /**
  * Who may attach a certificate or report to a lot: whoever may record on it (its holder,

@@ -2,10 +2,10 @@ import "server-only";
 import { eq, sql } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { eventInputs, eventOutputs, events, lineageEdges, lotSourceDeltas, lots } from "@/db/schema";
-import { canCorrect } from "@/domain/permissions";
 import type { EventInput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
-import { AppError, forbidden, invalid } from "./errors";
+import { canSeeEvent, refusalToCorrect } from "./correction-rights";
+import { AppError, invalid } from "./errors";
 import { insertInChunks } from "./batch";
 import type { SessionUser } from "./session";
 import { reverseSupplierEntries } from "./supplier-entries";
@@ -26,8 +26,10 @@ export function correctEvent(tx: DbOrTx, actor: SessionUser, input: EventInput, 
   if (Object.keys(errors).length) throw invalid(errors);
 
   const original = tx.select().from(events).where(eq(events.id, input.corrects!)).get();
-  if (!original || original.step === "correcting") throw invalid({ corrects: [t("validation.cannotCorrect")] });
-  if (!canCorrect(actor, original)) throw forbidden("errors.notYourEvent");
+  // An event the reader may not see answers exactly as one that does not exist.
+  if (!original || original.step === "correcting" || !canSeeEvent(tx, actor, original)) throw invalid({ corrects: [t("validation.cannotCorrect")] });
+  const refused = refusalToCorrect(tx, actor, original);
+  if (refused) throw new AppError("forbidden", refused, { corrects: [t(refused)] });
   if (tx.select({ id: events.id }).from(events).where(eq(events.corrects, original.id)).get()) {
     throw new AppError("conflict", "errors.alreadyCorrected", { corrects: [t("validation.alreadyCorrected")] });
   }

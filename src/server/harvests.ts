@@ -3,7 +3,7 @@ import type { DbOrTx } from "@/db/client";
 import { eq } from "drizzle-orm";
 import { eventOutputs, events, fields, lotSourceDeltas, lots } from "@/db/schema";
 import { isTooMoistToGrade } from "@/domain/grades";
-import { can, canRecordOnField } from "@/domain/permissions";
+import { can, canReadFieldsOf, canRecordOnField } from "@/domain/permissions";
 import type { HarvestInput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
 import { forbidden, invalid } from "./errors";
@@ -25,7 +25,8 @@ export function registerHarvestInTx(tx: DbOrTx, actor: SessionUser, input: Harve
   // MAFF inspection standards: above 15.0 % moisture brown rice takes no grade (nor an equivalence).
   if (isTooMoistToGrade(input.moisturePct) && input.grade !== "out-of-grade") throw invalid({ grade: [t("validation.moistureTooHigh")] });
   const field = tx.select().from(fields).where(eq(fields.id, input.fieldId)).get();
-  if (!field) throw invalid({ fieldId: [t("validation.unknownField")] });
+  // Another grower's field answers exactly as a field that does not exist.
+  if (!field || !canReadFieldsOf(actor, field.growerId)) throw invalid({ fieldId: [t("validation.unknownField")] });
   if (!canRecordOnField(actor, field)) throw forbidden("errors.notYourField");
   const at = input.at ? new Date(input.at) : new Date();
   const eventId = tx

@@ -7,7 +7,7 @@ import type { Rounding } from "@/domain/money";
 import { can, canReadLedgerOf } from "@/domain/permissions";
 import { taxByRate, type RateTotal } from "@/domain/tax";
 import { getDb } from "./db";
-import { forbidden, notFound } from "./errors";
+import { forbidden, notFound, type ErrorMessage } from "./errors";
 import type { SessionUser } from "./session";
 import { readTaxRounding } from "./supplier-settings";
 
@@ -88,18 +88,29 @@ export function requireSupplier(db: DbOrTx, partyId: string) {
 }
 
 /**
+ * Who reads supplier money at all: a role that reads none (brewer, sales) is refused with 403
+ * whichever party it names. Another supplier's account is then unknown to a grower or a mill:
+ * the same 404 as a party that does not exist, so that nobody learns which ids are suppliers.
+ */
+export function requireReadableSupplier(db: DbOrTx, actor: SessionUser, partyId: string, unknown: ErrorMessage | string = "errors.supplierNotFound") {
+  if (!(["ledger:read-own", "ledger:read-all", "ledger:manage"] as const).some((p) => can(actor, p))) throw forbidden();
+  if (!canReadLedgerOf(actor, partyId)) throw notFound(unknown);
+  return requireSupplier(db, partyId);
+}
+
+/**
  * `GET /api/suppliers/{partyId}/ledger`: the office and auditors read any supplier; a grower
- * or mill only its own party (403 otherwise — the route says whose money, not which lot).
+ * or mill only its own party. An entry's reason (a reversal's, an adjustment's) travels with it.
  */
 export function readSupplierLedger(actor: SessionUser, partyId: string) {
-  if (!canReadLedgerOf(actor, partyId)) throw forbidden("errors.notYourAccount");
   const db = getDb();
-  requireSupplier(db, partyId);
+  requireReadableSupplier(db, actor, partyId);
   const ledger = ledgerOf(db, partyId);
+  const reasons = new Map(ledger.entries.map((e) => [e.id, e.reason]));
   return {
     balanceYen: ledger.balanceYen,
     ageing: ledger.ageing,
-    entries: ledger.lines.map((l) => ({ at: l.at.toISOString(), kind: l.kind, amountYen: l.amountYen, ref: l.ref, taxRatePct: l.taxRatePct, statement: l.statement })),
+    entries: ledger.lines.map((l) => ({ at: l.at.toISOString(), kind: l.kind, amountYen: l.amountYen, ref: l.ref, taxRatePct: l.taxRatePct, statement: l.statement, reason: (l.entryId && reasons.get(l.entryId)) || "" })),
   };
 }
 

@@ -2,7 +2,7 @@ import "server-only";
 import { asc, desc, eq, like } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { parties, supplierStatementEntries, supplierStatements, users } from "@/db/schema";
-import { can, canReadLedgerOf } from "@/domain/permissions";
+import { can } from "@/domain/permissions";
 import { taxByRate } from "@/domain/tax";
 import { dayInJapan, startOfDayInJapan } from "@/lib/validation/csv";
 import type { Translate } from "@/lib/validation/field-errors";
@@ -10,7 +10,7 @@ import { parseSupplierInput, statementSchema } from "@/lib/validation/suppliers"
 import { getDb } from "./db";
 import { AppError, forbidden, invalid, notFound } from "./errors";
 import type { SessionUser } from "./session";
-import { computeLedger, entriesOf, loadAccount, requireSupplier, type EntryRow, type StatementTotals } from "./supplier-ledger";
+import { computeLedger, entriesOf, loadAccount, requireReadableSupplier, requireSupplier, type EntryRow, type StatementTotals } from "./supplier-ledger";
 import { readTaxRounding } from "./supplier-settings";
 
 const DAY_MS = 86_400_000;
@@ -91,9 +91,9 @@ function loadStatement(db: DbOrTx, number: string) {
   };
 }
 
-/** One statement of one supplier: the office and auditors any, a supplier only its own (403). */
+/** One statement of one supplier: the office and auditors any, a supplier only its own (another's: 404, as unknown). */
 export function readStatement(actor: SessionUser, partyId: string, number: string): StatementView {
-  if (!canReadLedgerOf(actor, partyId)) throw forbidden("errors.notYourStatements");
+  requireReadableSupplier(getDb(), actor, partyId, { key: "errors.statementNotFound", values: { number } });
   const view = loadStatement(getDb(), number);
   if (!view || view.supplier.id !== partyId) throw notFound({ key: "errors.statementNotFound", values: { number } });
   return view;

@@ -73,8 +73,8 @@ const POLISHED_VISIBLE = o("401", "ok", "ok", "404", "ok", "ok", "ok");
 const ADMIN_ONLY = o("401", "ok", "403", "403", "403", "403", "403");
 const ADMIN_ONLY_WRITE = o("401", "422", "403", "403", "403", "403", "403");
 /** provenance:read, or (recall) provenance:read or records:read-all: the same four roles. */
-/** Ikeda Farm's money: the office, the auditor and Ikeda Farm itself. */
-const IKEDA_LEDGER = o("401", "ok", "403", "ok", "403", "403", "ok");
+/** Ikeda Farm's money: the office, the auditor and Ikeda Farm itself; to the mill, an unknown party (404). */
+const IKEDA_LEDGER = o("401", "ok", "403", "ok", "404", "403", "ok");
 const OFFICE_READERS = o("401", "ok", "ok", "403", "403", "ok", "ok");
 
 export const ROUTES: RouteProbe[] = [

@@ -47,11 +47,11 @@ describe("harvest import", () => {
     expect(await tableDigests()).toEqual(before);
   });
 
-  it("refuses a row on another grower's field with the 403 message, writing nothing", async () => {
+  it("refuses a row on another grower's field as an unknown field, writing nothing", async () => {
     const before = await tableDigests();
     const res = await commit(grower, "harvests", "harvests-other-growers-field.csv");
     expect(res.status).toBe(422);
-    expect(res.body.problems).toEqual([{ line: 3, code: "forbidden", fields: { _: ["You can record harvests only on your own fields."] } }]);
+    expect(res.body.problems).toEqual([{ line: 3, code: "invalid", fields: { field: ["Choose one of your fields."] } }]);
     expect(await tableDigests()).toEqual(before);
   });
 

@@ -56,10 +56,11 @@ describe("harvest lots", () => {
     expect(created).toMatchObject({ kind: "harvest", unit: "kg", quantity: 720, onHand: 720, variety: "Yamada Nishiki", cropYear: 2026, grade: "1", moisturePct: 14.8, party: { id: "grower-ikeda" }, field: { id: "field-ikeda-terrace", region: "Hyogo" } });
   });
 
-  it("refuses another grower's field with 403 and changes nothing", async () => {
+  it("answers another grower's field as unknown (422) and changes nothing", async () => {
     const before = await tableDigests();
     const res = await harvest(grower2, {});
-    expect(res.status).toBe(403);
+    expect(res.status).toBe(422);
+    expect(res.body.error.fields.fieldId).toEqual(["Choose one of your fields."]);
     expect(await tableDigests()).toEqual(before);
   });
 

@@ -119,11 +119,12 @@ describe("without a contract price", () => {
 });
 
 describe("who may read and write a supplier's account", () => {
-  it("answers another supplier's ledger with 403, any supplier's to the office and the auditor", async () => {
-    expect((await ledger(grower, "grower-nakase")).status).toBe(403);
-    expect((await ledger(grower2, "grower-ikeda")).status).toBe(403);
-    expect((await ledger(miller, "grower-ikeda")).status).toBe(403);
-    expect((await ledger(grower, "mill-shirotae")).status).toBe(403);
+  it("answers another supplier's ledger as unknown (404), any supplier's to the office and the auditor", async () => {
+    // A supplier learns nothing of another's account (tests/integration/unseen-unknown.test.ts); a role reading no money keeps 403.
+    expect((await ledger(grower, "grower-nakase")).status).toBe(404);
+    expect((await ledger(grower2, "grower-ikeda")).status).toBe(404);
+    expect((await ledger(miller, "grower-ikeda")).status).toBe(404);
+    expect((await ledger(grower, "mill-shirotae")).status).toBe(404);
     expect((await ledger(brewer, "grower-ikeda")).status).toBe(403);
     expect((await ledger(grower2, "grower-nakase")).status).toBe(200);
     expect((await ledger(miller, "mill-shirotae")).status).toBe(200);
@@ -183,7 +184,7 @@ describe("statements", () => {
     expect(csvText).toContain(`"'=HYPERLINK(""http://x.invalid"")"`);
 
     const other = await getStatementPdf(jsonRequest(`/api/suppliers/grower-nakase/statements/${number}/statement.pdf`, { cookie: grower }), { params: Promise.resolve({ partyId: "grower-nakase", number }) });
-    expect(other.status).toBe(403);
+    expect(other.status).toBe(404);
     const wrongParty = await getStatementPdf(jsonRequest(`/api/suppliers/grower-ikeda/statements/${number}/statement.pdf`, { cookie: grower }), { params: Promise.resolve({ partyId: "grower-ikeda", number }) });
     expect(wrongParty.status).toBe(404);
   });

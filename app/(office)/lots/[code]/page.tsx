@@ -3,10 +3,10 @@ import { notFound } from "next/navigation";
 import { getFormatter, getTranslations } from "next-intl/server";
 import { AttachmentsPanel } from "@/components/attachments-panel";
 import { LotCardView } from "@/components/lot-card-view";
-import { canCorrect } from "@/domain/permissions";
 import { normaliseLotCode } from "@/domain/lot-code";
 import { roundPct } from "@/domain/polishing";
 import { lotAttachments } from "@/server/attachments";
+import { correctableIds } from "@/server/correction-rights";
 import { tankSummary } from "@/server/tanks";
 import { TankPanel } from "./tank-panel";
 import { neighbours } from "@/server/lineage";
@@ -33,7 +33,10 @@ export default async function LotPage({ params }: { params: Promise<{ code: stri
   const making = history.find((e) => e.outputs.some((o) => o.lot === code) && e.step === "polishing");
   const run = making?.attributes as { targetPolishingRatioPct?: number; achievedPolishingRatioPct?: number; missedTarget?: boolean; marginPts?: number } | undefined;
   const files = lotAttachments(user, code);
-  const correctable = history.filter((e) => e.step !== "correcting" && !e.correctedBy && canCorrect(user, { userId: e.user.id }));
+  // The form offers only what the server would take: the same rule (src/domain/corrections.ts).
+  const open = history.filter((e) => e.step !== "correcting" && !e.correctedBy);
+  const mayCorrect = correctableIds(user, open.map((e) => ({ id: e.id, userId: e.user.id, partyId: e.party.id })));
+  const correctable = open.filter((e) => mayCorrect.has(e.id));
 
   return (
     <div className="space-y-8">

@@ -1,16 +1,15 @@
 import { z } from "zod";
-import { canReadLedgerOf } from "@/domain/permissions";
-import { forbidden } from "@/server/errors";
 import { handle, readJson, requireApiPermission, requireApiUser } from "@/server/http";
 import { publicOrigin } from "@/server/public-origin";
 import { mailStatement, statementPdfPath } from "@/server/supplier-statement-mail";
 import { issueStatement, listStatements, statementByNumber } from "@/server/supplier-statements";
 import { getDb } from "@/server/db";
+import { requireReadableSupplier } from "@/server/supplier-ledger";
 
 export const GET = handle(async (request, { params }) => {
   const actor = await requireApiUser(request);
   const partyId = params.partyId ?? "";
-  if (!canReadLedgerOf(actor, partyId)) throw forbidden();
+  requireReadableSupplier(getDb(), actor, partyId);
   const items = listStatements(partyId).map(({ totals: _totals, ...s }) => ({ ...s, pdf: statementPdfPath(partyId, s.number) }));
   return Response.json({ items });
 });
