@@ -9,7 +9,8 @@ import type { SessionUser } from "./session";
 const other = alias(lots, "other");
 const self = alias(lots, "self");
 
-export type Neighbour = { code: string; kind: string; share: number; visible: boolean };
+/** A neighbour the reader may not see keeps its kind and share, never its code. */
+export type Neighbour = { code: string | null; kind: string; share: number; visible: boolean };
 
 /**
  * One step back and one step forward (ISO 22005, EU 178/2002 Art. 18): the lots this one
@@ -38,6 +39,6 @@ export function neighbours(actor: SessionUser, lotId: number): { back: Neighbour
     .having(sql`abs(sum(${lineageEdges.weight})) > 1e-9`)
     .orderBy(sql`3 desc`)
     .all();
-  const mark = (rows: { code: string; kind: string; share: number }[]) => rows.map((r) => ({ ...r, visible: seen(r.code) }));
+  const mark = (rows: { code: string; kind: string; share: number }[]) => rows.map((r) => (seen(r.code) ? { ...r, visible: true } : { ...r, code: null, visible: false }));
   return { back: mark(back), forward: mark(forward) };
 }

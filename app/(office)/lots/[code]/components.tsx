@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { getFormatter, getTranslations } from "next-intl/server";
 import type { Neighbour } from "@/server/lineage";
-import type { LotEvent } from "@/server/lot-events";
+import type { ShownLotEvent } from "@/server/lot-events";
 
 export async function LineageList({ title, empty, items, direction, testId }: { title: string; empty: string; items: Neighbour[]; direction: "back" | "forward"; testId: string }) {
   const t = await getTranslations();
@@ -14,12 +14,12 @@ export async function LineageList({ title, empty, items, direction, testId }: { 
         <p className="text-ink-soft">{empty}</p>
       ) : (
         <ul className="space-y-2">
-          {items.map((n) => (
-            <li key={n.code} className="flex flex-wrap items-center gap-3">
-              {n.visible ? (
+          {items.map((n, i) => (
+            <li key={n.code ?? `other-${i}`} className="flex flex-wrap items-center gap-3">
+              {n.code !== null ? (
                 <Link href={`/lots/${n.code}`} className="code-chip no-underline">{n.code}</Link>
               ) : (
-                <span className="code-chip opacity-60" title={t("lotPage.hidden")}>{n.code}</span>
+                <span className="code-chip opacity-60" title={t("lotPage.hidden")}>{t("lotPage.otherPartyLot")}</span>
               )}
               <span>{t(`lot.kinds.${n.kind}`)}</span>
               <span className="ml-auto font-semibold">
@@ -33,7 +33,7 @@ export async function LineageList({ title, empty, items, direction, testId }: { 
   );
 }
 
-export async function EventTimeline({ events, lotCode }: { events: LotEvent[]; lotCode: string }) {
+export async function EventTimeline({ events, lotCode }: { events: ShownLotEvent[]; lotCode: string }) {
   const t = await getTranslations();
   const format = await getFormatter();
   const qty = (q: number, unit: string) => `${format.number(q, { maximumFractionDigits: 3 })} ${unit}`;
@@ -56,13 +56,13 @@ export async function EventTimeline({ events, lotCode }: { events: LotEvent[]; l
             {e.inputs.length ? (
               <div>
                 <p className="font-semibold">{t("lotPage.inputs")}</p>
-                <ul>{e.inputs.map((i) => <li key={`${i.lot}-${i.use}`}><LotRef code={i.lot} current={lotCode} /> {i.use === "draw" ? qty(i.quantity, i.unit) : t(`lotPage.uses.${i.use}`)}</li>)}</ul>
+                <ul>{e.inputs.map((i, n) => <li key={n}>{i.lot === null ? <OtherPartyLot label={t("lotPage.otherPartyLot")} /> : <><LotRef code={i.lot} current={lotCode} /> {i.use === "draw" ? qty(i.quantity, i.unit) : t(`lotPage.uses.${i.use}`)}</>}</li>)}</ul>
               </div>
             ) : null}
             {e.outputs.length ? (
               <div>
                 <p className="font-semibold">{t("lotPage.outputs")}</p>
-                <ul>{e.outputs.map((o) => <li key={o.lot}><LotRef code={o.lot} current={lotCode} /> {qty(o.quantity, o.unit)}</li>)}</ul>
+                <ul>{e.outputs.map((o, n) => <li key={n}>{o.lot === null ? <OtherPartyLot label={t("lotPage.otherPartyLot")} /> : <><LotRef code={o.lot} current={lotCode} /> {qty(o.quantity, o.unit)}</>}</li>)}</ul>
               </div>
             ) : null}
             {e.measurements.length ? (
@@ -81,6 +81,11 @@ export async function EventTimeline({ events, lotCode }: { events: LotEvent[]; l
       ))}
     </ol>
   );
+}
+
+/** A lot of another party in the same event: named neither by code nor by weight. */
+function OtherPartyLot({ label }: { label: string }) {
+  return <span className="code-chip opacity-60" data-testid="other-party-lot">{label}</span>;
 }
 
 function LotRef({ code, current }: { code: string; current: string }) {
