@@ -13,7 +13,9 @@ export type AuditAction =
   | "party.created"
   | "party.updated"
   | "field.created"
-  | "settings.updated";
+  | "settings.updated"
+  | "payment.over-balance"
+  | "payment.reversed";
 
 /** Appends who did what; called inside the same transaction as the change it records. */
 export function recordAudit(

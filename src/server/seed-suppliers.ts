@@ -8,7 +8,7 @@ import type { SessionUser } from "./session";
 import { addGrowerContract, addMillContract } from "./supplier-contracts";
 import { publicOrigin } from "./public-origin";
 import { ledgerOf } from "./supplier-ledger";
-import { recordPayment } from "./supplier-office";
+import { recordPayment } from "./supplier-payments";
 import { mailStatement } from "./supplier-statement-mail";
 import { issueStatement, statementByNumber } from "./supplier-statements";
 

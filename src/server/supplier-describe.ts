@@ -30,8 +30,11 @@ export function describeEntry(e: Pick<EntryRow, "kind" | "detail" | "lotCode" | 
     }
     case "reversal":
       return t("suppliers.describe.reversal", { what: t(`suppliers.reversesKinds.${String(detail.reverses ?? "delivery")}`), lot: e.lotCode ?? e.reference, reason: e.reason });
-    case "payment":
-      return t("suppliers.describe.payment", { method: t(`suppliers.methods.${e.method || "other"}`), reference: e.reference || "—" });
+    case "payment": {
+      const paid = t("suppliers.describe.payment", { method: t(`suppliers.methods.${e.method || "other"}`), reference: e.reference || "—" });
+      // Paid over the balance owed: the confirming reason goes wherever the payment is shown.
+      return typeof detail.owedBeforeYen === "number" ? `${paid}; ${t("suppliers.describe.overpaid", { owed: n(detail.owedBeforeYen), reason: e.reason })}` : paid;
+    }
     case "adjustment":
       return t("suppliers.describe.adjustment", { reason: e.reason });
   }

@@ -71,9 +71,10 @@ export function computeLedger(account: Account, rounding: Rounding, asOf: Date, 
   for (const r of open.rates) lines.push({ at: asOf, kind: "tax", amountYen: r.taxYen, ref: `open ${r.ratePct} %`, taxRatePct: r.ratePct, entryId: null, statement: null });
   lines.sort((a, b) => a.at.getTime() - b.at.getTime());
   const balanceYen = lines.reduce((a, l) => a + l.amountYen, 0);
-  // A reversed charge and its reversal cancel out: neither is a charge still to age.
+  // A reversed charge and its reversal cancel out: neither is a charge still to age. Nor is a
+  // reversed payment's reversal (positive) a new charge: the charges the payment settled owe again, at their age.
   const reversed = new Set(entries.map((e) => e.reversesEntryId).filter((id): id is number => id !== null));
-  const charges = lines.filter((l) => l.amountYen > 0 && (l.entryId === null || !reversed.has(l.entryId)));
+  const charges = lines.filter((l) => l.amountYen > 0 && l.kind !== "reversal" && (l.entryId === null || !reversed.has(l.entryId)));
   return { partyId: account.partyId, balanceYen, lines, entries, openTax: open.rates, ageing: ageBalance(charges, balanceYen, asOf) };
 }
 

@@ -5,30 +5,16 @@ import { parties, supplierEntries } from "@/db/schema";
 import { can } from "@/domain/permissions";
 import { noonInJapan } from "@/lib/validation/csv";
 import type { Translate } from "@/lib/validation/field-errors";
-import { adjustmentSchema, invoiceNumberSchema, parseSupplierInput, paymentSchema } from "@/lib/validation/suppliers";
+import { adjustmentSchema, invoiceNumberSchema, parseSupplierInput } from "@/lib/validation/suppliers";
 import { recordAudit } from "./audit";
 import { getDb } from "./db";
 import { forbidden, invalid } from "./errors";
 import type { SessionUser } from "./session";
 import { ledgerOf, requireSupplier } from "./supplier-ledger";
 
-/**
- * The office's own entries on a supplier's account. Both are appended like every entry:
- * a wrong payment is put right by an adjustment with its reason, never by editing it.
- */
-export function recordPayment(actor: SessionUser, partyId: string, raw: unknown, t: Translate, db: DbOrTx = getDb()) {
-  if (!can(actor, "ledger:manage")) throw forbidden();
-  const input = parseSupplierInput(paymentSchema, raw, t, (f) => invalid(f));
-  return db.transaction((tx) => {
-    requireSupplier(tx, partyId);
-    const id = tx
-      .insert(supplierEntries)
-      .values({ partyId, kind: "payment", at: new Date(noonInJapan(input.date)), amountYen: -input.amountYen, taxRatePct: 0, method: input.method, reference: input.reference, userId: actor.id, recordedAt: new Date() })
-      .returning({ id: supplierEntries.id })
-      .get().id;
-    return { id, balanceYen: ledgerOf(tx, partyId).balanceYen };
-  });
-}
+// The office's own entries on a supplier's account, appended like every entry: a wrong one is
+// put right by a new entry with its reason, never by editing it. Payments and their reversals
+// are in supplier-payments.ts.
 
 /**
  * An adjustment with its reason: positive when the brewery owes more. At 8 % or 10 % it is a

@@ -45,7 +45,8 @@ export function issueStatement(actor: SessionUser, partyId: string, raw: unknown
     const totals: StatementTotals = {
       rounding,
       ...tax,
-      paymentsYen: sum(covered.filter((e) => e.kind === "payment")),
+      // A payment's reversal counts against the payments (it may state a payment of an earlier statement).
+      paymentsYen: sum(covered.filter((e) => e.kind === "payment" || (e.kind === "reversal" && e.taxRatePct === 0 && JSON.parse(e.detail).reverses === "payment"))),
       adjustmentsYen: sum(covered.filter((e) => e.kind === "adjustment" && e.taxRatePct === 0)),
     };
     const number = nextNumber(tx, issuedAt);

@@ -13,6 +13,7 @@ import { getDb, getSqlite } from "@/server/db";
 import { SETTING_DEFAULTS } from "@/server/settings";
 import { POST as eventsRoute } from "../../app/api/events/route";
 import { POST as harvestsRoute } from "../../app/api/harvests/route";
+import { POST as paymentsRoute } from "../../app/api/suppliers/[partyId]/payments/route";
 import { POST as usersRoute } from "../../app/api/users/route";
 import { ACTIONS, actionKey } from "../authz/matrix";
 import { submit, type Action } from "../support/action-scope";
@@ -31,7 +32,7 @@ const INTERNAL = translator("en")("errors.internal");
 
 type Who = "anonymous" | "admin" | "grower" | "miller";
 const cookies: Record<Who, string> = { anonymous: "", admin: "", grower: "", miller: "" };
-const prepared = { growerLot: "", eventId: "", token: "" };
+const prepared = { growerLot: "", eventId: "", token: "", paymentId: "" };
 
 /** The settings form as the page fills it: every band's two bounds and the public-page boxes. */
 function settingsForm(): Record<string, string> {
@@ -75,7 +76,9 @@ const CASES: Case[] = [
     who: "admin",
     base: () => ({ partyId: "mill-shirotae", "tier0-upTo": "50", "tier0-fee": "60", "tier1-upTo": "60", "tier1-fee": "45", "tier2-upTo": "70", "tier2-fee": "35", "tier3-upTo": "", "tier3-fee": "30", note: "" }),
   },
-  { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "recordPaymentAction", who: "admin", base: () => ({ partyId: "grower-ikeda", payDate: "2026-11-25", payAmount: "1000", payMethod: "bank-transfer", payReference: "" }) },
+  { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "recordPaymentAction", who: "admin", base: () => ({ partyId: "grower-ikeda", payDate: "2026-11-25", payAmount: "1000", payMethod: "bank-transfer", payReference: "", payOverReason: "" }) },
+  // Once the base form has reversed the payment, a corruption that still reads right is refused as already reversed (409).
+  { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "reversePaymentAction", who: "admin", base: () => ({ partyId: "grower-ikeda", entryId: prepared.paymentId, reversalReason: "Probe: paid twice" }) },
   { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "recordAdjustmentAction", who: "admin", base: () => ({ partyId: "grower-ikeda", adjDate: "2026-11-25", adjAmount: "-500", adjRate: "8", adjReason: "Probe adjustment" }) },
   { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "issueStatementAction", who: "admin", base: () => ({ partyId: "grower-nakase", from: "2025-01-01", to: "2025-01-31", email: "" }) },
 ];
@@ -127,6 +130,10 @@ beforeAll(async () => {
   expect(invited.status).toBe(201);
   const mail = getDb().select().from(outbox).orderBy(desc(outbox.createdAt)).get()!;
   prepared.token = /\/set-password\/([A-Za-z0-9_-]+)/.exec(mail.textBody)![1]!;
+  // A payment for the reversal to undo.
+  const paid = await call(paymentsRoute, jsonRequest("/api/suppliers/grower-ikeda/payments", { cookie: cookies.admin, body: { date: "2026-11-26", amountYen: 1_500, method: "cash", reference: "Probe" } }), { partyId: "grower-ikeda" });
+  expect(paid.status, JSON.stringify(paid.body)).toBe(201);
+  prepared.paymentId = String(paid.body.id);
 });
 
 describe("server actions under bad input: a form state, never an internal error; a refusal changes nothing", () => {

@@ -17,11 +17,13 @@ import { POST as commitRoute } from "../../app/api/import/commit/route";
 import { POST as previewRoute } from "../../app/api/import/preview/route";
 import { POST as attachRoute } from "../../app/api/lots/[code]/attachments/route";
 import { POST as partiesRoute } from "../../app/api/parties/route";
+import { POST as paymentsRoute } from "../../app/api/suppliers/[partyId]/payments/route";
+import { POST as reversalRoute } from "../../app/api/suppliers/[partyId]/payments/[entryId]/reversal/route";
 import { POST as usersRoute } from "../../app/api/users/route";
 import { call, jsonRequest, ORIGIN, signInAs, tableDigests } from "../support/api";
 import { startFastPathServer } from "../support/fast-path-server";
 import { badJsonBody, maybeIdempotencyKey, type Attempt } from "../support/bad-input";
-import { attachmentTry, FIELDS, HARVESTS, IMPORT_HARVESTS, importReceipts, known, MEASURING, PARTIES, POLISHING, randomPng, signOutTry, SIGN_IN, SOAKING, sql, USERS, type Try, type Who } from "../support/bad-input-cases";
+import { attachmentTry, FIELDS, HARVESTS, IMPORT_HARVESTS, importReceipts, known, MEASURING, PARTIES, POLISHING, randomPng, REVERSAL, signOutTry, SIGN_IN, SOAKING, sql, USERS, type Try, type Who } from "../support/bad-input-cases";
 
 /**
  * Fixed, so that a failure reproduces; 100 runs per endpoint keep the file near 15 s. For a longer
@@ -46,7 +48,14 @@ beforeAll(async () => {
   for (const { id } of sql<{ id: string }>("select id from parties")) known.parties.add(id);
   known.soakable = sql<{ code: string }>("select code from lots where kind = 'polished' and party_id = 'brewery-kirinoha' and on_hand >= 10").map((r) => r.code);
   known.brewerySeen = sql<{ code: string }>("select code from lots where party_id = 'brewery-kirinoha' or origin_party_id = 'brewery-kirinoha'").map((r) => r.code);
+  // A payment for the reversal route to be refused on (and, after the fuzzing, to reverse).
+  const paid = await call(paymentsRoute, jsonRequest("/api/suppliers/grower-ikeda/payments", { cookie: cookies.admin, body: { date: "2026-11-26", amountYen: 1_500, method: "cash" } }), { partyId: "grower-ikeda" });
+  expect(paid.status).toBe(201);
+  known.paymentId = String(paid.body.id);
 });
+
+const reversalTry = () =>
+  asWho("admin", badJsonBody(REVERSAL), `/api/suppliers/grower-ikeda/payments/${known.paymentId}/reversal`).map((t): Try => ({ ...t, params: { partyId: "grower-ikeda", entryId: known.paymentId } }));
 
 afterAll(() => {
   // The blob folder sits beside the test database and outlives it.
@@ -147,6 +156,7 @@ function endpoints(): Endpoint[] {
     { name: "POST /api/import/commit (harvests)", route: commitRoute, tries: asWho("grower", badJsonBody(IMPORT_HARVESTS), "/api/import/commit", maybeIdempotencyKey) },
     { name: "POST /api/import/commit (receipts)", route: commitRoute, tries: asWho("miller", badJsonBody(importReceipts()), "/api/import/commit", maybeIdempotencyKey) },
     { name: "POST /api/lots/{code}/attachments", route: attachRoute, tries: attachmentTry, watchBlobs: true },
+    { name: "POST /api/suppliers/{partyId}/payments/{entryId}/reversal", route: reversalRoute, tries: reversalTry() },
   ];
 }
 
@@ -185,6 +195,11 @@ describe("the uncorrupted bodies are accepted", () => {
     const res = await call(route, jsonRequest(url, { cookie: cookies[who], body: base() }));
     expect(res.status, JSON.stringify(res.body)).toBe(status);
     if (url === "/api/import/preview") expect(res.body.problems).toEqual([]);
+  });
+
+  it("reversal of a payment", async () => {
+    const res = await call(reversalRoute, jsonRequest(`/api/suppliers/grower-ikeda/payments/${known.paymentId}/reversal`, { cookie: cookies.admin, body: REVERSAL.base }), { partyId: "grower-ikeda", entryId: known.paymentId });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
   });
 
   it("attachments: a PNG on the brewery's lot", async () => {

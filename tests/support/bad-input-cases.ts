@@ -18,7 +18,7 @@ export type Try = { who: Who; attempt: Attempt; url: string; params?: Record<str
 export const sql = <T>(query: string, ...args: unknown[]) => getSqlite().prepare(query).all(...args) as T[];
 
 /** What the seeded database holds, read once before the fuzzing (bad-input.property.test.ts fills it in). */
-export const known = { parties: new Set<string>(), growerLot: "", soakable: [] as string[], brewerySeen: [] as string[] };
+export const known = { parties: new Set<string>(), growerLot: "", soakable: [] as string[], brewerySeen: [] as string[], paymentId: "" };
 
 /** Whether an event drew from, added to or measured P26-0001, or corrected one that did (an attachment may name only such an event). */
 const touchesPolished = (id: number) =>
@@ -188,6 +188,12 @@ const headerSlots = (kind: ImportKind) =>
     // Blanking an optional column's header just leaves the column out.
     .filter(({ column }) => !IMPORT_COLUMNS[kind].optional.includes(column))
     .map(({ column, i }) => ({ path: ["header", i] as const, slot: { kind: "enum", values: [column.toLowerCase()], normalise: (v: string) => v.replace(/^\uFEFF/, "").trim().toLowerCase() } as Slot }));
+/** A payment's reversal (the payment named in the URL, known.paymentId): the reason, 3 to 500 characters (src/lib/validation/suppliers.ts). */
+export const REVERSAL: BodyCase = {
+  base: { reason: "Probe: the transfer bounced" },
+  slots: [{ path: ["reason"], slot: text(500, true), required: true }],
+};
+
 const csvNumber = (min: number, max: number, more: { int?: boolean; minExclusive?: boolean } = {}): Slot => ({ kind: "csv-number", min, max, ...more });
 const extraCell = { cell: true, path: ["rows", 0, "cells", 8] as const, slot: { kind: "custom", values: fc.string({ minLength: 1, maxLength: 10 }).filter((s) => s.trim() !== "") } as Slot };
 const importRows = { path: ["rows", 0, "line"] as const, slot: num(1, Number.MAX_VALUE, { int: true }) };

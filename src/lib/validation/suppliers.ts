@@ -57,8 +57,13 @@ export const paymentSchema = z.object({
   amountYen: yen(1),
   method: z.enum(PAYMENT_METHODS),
   reference: text(100).default(""),
+  // Confirms a payment larger than the balance owed (src/server/supplier-payments.ts).
+  overpaymentReason: text(500).default(""),
 });
 export type PaymentInput = z.infer<typeof paymentSchema>;
+
+/** Why a payment is reversed: it stays on the account beside the reversal. */
+export const reversalSchema = z.object({ reason: text(500).min(3) });
 
 export const adjustmentSchema = z.object({
   date: day,

@@ -7,7 +7,8 @@ import { actionOrigin, guardAction } from "@/server/action";
 import { getDb } from "@/server/db";
 import { requireUser } from "@/server/session";
 import { addGrowerContract, addMillContract } from "@/server/supplier-contracts";
-import { recordAdjustment, recordPayment, setInvoiceNumber } from "@/server/supplier-office";
+import { recordAdjustment, setInvoiceNumber } from "@/server/supplier-office";
+import { recordPayment, reversePayment } from "@/server/supplier-payments";
 import { mailStatement } from "@/server/supplier-statement-mail";
 import { issueStatement, statementByNumber } from "@/server/supplier-statements";
 
@@ -52,10 +53,19 @@ export async function addMillContractAction(_prev: FormState, formData: FormData
 export async function recordPaymentAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);
   return guardAction(values, async (t) => {
-    const raw = { date: values.payDate, amountYen: values.payAmount, method: values.payMethod, reference: values.payReference ?? "" };
+    const raw = { date: values.payDate, amountYen: values.payAmount, method: values.payMethod, reference: values.payReference ?? "", overpaymentReason: values.payOverReason ?? "" };
     const { balanceYen } = recordPayment(await requireUser(), values.partyId ?? "", raw, t);
     done(values.partyId ?? "");
     return { ok: true, message: t("suppliers.payment.saved", { balance: yen(balanceYen) }) };
+  });
+}
+
+export async function reversePaymentAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const values = formValues(formData);
+  return guardAction(values, async (t) => {
+    const { balanceYen } = reversePayment(await requireUser(), values.partyId ?? "", values.entryId ?? "", { reason: values.reversalReason ?? "" }, t);
+    done(values.partyId ?? "");
+    return { ok: true, message: t("suppliers.payment.reversed", { balance: yen(balanceYen) }) };
   });
 }
 

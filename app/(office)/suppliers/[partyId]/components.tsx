@@ -5,8 +5,7 @@ import { useTranslations } from "next-intl";
 import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
 import { initialFormState, type FormState } from "@/lib/form-state";
-import { PAYMENT_METHODS } from "@/lib/validation/suppliers";
-import { issueStatementAction, recordAdjustmentAction, recordPaymentAction, setInvoiceNumberAction } from "./actions";
+import { issueStatementAction, recordAdjustmentAction, setInvoiceNumberAction } from "./actions";
 
 type Action = (prev: FormState, formData: FormData) => Promise<FormState>;
 
@@ -52,19 +51,6 @@ export function InvoiceNumberForm({ partyId, current }: { partyId: string; curre
       <FormField label={t("invoice")} name="invoiceNumber" defaultValue={f.v("invoiceNumber", current)} errors={f.state.fields?.invoiceNumber} placeholder="T1234567890123" className="field-input font-[family-name:var(--font-code)]" />
       <button type="submit" className="btn" disabled={f.pending}>{t("saveInvoice")}</button>
     </form>
-  );
-}
-
-export function PaymentForm({ partyId, today }: { partyId: string; today: string }) {
-  const t = useTranslations("suppliers");
-  const f = useSupplierForm(recordPaymentAction);
-  return (
-    <SupplierForm form={f} partyId={partyId} testId="payment-form" columns={2} submit={t("payment.save")}>
-      <FormField label={t("payment.date")} name="payDate" type="date" defaultValue={f.v("payDate", today)} errors={f.state.fields?.date} />
-      <FormField label={t("payment.amount")} name="payAmount" inputMode="numeric" defaultValue={f.v("payAmount")} errors={f.state.fields?.amountYen} />
-      <Select label={t("payment.method")} name="payMethod" value={f.v("payMethod", "bank-transfer")} options={PAYMENT_METHODS.map((m) => [m, t(`methods.${m}`)])} errors={f.state.fields?.method} />
-      <FormField label={t("payment.reference")} name="payReference" defaultValue={f.v("payReference")} errors={f.state.fields?.reference} />
-    </SupplierForm>
   );
 }
 

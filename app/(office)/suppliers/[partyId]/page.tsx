@@ -11,11 +11,13 @@ import { requirePageUser } from "@/server/page-guard";
 import { currentMillContract, listContracts } from "@/server/supplier-contracts";
 import { accountRows } from "@/server/supplier-describe";
 import { ledgerOf } from "@/server/supplier-ledger";
+import { paymentLines } from "@/server/supplier-payments";
 import { deliveriesOf, runsOf } from "@/server/supplier-portal";
 import { listStatements } from "@/server/supplier-statements";
 import { getParty } from "@/server/parties";
 import { ContractsTable, GrowerContractForm, MillContractForm } from "./contract-forms";
-import { AdjustmentForm, InvoiceNumberForm, PaymentForm, StatementForm } from "./components";
+import { AdjustmentForm, InvoiceNumberForm, StatementForm } from "./components";
+import { PaymentForm, PaymentsList } from "./payment-forms";
 
 export default async function SupplierPage({ params }: { params: Promise<{ partyId: string }> }) {
   const user = await requirePageUser();
@@ -31,6 +33,7 @@ export default async function SupplierPage({ params }: { params: Promise<{ party
   const runs = party.kind === "mill" ? runsOf(partyId) : [];
   const unpriced = deliveries.filter((d) => d.amountYen === null && !d.reversed);
   const unpricedRuns = runs.filter((r) => r.feeYen === null && !r.reversed);
+  const payments = manage ? paymentLines(ledger, translate) : [];
   const today = dayInJapan(new Date());
   const statements = listStatements(partyId).map(({ totals: _t, ...s }) => s);
   const lastTo = statements.at(-1)?.to;
@@ -83,7 +86,7 @@ export default async function SupplierPage({ params }: { params: Promise<{ party
         <div className="grid gap-6 lg:grid-cols-2">
           <section className="panel space-y-3">
             <h2 className="text-xl font-bold">{t("payment.title")}</h2>
-            <PaymentForm partyId={partyId} today={today} />
+            <PaymentForm partyId={partyId} today={today} balanceYen={ledger.balanceYen} />
           </section>
           <section className="panel space-y-3">
             <h2 className="text-xl font-bold">{t("adjustment.title")}</h2>
@@ -91,6 +94,13 @@ export default async function SupplierPage({ params }: { params: Promise<{ party
             <AdjustmentForm partyId={partyId} today={today} />
           </section>
         </div>
+      ) : null}
+      {manage && payments.length ? (
+        <section className="space-y-3">
+          <h2 className="text-xl font-bold">{t("payment.listTitle")}</h2>
+          <p className="max-w-3xl text-sm text-ink-soft">{t("payment.listIntro")}</p>
+          <PaymentsList partyId={partyId} rows={payments} />
+        </section>
       ) : null}
       <section className="space-y-3">
         <h2 className="text-xl font-bold">{t("statements.title")}</h2>

@@ -1,8 +1,11 @@
 import { z } from "zod";
 import { handle, readJson, requireApiPermission } from "@/server/http";
-import { recordPayment } from "@/server/supplier-office";
+import { recordPayment } from "@/server/supplier-payments";
 
-/** `{ date, amountYen, method, reference }` → 201 `{ id, balanceYen }`; the office only. */
+/**
+ * `{ date, amountYen, method, reference, overpaymentReason? }` → 201 `{ id, balanceYen }`; the
+ * office only. More than the balance owed without `overpaymentReason`: 409 naming the balance.
+ */
 export const POST = handle(async (request, { params, t }) => {
   const actor = await requireApiPermission(request, "ledger:manage");
   const body = await readJson(request, z.unknown(), t);
