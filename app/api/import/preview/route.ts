@@ -1,9 +1,18 @@
 import { handle, requireApiUser } from "@/server/http";
 import { previewImport, readImportRequest } from "@/server/csv-import";
+import { UserQuota } from "@/server/user-quota";
+
+// A preview writes (and undoes) every row of a file of up to 5,000: one at a time per user, ten a minute.
+const previews = new UserQuota({ atOnce: 1, perMinute: 10, busy: "errors.previewRunning", tooMany: "errors.tooManyPreviews" });
 
 /** Checks every row of a CSV import as if writing it, and writes nothing. */
 export const POST = handle(async (request, { t }) => {
   const actor = await requireApiUser(request);
-  const body = await readImportRequest(request, actor, t);
-  return Response.json(previewImport(actor, body, t));
+  const giveBack = previews.take(actor.id);
+  try {
+    const body = await readImportRequest(request, actor, t);
+    return Response.json(await previewImport(actor, body, t));
+  } finally {
+    giveBack();
+  }
 });
