@@ -5,6 +5,7 @@ import { GET as getLotRoute } from "../../app/api/lots/[code]/route";
 import { GET as getLotEvents } from "../../app/api/lots/[code]/events/route";
 import { getSqlite } from "@/server/db";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
+import { dispatchAndReceive } from "../support/receipts";
 
 let grower: string, grower2: string, miller: string, admin: string;
 
@@ -12,6 +13,7 @@ const harvest = (cookie: string, body: Record<string, unknown>, headers: Record<
   call(postHarvest, jsonRequest("/api/harvests", { cookie, body: { fieldId: "field-ikeda-terrace", variety: "Yamada Nishiki", cropYear: 2026, brownKg: 600, moisturePct: 14.8, grade: "1", bags: 10, ...body }, headers }));
 const event = (cookie: string, body: unknown, headers: Record<string, string> = {}) => call(postEvent, jsonRequest("/api/events", { cookie, body, headers }));
 const lot = async (cookie: string, code: string) => (await call(getLotRoute, jsonRequest(`/api/lots/${code}`, { cookie }), { code })).body;
+const atMill = (code: string, quantity: number, receipt: Record<string, unknown> = {}) => dispatchAndReceive(admin, miller, code, quantity, { receipt });
 
 beforeAll(async () => {
   grower = await signInAs("grower@example.com");
@@ -25,7 +27,7 @@ describe("append-only at the database", () => {
     const res = await harvest(grower, {});
     expect(res.status).toBe(201);
     // One row in every ledger table, so that each trigger has something to guard.
-    await event(miller, { step: "receiving", inputs: [{ lot: res.body.code, quantity: 600 }] });
+    await atMill(res.body.code, 600);
     const measured = await event(miller, { step: "measuring", inputs: [{ lot: res.body.code, quantity: 0 }], measurements: [{ name: "moisturePct", value: 14.6, unit: "%" }] });
     expect(measured.status).toBe(201);
     const sqlite = getSqlite();
@@ -89,7 +91,7 @@ describe("receipt and polishing run at the mill", () => {
     h2 = (await harvest(admin, { fieldId: "field-nakase-river", brownKg: 400, grade: "2" })).body.code;
     for (const [code, from] of [[h1, "grower-ikeda"], [h2, "grower-nakase"]] as const) {
       const qty = (await lot(admin, code)).onHand;
-      const res = await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: qty }], counterpartyId: from, referenceDoc: `DS-${code}` });
+      const res = await atMill(code, qty, { counterpartyId: from, referenceDoc: `DS-${code}` });
       expect(res.status).toBe(201);
     }
   });
@@ -131,7 +133,7 @@ describe("receipt and polishing run at the mill", () => {
 
   it("warns when the run misses its target by more than a point", async () => {
     const h = (await harvest(grower, { brownKg: 500 })).body.code;
-    await event(miller, { step: "receiving", inputs: [{ lot: h, quantity: 500 }] });
+    await atMill(h, 500);
     const res = await event(miller, {
       step: "polishing",
       inputs: [{ lot: h, quantity: 500 }],
@@ -144,7 +146,7 @@ describe("receipt and polishing run at the mill", () => {
 
   it("refuses an over-draw with 409 and leaves every table as it was", async () => {
     const h = (await harvest(grower, { brownKg: 300 })).body.code;
-    await event(miller, { step: "receiving", inputs: [{ lot: h, quantity: 300 }] });
+    await atMill(h, 300);
     const before = await tableDigests();
     const res = await event(miller, { step: "polishing", inputs: [{ lot: h, quantity: 300.5 }], outputs: [{ kind: "polished", quantity: 200 }], measurements: [{ name: "targetPolishingRatioPct", value: 70, unit: "%" }] });
     expect(res.status).toBe(409);
@@ -154,7 +156,7 @@ describe("receipt and polishing run at the mill", () => {
 
   it("records an event once for one Idempotency-Key", async () => {
     const h = (await harvest(grower, { brownKg: 200 })).body.code;
-    await event(miller, { step: "receiving", inputs: [{ lot: h, quantity: 200 }] });
+    await atMill(h, 200);
     const body = { step: "polishing", inputs: [{ lot: h, quantity: 100 }], outputs: [{ kind: "polished", quantity: 70 }], measurements: [{ name: "targetPolishingRatioPct", value: 70, unit: "%" }] };
     const headers = { "idempotency-key": "floor-7f3a" };
     const first = await event(miller, body, headers);
@@ -170,7 +172,7 @@ describe("receipt and polishing run at the mill", () => {
 describe("corrections", () => {
   it("reverses a polishing run with a reason; both show on the lot's page; never twice", async () => {
     const h = (await harvest(grower, { brownKg: 250 })).body.code;
-    await event(miller, { step: "receiving", inputs: [{ lot: h, quantity: 250 }] });
+    await atMill(h, 250);
     const run = await event(miller, { step: "polishing", inputs: [{ lot: h, quantity: 250 }], outputs: [{ kind: "polished", quantity: 175 }], measurements: [{ name: "targetPolishingRatioPct", value: 70, unit: "%" }] });
     const polished = run.body.outputs[0].code;
 
@@ -186,9 +188,9 @@ describe("corrections", () => {
     expect((await lot(miller, polished)).onHand).toBe(0);
     const history = (await call(getLotEvents, jsonRequest(`/api/lots/${h}/events`, { cookie: admin }), { code: h })).body.items;
     const steps = history.map((e: { step: string }) => e.step);
-    expect(steps).toEqual(["registering", "receiving", "polishing", "correcting"]);
-    expect(history[2].correctedBy).toBe(fix.body.id);
-    expect(history[3]).toMatchObject({ corrects: run.body.id, reason: "Weighed on the wrong scale", user: { name: "Mori Sachiko" } });
+    expect(steps).toEqual(["registering", "shipping", "receiving", "polishing", "correcting"]);
+    expect(history[3].correctedBy).toBe(fix.body.id);
+    expect(history[4]).toMatchObject({ corrects: run.body.id, reason: "Weighed on the wrong scale", user: { name: "Mori Sachiko" } });
     const twice = await event(admin, { step: "correcting", corrects: run.body.id, reason: "again" });
     expect(twice.status).toBe(409);
     // The reversed edges cancel: the emptied polished lot carries no share of anything.
@@ -198,7 +200,7 @@ describe("corrections", () => {
 
   it("hands a received lot back to the sender", async () => {
     const h = (await harvest(grower, { brownKg: 90 })).body.code;
-    const receipt = await event(miller, { step: "receiving", inputs: [{ lot: h, quantity: 90 }] });
+    const receipt = await atMill(h, 90);
     await event(miller, { step: "correcting", corrects: receipt.body.id, reason: "Bag belonged to the next truck" });
     expect((await lot(admin, h)).party.id).toBe("grower-ikeda");
   });
@@ -235,28 +237,28 @@ describe("a lot someone cannot see is unknown to them, not forbidden", () => {
 
   it("a lot someone can see but does not hold is still 403 (../shared/api.md: ownership forbids it)", async () => {
     const code = (await harvest(grower, { brownKg: 130 })).body.code as string;
-    await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 130 }] });
+    await atMill(code, 130);
     // The grower made it and still sees it; the mill holds it now.
     const res = await event(grower, { step: "shipping", inputs: [{ lot: code, quantity: 130 }], counterpartyId: "brewery-kirinoha" });
     expect(res.status).toBe(403);
   });
 
-  it("a receipt names the sender's lots, which the receiver does not hold yet", async () => {
+  it("a receipt that answers a dispatch takes the weight on arrival; a receiver who cannot see a lot learns nothing of its weight", async () => {
     const code = (await harvest(grower, { brownKg: 140 })).body.code as string;
-    // The wrong weight is refused without telling a receiver who cannot see the lot what it weighs.
-    const before = await tableDigests();
+    // Undispatched, any weight is the same answer: it waits for the sender, and says nothing of 140.
     const wrong = await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 100 }] });
-    expect(wrong.status).toBe(422);
-    expect(wrong.body.error.fields["inputs.0.quantity"]).toEqual(["A lot moves between parties whole: enter the weight on the sender's delivery slip."]);
+    expect(wrong.status).toBe(202);
     expect(JSON.stringify(wrong.body)).not.toContain("140");
-    expect(await tableDigests()).toEqual(before);
-    const res = await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 140 }] });
+    const res = await atMill(code, 139.5);
     expect(res.status).toBe(201);
+    expect((await lot(miller, code)).onHand).toBe(139.5);
   });
 
   it("a receipt that cannot be says why, beside the lot: already yours, or not the named sender's", async () => {
     const code = (await harvest(grower, { brownKg: 150 })).body.code as string;
+    await event(grower, { step: "shipping", inputs: [{ lot: code, quantity: 150 }], counterpartyId: "mill-shirotae", referenceDoc: "DS-150" });
     const before = await tableDigests();
+    // The lot is addressed to the mill, so the mill may be told the sender it named is wrong.
     const wrongSender = await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 150 }], counterpartyId: "grower-nakase" });
     expect(wrongSender.status).toBe(409);
     expect(wrongSender.body.error.fields).toEqual({ "inputs.0.lot": [`Lot ${code} is not held by the sender.`] });
@@ -275,18 +277,19 @@ describe("a receipt takes only what travels to its receiver (src/domain/steps.ts
       .prepare("select code, on_hand as onHand from lots where kind = ? and party_id = 'brewery-kirinoha' and origin_party_id like ? and on_hand > 0 order by id limit 1")
       .get(kind, madeBy) as { code: string; onHand: number };
 
-  it("the mill naming a brewery lot it cannot see is told 'unknown', as for a missing code, and takes nothing", async () => {
+  it("the mill naming a brewery lot it cannot see gets the answer a missing code gets, and takes nothing", async () => {
     // The demo brewery has stock of these kinds, made in its own house; none ever goes to a mill.
     const kinds = getSqlite().prepare("select distinct kind from lots where party_id = 'brewery-kirinoha' and origin_party_id = party_id and on_hand > 0 order by kind").pluck().all() as string[];
     expect(kinds).toEqual(expect.arrayContaining(["bottled", "lees", "sake"]));
     for (const kind of kinds) {
       const theirs = brewery(kind, "brewery-kirinoha");
-      const before = await tableDigests();
+      // Both wait for a sender (a request row each); no lot changes hands.
+      const before = await tableDigests(["receipt_requests"]);
       const taken = await event(miller, { step: "receiving", inputs: [{ lot: theirs.code, quantity: theirs.onHand }] });
       const missing = await event(miller, { step: "receiving", inputs: [{ lot: "BT26-9999", quantity: theirs.onHand }] });
-      expect(taken.status, kind).toBe(422);
+      expect(taken.status, kind).toBe(202);
       expect(taken.body, kind).toEqual(missing.body);
-      expect(await tableDigests(), kind).toEqual(before);
+      expect(await tableDigests(["receipt_requests"]), kind).toEqual(before);
     }
   });
 
@@ -304,8 +307,8 @@ describe("a receipt takes only what travels to its receiver (src/domain/steps.ts
 
   it("the mill takes in brown rice the brewery bought, to polish it for the brewery", async () => {
     const code = (await harvest(admin, { brownKg: 180 })).body.code as string;
-    expect((await event(admin, { step: "receiving", partyId: "brewery-kirinoha", inputs: [{ lot: code, quantity: 180 }] })).status).toBe(201);
-    const res = await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 180 }], counterpartyId: "brewery-kirinoha" });
+    expect((await dispatchAndReceive(admin, admin, code, 180, { to: "brewery-kirinoha", receipt: { partyId: "brewery-kirinoha" } })).status).toBe(201);
+    const res = await dispatchAndReceive(admin, miller, code, 180, { receipt: { counterpartyId: "brewery-kirinoha" } });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect((await lot(admin, code)).party.id).toBe("mill-shirotae");
   });
