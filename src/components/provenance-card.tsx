@@ -3,9 +3,13 @@ import type { Provenance } from "@/server/provenance";
 
 type Show = Partial<Record<"varieties" | "origin" | "growers" | "polishingRatio" | "categories" | "dates" | "koji", boolean>>;
 
-/** The provenance answer: what a buyer may be told about a lot, from its lineage. */
-export async function ProvenanceCard({ p, show = {} }: { p: Provenance; show?: Show }) {
+/**
+ * The provenance answer: what a buyer may be told about a lot, from its lineage. `caution`
+ * puts the labelling caution under the categories, for the brewery's own staff.
+ */
+export async function ProvenanceCard({ p, show = {}, caution = false }: { p: Provenance; show?: Show; caution?: boolean }) {
   const t = await getTranslations("provenance");
+  const tc = await getTranslations("caution");
   const format = await getFormatter();
   const on = (k: keyof Show) => show[k] !== false;
   const pct = (v: number) => format.number(v, { style: "percent", maximumFractionDigits: 1 });
@@ -25,7 +29,7 @@ export async function ProvenanceCard({ p, show = {} }: { p: Provenance; show?: S
       {on("growers") ? row(t("growers"), p.growers.map((g) => `${g.name ?? t("unnamedGrower")} ${pct(g.share)}`).join(" · "), "prov-growers") : null}
       {on("polishingRatio") && p.polishingRatiosPct.length ? row(t("polishingRatio"), p.polishingRatiosPct.map((r) => `${format.number(r, { maximumFractionDigits: 1 })} %`).join(", "), "prov-ratio") : null}
       {on("koji") && p.kojiRatioPct !== null ? row(t("kojiRatio"), `${format.number(p.kojiRatioPct, { maximumFractionDigits: 1 })} %`, "prov-koji") : null}
-      {on("categories") && p.lot.kind !== "harvest" ? row(t("categories"), p.categories.length ? p.categories.join(", ") : t("noCategory"), "prov-categories") : null}
+      {on("categories") && p.lot.kind !== "harvest" ? row(t("categories"), <>{p.categories.length ? p.categories.join(", ") : t("noCategory")}{caution ? <><br /><span className="text-sm text-ink-soft" data-testid="labelling-caution">{tc("labelling")}</span></> : null}</>, "prov-categories") : null}
       {on("dates") && p.brewedOn.length ? row(t("brewedOn"), p.brewedOn.map(date).join(", "), "prov-brewed") : null}
       {on("dates") && p.pressedOn.length ? row(t("pressedOn"), p.pressedOn.map(date).join(", "), "prov-pressed") : null}
       {on("dates") && p.bottledOn.length ? row(t("bottledOn"), p.bottledOn.map(date).join(", "), "prov-bottled") : null}

@@ -38,7 +38,7 @@ describe("harvest import", () => {
     expect(checked.body).toMatchObject({ kind: "harvests", rows: 3, committed: false });
     // Line 3 of the file holds grade "premium"; the grades are MAFF's inspection grades
     // (src/domain/grades.ts), listed as the API lists them.
-    expect(checked.body.problems).toEqual([{ line: 3, code: "invalid", fields: { grade: ["Choose one of: 1, 2, 3, tokujo, tokuto, out-of-grade."] } }]);
+    expect(checked.body.problems).toEqual([{ line: 3, code: "invalid", fields: { grade: ["Choose one of: 1, 2, 3, tokujo, tokuto, equivalent, out-of-grade."] } }]);
     const committed = await commit(grower, "harvests", "harvests-bad-grade.csv");
     expect(committed.status).toBe(422);
     expect(committed.body.error.message).toBe("1 row needs correcting; nothing was imported.");

@@ -23,7 +23,10 @@ let admin: string, brewer: string, grower: string, sales: string;
 const blobs: string[] = [];
 
 beforeAll(async () => {
-  [admin, brewer, grower, sales] = await Promise.all(["admin", "brewer", "grower", "sales"].map((who) => signInAs(`${who}@example.com`)));
+  admin = await signInAs("admin@example.com");
+  brewer = await signInAs("brewer@example.com");
+  grower = await signInAs("grower@example.com");
+  sales = await signInAs("sales@example.com");
 });
 afterAll(() => {
   // Attachments are files beside the test database; they outlive it unless removed.

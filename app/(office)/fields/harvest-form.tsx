@@ -47,7 +47,7 @@ export function HarvestForm({ fields, defaultYear }: { fields: { id: string; nam
         {state.fields?.grade ? <p className="field-error">{state.fields.grade.join(" ")}</p> : null}
       </label>
       <FormField label={t("harvest.bags")} name="bags" inputMode="numeric" defaultValue={v("bags")} errors={state.fields?.bags} />
-      <p id="moisture-hint" className="text-xs text-ink-soft sm:col-span-4">{t("harvest.moistureHint")}</p>
+      <p id="moisture-hint" className="text-xs text-ink-soft sm:col-span-4">{t("harvest.moistureHint")} {t("harvest.equivalentHint")}</p>
       <div className="sm:col-span-4"><button type="submit" className="btn" disabled={pending}>{t("harvest.save")}</button></div>
     </form>
   );

@@ -28,7 +28,7 @@ export default async function ProvenancePage({ searchParams }: { searchParams: P
       {lot && answer ? (
         <>
           <LotCardView lot={lot} />
-          <ProvenanceCard p={answer} />
+          <ProvenanceCard p={answer} caution />
           <p className="flex flex-wrap gap-3">
             <a className="btn" href={`/api/provenance/${lot.code}/sheet.pdf`}>{t("provenance.sheet")}</a>
             <Link className="btn-quiet" href={`/lots/${lot.code}/graph`}>{t("provenance.graph")}</Link>

@@ -3,6 +3,7 @@
 import Link from "next/link";
 import { useState } from "react";
 import { useTranslations } from "next-intl";
+import { alcoholAs95Kg } from "@/domain/categories";
 import { checkBand, KOJI_CHECKPOINTS, kojiMeasurementName, RICE_USES, waterAbsorptionPct, type Band, type KojiCheckpoint, type RiceUse } from "@/domain/brewing";
 import type { FloorAction } from "@/domain/floor-actions";
 import { roundPct } from "@/domain/polishing";
@@ -74,6 +75,7 @@ const ACTIONS: Record<FloorAction, { fields: Field[]; defaults: (lot: ApiLot) =>
       { name: "addition", type: "select", options: ["first", "middle", "final"] },
       { name: "tankName", type: "text", show: (v) => v.addition === "first" },
       { name: "ginjoMethod", type: "checkbox", show: (v) => v.addition === "first" },
+      { name: "specialMethod", type: "checkbox", show: (v) => v.addition === "first" },
       { name: "tankCode", type: "code", show: (v) => v.addition !== "first" },
       { name: "starterCode", type: "code", show: (v) => v.addition === "first" },
       { name: "starterKg", type: "number", show: (v) => v.addition === "first" },
@@ -99,14 +101,14 @@ const ACTIONS: Record<FloorAction, { fields: Field[]; defaults: (lot: ApiLot) =>
       ];
       // The mash grows by everything put in: rice, koji, starter and water (1 L ≈ 1 kg).
       const quantity = sum(...inputs.map((i) => i.quantity), n(v.waterL));
-      const output = first ? { kind: "tank", quantity, tankName: v.tankName || undefined, ginjoMethod: v.ginjoMethod === "on" } : { lot: code(v.tankCode), quantity };
+      const output = first ? { kind: "tank", quantity, tankName: v.tankName || undefined, ginjoMethod: v.ginjoMethod === "on", specialMethod: v.specialMethod === "on" } : { lot: code(v.tankCode), quantity };
       return { step: "mash-addition", attributes: { addition: v.addition }, inputs, outputs: [output], measurements: ms("waterL", n(v.waterL), "L") };
     },
   },
   measure: {
-    fields: [{ name: "addedAlcoholKg", type: "number" }, { name: "alcoholPct", type: "number" }, { name: "tempC", type: "number" }],
+    fields: [{ name: "addedAlcoholKg", type: "number" }, { name: "addedAlcoholStrengthPct", type: "number" }, { name: "alcoholPct", type: "number" }, { name: "tempC", type: "number" }],
     defaults: () => ({}),
-    build: (v, lot) => ({ step: "measuring", inputs: [{ lot: lot.code, quantity: 0 }], measurements: [...ms("addedAlcoholKg", n(v.addedAlcoholKg), "kg"), ...ms("alcoholPct", n(v.alcoholPct), "%"), ...ms("mashTempC", n(v.tempC), "°C")] }),
+    build: (v, lot) => ({ step: "measuring", inputs: [{ lot: lot.code, quantity: 0 }], measurements: [...ms("addedAlcoholKg", n(v.addedAlcoholKg), "kg"), ...ms("addedAlcoholStrengthPct", n(v.addedAlcoholStrengthPct), "%"), ...ms("alcoholPct", n(v.alcoholPct), "%"), ...ms("mashTempC", n(v.tempC), "°C")] }),
   },
   press: {
     fields: [{ name: "drawKg", type: "number" }, { name: "sakeL", type: "number" }, { name: "leesKg", type: "number" }],
@@ -236,6 +238,10 @@ function Preview({ action, values, bands }: { action: FloorAction; values: V; ba
     const band = bands.absorption[values.use as RiceUse];
     const within = checkBand(pct, band) === "within";
     return <p data-testid="absorption-preview" className={within ? "notice text-ink" : "notice-warn text-ink"}>{t("absorptionPreview", { pct: roundPct(pct), min: band.min, max: band.max })}</p>;
+  }
+  if (action === "measure" && n(values.addedAlcoholKg) > 0 && n(values.addedAlcoholStrengthPct) > 0) {
+    const kg95 = alcoholAs95Kg(n(values.addedAlcoholKg), n(values.addedAlcoholStrengthPct));
+    return <p data-testid="alcohol-preview" className="notice text-ink">{t("alcoholPreview", { kg: n(values.addedAlcoholKg), kg95: Math.round(kg95 * 10) / 10 })}</p>;
   }
   if (action === "bottle") {
     const ml = values.bottleMl === "custom" ? n(values.customMl) : n(values.bottleMl);

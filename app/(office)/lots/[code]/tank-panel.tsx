@@ -12,7 +12,8 @@ export async function TankPanel({ tank }: { tank: TankSummary }) {
     [t("kojiRatio"), tank.kojiRatioPct === null ? "—" : `${tank.kojiRatioPct} %`],
     [t("water"), `${format.number(tank.waterL, { maximumFractionDigits: 1 })} L`],
     [t("waterRatio"), tank.waterRatioPct === null ? "—" : `${tank.waterRatioPct} %`],
-    [t("addedAlcohol"), `${format.number(tank.addedAlcoholKg, { maximumFractionDigits: 1 })} kg`],
+    // The labelling standard weighs added alcohol converted to 95 %; the panel shows both weights.
+    [t("addedAlcohol"), tank.addedAlcoholKg > 0 ? `${kg(tank.addedAlcoholKg)} · ${t("at95", { kg: format.number(tank.addedAlcohol95Kg, { maximumFractionDigits: 1 }) })}` : kg(0)],
   ];
   const max = Math.max(1, ...tank.additions.map((a) => a.riceKg));
   return (
