@@ -79,7 +79,10 @@ describe("recall spreadsheet from a 2024 harvest lot", () => {
     // 800 and 200 bottles of 720 mL: 576 L and 144 L drawn from the sake.
     expect(of(rows, sake[0]!["Lot code"]!, "drawn from").map((r) => Number(r.Quantity))).toEqual([576, 144]);
     const shipped = rows.filter((r) => r.Entry === "shipped");
+    // The dispatches that preceded each receipt are shipments too (a receipt needs the sender's word).
     expect(shipped).toEqual([
+      expect.objectContaining({ "Lot code": harvest2024, Quantity: "1500", Counterparty: "Shirotae Polishing Works", "Reference document": "DS-2024-01", "Recording party": "Ikeda Farm" }),
+      expect.objectContaining({ Product: "Polished rice, Yamada Nishiki", Quantity: "1000", Counterparty: "Kirinoha Brewery", "Recording party": "Shirotae Polishing Works" }),
       expect.objectContaining({ "Lot code": bottlings[1]!["Lot code"], Quantity: "200", Unit: "bottle", Event: "Shipped", Counterparty: "Minato Liquor Wholesale", "Reference document": "INV-2025-031", Location: "Kirinoha dispatch", Date: "2025-03-20T14:00:00.000+09:00" }),
     ]);
   });
@@ -130,6 +133,7 @@ describe("formula injection (OWASP, \"CSV Injection\")", () => {
     const res = await call(postHarvest, jsonRequest("/api/harvests", { cookie: grower, body: { fieldId: "field-ikeda-cedar", variety: "Omachi", cropYear: 2025, brownKg: 300, moisturePct: 14.6, grade: "1", bags: 5, at: "2025-09-20T09:00:00+09:00" } }));
     expect(res.status).toBe(201);
     const code = res.body.code as string;
+    await call(postEvent, jsonRequest("/api/events", { cookie: grower, body: { step: "shipping", at: "2025-10-01T07:00:00+09:00", inputs: [{ lot: code, quantity: 300 }], counterpartyId: "mill-shirotae", referenceDoc: "DS-0300" } }));
     const received = await call(postEvent, jsonRequest("/api/events", { cookie: miller, body: { step: "receiving", at: "2025-10-01T10:00:00+09:00", inputs: [{ lot: code, quantity: 300 }], place: "=cmd|' /C calc'!A0", referenceDoc: "@SUM(1+1)", note: "" } }));
     expect(received.status, JSON.stringify(received.body)).toBe(201);
     const rows = await recallRows(code, auditor);

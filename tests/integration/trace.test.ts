@@ -43,11 +43,19 @@ beforeAll(async () => {
   const harvest = async (brownKg: number) =>
     (await call(postHarvest, jsonRequest("/api/harvests", { cookie: grower, body: { fieldId: "field-ikeda-cedar", variety: "Omachi", cropYear: 2026, brownKg, moisturePct: 14.5, grade: "2", bags: 5 } }))).body.code as string;
   [h.one, h.two, h.three] = [await harvest(600), await harvest(400), await harvest(500)];
-  for (const [lot, kg] of [[h.one, 600], [h.two, 400], [h.three, 500]] as const) await event(miller, { step: "receiving", inputs: [{ lot, quantity: kg }] });
+  // Each receipt answers the sender's dispatch (a receipt needs the sender's word).
+  const send = (cookie: string, lot: string, kg: number, to: string) => event(cookie, { step: "shipping", inputs: [{ lot, quantity: kg }], counterpartyId: to, referenceDoc: `DS-${lot}` });
+  for (const [lot, kg] of [[h.one, 600], [h.two, 400], [h.three, 500]] as const) {
+    await send(grower, lot, kg, "mill-shirotae");
+    await event(miller, { step: "receiving", inputs: [{ lot, quantity: kg }] });
+  }
   const target = [m("targetPolishingRatioPct", 70, "%")];
   lots.pa = code(await event(miller, { step: "polishing", inputs: [{ lot: h.one, quantity: 600 }, { lot: h.two, quantity: 400 }], outputs: [{ kind: "polished", quantity: 700 }], measurements: target }));
   lots.pb = code(await event(miller, { step: "polishing", inputs: [{ lot: h.three, quantity: 500 }], outputs: [{ kind: "polished", quantity: 350 }], measurements: target }));
-  for (const [lot, kg] of [[lots.pa, 700], [lots.pb, 350]] as const) await event(brewer, { step: "receiving", inputs: [{ lot, quantity: kg }] });
+  for (const [lot, kg] of [[lots.pa, 700], [lots.pb, 350]] as const) {
+    await send(miller, lot, kg, "brewery-kirinoha");
+    await event(brewer, { step: "receiving", inputs: [{ lot, quantity: kg }] });
+  }
 
   const soak = (lot: string, dry: number, use: string) => event(brewer, { step: "soaking", inputs: [{ lot, quantity: dry }], outputs: [{ kind: "soaked", quantity: dry * 1.3, use }], measurements: [m("soakMinutes", 10, "min"), m("waterTempC", 10, "°C")] });
   const steam = (lot: string, kg: number, out: number) => event(brewer, { step: "steaming", inputs: [{ lot, quantity: kg }], outputs: [{ kind: "steamed", quantity: out }], measurements: [m("steamMinutes", 50, "min")] });
