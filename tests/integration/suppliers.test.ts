@@ -9,6 +9,7 @@ import { GET as getStatementPdf } from "../../app/api/suppliers/[partyId]/statem
 import { POST as postStatement } from "../../app/api/suppliers/[partyId]/statements/route";
 import { getSqlite } from "@/server/db";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
+import { dispatchAndReceive } from "../support/receipts";
 import { pdfText } from "../support/pdf-text";
 
 let admin: string, grower: string, grower2: string, miller: string, auditor: string, brewer: string;
@@ -41,7 +42,7 @@ describe("a grower's receipt, payment and reversal", () => {
     expect(h.status).toBe(201);
     code = h.body.code;
     // The mill measures 15.3 % at receipt: 3 steps of 0.1 above 15.0 % at 100 yen per bag (seeded contract v2: 27,500 yen a bag for 1st grade).
-    const r = await event(miller, { step: "receiving", inputs: [{ lot: code, quantity: 610.5 }], referenceDoc: "DS-T-1", measurements: [{ name: "moisturePct", value: 15.3, unit: "%" }] });
+    const r = await dispatchAndReceive(admin, miller, code, 610.5, { receipt: { referenceDoc: "DS-T-1", measurements: [{ name: "moisturePct", value: 15.3, unit: "%" }] } });
     expect(r.status).toBe(201);
     receiptId = r.body.id;
     const entry = getSqlite().prepare("select amount_yen as amount, tax_rate_pct as rate, kind, json_extract(detail, '$.moistureSteps') as steps from supplier_entries where event_id = ?").get(receiptId) as Record<string, unknown>;
@@ -87,7 +88,7 @@ describe("a mill's polishing fee", () => {
   it("a run at the mill owes the fee of its tier per kg of brown rice in, at the standard rate", async () => {
     const before = await balance("mill-shirotae");
     const h = await harvest({ fieldId: "field-nakase-shrine", variety: "Omachi", grade: "2", brownKg: 600 });
-    await event(miller, { step: "receiving", inputs: [{ lot: h.body.code, quantity: 600 }] });
+    await dispatchAndReceive(admin, miller, h.body.code, 600);
     const run = await event(miller, { step: "polishing", inputs: [{ lot: h.body.code, quantity: 600 }], outputs: [{ kind: "polished", quantity: 350 }, { kind: "bran", quantity: 240 }], measurements: [{ name: "targetPolishingRatioPct", value: 58, unit: "%" }] });
     expect(run.status).toBe(201);
     // Seeded tiers: ≤ 60 % costs 45 yen/kg → 600 × 45 = 27,000 yen; 10 % tax 2,700.
@@ -98,7 +99,7 @@ describe("a mill's polishing fee", () => {
 
   it("records no fee for a run the brewery polishes itself", async () => {
     const h = await harvest({ fieldId: "field-nakase-shrine", variety: "Omachi", grade: "2", brownKg: 120 });
-    await event(admin, { step: "receiving", partyId: "brewery-kirinoha", inputs: [{ lot: h.body.code, quantity: 120 }] });
+    await dispatchAndReceive(admin, admin, h.body.code, 120, { to: "brewery-kirinoha", receipt: { partyId: "brewery-kirinoha" } });
     const run = await event(admin, { step: "polishing", partyId: "brewery-kirinoha", inputs: [{ lot: h.body.code, quantity: 120 }], outputs: [{ kind: "polished", quantity: 80 }], measurements: [{ name: "targetPolishingRatioPct", value: 70, unit: "%" }] });
     expect(run.status).toBe(201);
     expect(count("select count(*) as n from supplier_entries where event_id = ?", run.body.id)).toBe(0);
@@ -109,7 +110,7 @@ describe("without a contract price", () => {
   it("records the receipt and owes nothing", async () => {
     const before = await tableDigests();
     const h = await harvest({ fieldId: "field-coop-stone", variety: "Gohyakumangoku", grade: "1", brownKg: 300 });
-    const r = await event(miller, { step: "receiving", inputs: [{ lot: h.body.code, quantity: 300 }] });
+    const r = await dispatchAndReceive(admin, miller, h.body.code, 300);
     expect(r.status).toBe(201);
     expect(count("select count(*) as n from supplier_entries where event_id = ?", r.body.id)).toBe(0);
     const after = await tableDigests();
