@@ -241,6 +241,7 @@ describe("who may upload and download", () => {
   });
 
   it("after delivery: the mill (holder) and the grower (origin) may upload, the brewer may not", async () => {
+    await call(postEvent, jsonRequest("/api/events", { cookie: grower, body: { step: "shipping", inputs: [{ lot: lotCode, quantity: 480 }], counterpartyId: "mill-shirotae", referenceDoc: "DS-ATT-1" } }));
     const received = await call(postEvent, jsonRequest("/api/events", { cookie: miller, body: { step: "receiving", inputs: [{ lot: lotCode, quantity: 480 }] } }));
     expect(received.status).toBe(201);
     expect((await upload(miller, lotCode, { file: { bytes: makePdf(`${nonce}-mill`), name: "moisture.pdf" } })).status).toBe(201);
@@ -252,6 +253,7 @@ describe("who may upload and download", () => {
     const run = await call(postEvent, jsonRequest("/api/events", { cookie: miller, body: { step: "polishing", inputs: [{ lot: lotCode, quantity: 480 }], outputs: [{ kind: "polished", quantity: 336 }], measurements: [{ name: "targetPolishingRatioPct", value: 70, unit: "%" }] } }));
     expect(run.status).toBe(201);
     const polished = run.body.outputs[0].code;
+    await call(postEvent, jsonRequest("/api/events", { cookie: miller, body: { step: "shipping", inputs: [{ lot: polished, quantity: 336 }], counterpartyId: "brewery-kirinoha", referenceDoc: "SH-ATT-1" } }));
     const receipt = await call(postEvent, jsonRequest("/api/events", { cookie: brewer, body: { step: "receiving", inputs: [{ lot: polished, quantity: 336 }] } }));
     expect(receipt.status).toBe(201);
     // Sales belongs to the brewery that now holds the lot, yet only reads.

@@ -72,6 +72,8 @@ describe("GET /api/lots/{code}/label.png", () => {
   it("serves the office, and the mill once it holds the lot", async () => {
     expect((await labelPng(brewer, code)).status).toBe(200);
     expect((await labelPng(miller, code)).status).toBe(404);
+    // The grower's dispatch first: a receipt needs the sender's word.
+    await call(postEvent, jsonRequest("/api/events", { cookie: grower, body: { step: "shipping", inputs: [{ lot: code, quantity: 600 }], counterpartyId: "mill-shirotae", referenceDoc: "DS-LABEL-1" } }));
     const received = await call(postEvent, jsonRequest("/api/events", { cookie: miller, body: { step: "receiving", inputs: [{ lot: code, quantity: 600 }], counterpartyId: "grower-ikeda" } }));
     expect(received.status).toBe(201);
     expect((await labelPng(miller, code)).status).toBe(200);
