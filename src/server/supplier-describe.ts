@@ -40,7 +40,8 @@ export function describeEntry(e: Pick<EntryRow, "kind" | "detail" | "lotCode" | 
   }
 }
 
-export type AccountRow = { key: string; at: Date; kind: string; description: string; lot: string | null; taxRatePct: number; amountYen: number; statement: string | null };
+/** `payment`: a payment or a payment's reversal, the lines a supplier's list of payments shows. */
+export type AccountRow = { key: string; at: Date; kind: string; description: string; lot: string | null; taxRatePct: number; amountYen: number; statement: string | null; payment: boolean };
 
 /** The account's lines for a table: entries in words, tax lines named by statement and rate. */
 export function accountRows(ledger: Ledger, t: Translate): AccountRow[] {
@@ -52,6 +53,7 @@ export function accountRows(ledger: Ledger, t: Translate): AccountRow[] {
       : l.statement
         ? t("suppliers.taxRef", { rate: l.taxRatePct, statement: l.statement })
         : t("suppliers.taxOpenRef", { rate: l.taxRatePct });
-    return { key: `${l.entryId ?? "tax"}-${n}`, at: l.at, kind: l.kind, description, lot: e?.lotCode ?? null, taxRatePct: l.taxRatePct, amountYen: l.amountYen, statement: l.statement };
+    const payment = e?.kind === "payment" || (e?.kind === "reversal" && JSON.parse(e.detail).reverses === "payment");
+    return { key: `${l.entryId ?? "tax"}-${n}`, at: l.at, kind: l.kind, description, lot: e?.lotCode ?? null, taxRatePct: l.taxRatePct, amountYen: l.amountYen, statement: l.statement, payment };
   });
 }

@@ -9,7 +9,10 @@ import { POST as postReversal } from "../../app/api/suppliers/[partyId]/payments
 import { POST as postPayment } from "../../app/api/suppliers/[partyId]/payments/route";
 import { GET as getStatementCsv } from "../../app/api/suppliers/[partyId]/statements/[number]/statement.csv/route";
 import { POST as postStatement } from "../../app/api/suppliers/[partyId]/statements/route";
-import { getSqlite } from "@/server/db";
+import { translator } from "@/i18n/messages";
+import { getDb, getSqlite } from "@/server/db";
+import { accountRows } from "@/server/supplier-describe";
+import { ledgerOf } from "@/server/supplier-ledger";
 import { submit } from "../support/action-scope";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 
@@ -102,6 +105,9 @@ describe("reversing a payment", () => {
     const after = await ledger("mill-shirotae");
     expect({ balanceYen: after.balanceYen, ageing: after.ageing }).toEqual({ balanceYen: before.balanceYen, ageing: before.ageing });
     expect(row<{ action: string }>("select action from audit_log order by id desc limit 1").action).toBe("payment.reversed");
+    // The mill's own list of payments shows the reversal beside the payment.
+    const lines = accountRows(ledgerOf(getDb(), "mill-shirotae"), (key, values) => translator("en")(key as never, values as never)).filter((r) => r.payment && /TR-77/.test(r.description));
+    expect(lines.map((r) => [r.kind, r.amountYen])).toEqual([["payment", -paid], ["reversal", paid]]);
   });
 
   it("reverses a payment once: the second try is 409 and changes nothing", async () => {

@@ -75,7 +75,7 @@ async function AccountFrame({ portal: p, rows, title, intro, children, after }: 
       <BalancePanel title={t("portal.owed")} balanceYen={p.ledger.balanceYen} ageing={p.ledger.ageing} note={t("portal.owedNote")} />
       {children}
       <Section title={t("portal.payments")}>
-        <AccountTable rows={rows.filter((r) => r.kind === "payment")} testId="payments-table" exportName="grainline-payments" />
+        <AccountTable rows={rows.filter((r) => r.payment)} testId="payments-table" exportName="grainline-payments" />
       </Section>
       <Section title={t("detail.entries")}>
         <AccountTable rows={rows} />

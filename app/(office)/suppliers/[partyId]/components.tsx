@@ -31,7 +31,8 @@ export function useSupplierForm(action: Action) {
   return { state, run, pending, v, key: state.ok ? `ok-${state.message}` : "form" };
 }
 
-const Select = ({ label, name, value, options, errors }: { label: string; name: string; value: string; options: [string, string][]; errors?: string[] }) => (
+/** A labelled select with its errors beside it. */
+export const Select = ({ label, name, value, options, errors }: { label: string; name: string; value: string; options: [string, string][]; errors?: string[] }) => (
   <div>
     <label htmlFor={name} className="field-label">{label}</label>
     <select id={name} name={name} className="field-input" defaultValue={value}>
