@@ -210,8 +210,8 @@ export const actionKey = (a: Pick<ActionEntry, "file" | "name">) => `${a.file} $
 const FORM_ALL_422 = o("422", "422", "422", "422", "422", "422", "422");
 
 export const ACTIONS: ActionEntry[] = [
-  { file: "app/(auth)/forgot-password/actions.ts", name: "forgotPasswordAction", guard: { by: "public", why: "asking for a reset link; throttled like sign-in" }, form: {}, expect: FORM_ALL_422 },
-  { file: "app/(auth)/set-password/[token]/actions.ts", name: "setPasswordAction", guard: { by: "public", why: "the link's token is the credential" }, form: {}, expect: FORM_ALL_422 },
+  { file: "app/(auth)/forgot-password/actions.ts", name: "forgotPasswordAction", guard: { by: "public", why: "asking for a reset link; throttled per address and client, apart from failed sign-ins" }, form: {}, expect: FORM_ALL_422 },
+  { file: "app/(auth)/set-password/[token]/actions.ts", name: "setPasswordAction", guard: { by: "public", why: "the link's token is the credential; links that do not work are throttled per client" }, form: {}, expect: FORM_ALL_422 },
   { file: "app/(auth)/sign-in/actions.ts", name: "signInAction", guard: { by: "public", why: "the way in" }, form: {}, expect: FORM_ALL_422 },
   { file: "app/(auth)/sign-out/actions.ts", name: "signOutAction", guard: { by: "public", why: "ends only the caller's own session" }, form: {}, session: "throwaway", expect: o("redirect:/sign-in", "redirect:/sign-in", "redirect:/sign-in", "redirect:/sign-in", "redirect:/sign-in", "redirect:/sign-in", "redirect:/sign-in") },
   { file: "app/(office)/admin/parties/actions.ts", name: "createPartyAction", guard: { by: "permission", permission: "parties:manage" }, form: {}, expect: ADMIN_ONLY_WRITE },
