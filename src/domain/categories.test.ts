@@ -1,6 +1,8 @@
 import { describe, expect, it } from "vitest";
+import ledger from "@/i18n/messages/en/ledger.json";
 import { alcoholAs95Kg, assessCategories, type CategoryFacts } from "./categories";
 
+// Reasons come as catalogue keys (claims.reasons.*), worded by the claims API (tests/integration/claims.test.ts).
 // Boundaries from the NTA labelling standard (清酒の製法品質表示基準, NTA Notification No. 8
 // of 1989 as amended in 2003), as tabled in ../shared/references.md.
 const base: CategoryFacts = { polishingRatioPct: 50, kojiRatioPct: 20, lowestGrade: "1", addedAlcoholKg: 0, addedAlcohol95Kg: 0, polishedRiceKg: 1000, ginjoMethod: true };
@@ -28,7 +30,7 @@ describe("premium categories at their boundaries", () => {
     expect(eligible({ addedAlcoholKg: 100 })).toEqual(["daiginjo", "ginjo", "tokubetsu honjozo", "honjozo"]);
     const over = assessCategories(facts({ addedAlcoholKg: 100.5 })).find((v) => v.name === "honjozo")!;
     expect(over.eligible).toBe(false);
-    expect(over.reasons).toEqual(["added alcohol 10.05 % of the rice weight (as 95 % alcohol) is above 10 %"]);
+    expect(over.reasons).toEqual([{ key: "alcoholAbove", values: { pct: "10.05" } }]);
   });
 
   it("koji rice at 15 % qualifies; 14.9 % does not, for any premium category", () => {
@@ -39,7 +41,7 @@ describe("premium categories at their boundaries", () => {
   it("out-of-grade rice rules out every premium category", () => {
     const verdicts = assessCategories({ ...base, lowestGrade: "out-of-grade" });
     expect(verdicts.every((v) => !v.eligible)).toBe(true);
-    expect(verdicts[0]!.reasons).toContain("rice graded out-of-grade is below 3rd grade");
+    expect(verdicts[0]!.reasons).toContainEqual({ key: "gradeBelow", values: { grade: "out-of-grade" } });
   });
 
   it("a special method lets tokubetsu categories pass the 60 % limit", () => {
@@ -56,7 +58,7 @@ describe("tokubetsu categories are kinds of their parent (NTA labelling standard
   it("72 % with a special method and alcohol within the limit: neither tokubetsu honjozo nor honjozo", () => {
     expect(eligible({ ...special, polishingRatioPct: 72 })).toEqual([]);
     const verdict = assessCategories(facts({ ...special, polishingRatioPct: 72 })).find((v) => v.name === "tokubetsu honjozo")!;
-    expect(verdict.reasons).toEqual(["polishing ratio 72 % is above 70 %"]);
+    expect(verdict.reasons).toEqual([{ key: "ratioAbove", values: { pct: "72", limit: "70" } }]);
   });
 
   it("65 % with a special method: tokubetsu honjozo and honjozo; 70 % still; 70.1 % no longer", () => {
@@ -93,7 +95,7 @@ describe("added alcohol is weighed as 95 % alcohol (NTA labelling standard, ≤ 
   it("330 kg of 30 % alcohol on 1,000 kg of rice is 104.2 kg at 95 %: above 10 %, no honjozo", () => {
     const verdict = assessCategories(facts({ polishingRatioPct: 68, ginjoMethod: false, addedAlcoholKg: 330, addedAlcohol95Kg: alcoholAs95Kg(330, 30) })).find((v) => v.name === "honjozo")!;
     expect(verdict.eligible).toBe(false);
-    expect(verdict.reasons).toEqual(["added alcohol 10.42 % of the rice weight (as 95 % alcohol) is above 10 %"]);
+    expect(verdict.reasons).toEqual([{ key: "alcoholAbove", values: { pct: "10.42" } }]);
   });
 
   it("any alcohol at all rules out the junmai categories, whatever its strength", () => {
@@ -109,6 +111,16 @@ describe("rice certified equivalent to 3rd grade or better", () => {
   it("does not count while a lot graded equivalent has no certificate attached, and says which", () => {
     const verdicts = assessCategories(facts({ lowestGrade: "equivalent", uncertifiedEquivalentLots: ["H26-0007"] }));
     expect(verdicts.every((v) => !v.eligible)).toBe(true);
-    expect(verdicts[0]!.reasons).toEqual(["rice graded equivalent to 3rd grade has no certificate attached (H26-0007)"]);
+    expect(verdicts[0]!.reasons).toEqual([{ key: "noCertificate", values: { lots: "H26-0007" } }]);
+  });
+});
+
+describe("reasons", () => {
+  it("every reason a verdict can give has its words in the catalogue, and the catalogue has none unused", () => {
+    const unknown = facts({ polishingRatioPct: null, kojiRatioPct: null, lowestGrade: null, uncertifiedEquivalentLots: ["H26-0007"], ginjoMethod: false });
+    const failing = facts({ polishingRatioPct: 99, kojiRatioPct: 10, lowestGrade: "out-of-grade", addedAlcoholKg: 200 });
+    const keys = new Set([unknown, failing].flatMap((f) => assessCategories(f).flatMap((v) => v.reasons.map((r) => r.key))));
+    // noTank is worded by the claims API itself, when no tank lies behind a lot.
+    expect([...keys, "noTank"].sort()).toEqual(Object.keys(ledger.claims.reasons).sort());
   });
 });

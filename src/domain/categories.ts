@@ -63,28 +63,32 @@ function ratioLimit(rule: Rule, specialMethod: boolean): number | null {
   return CATEGORY_RULES.find((r) => r.name === rule.kindOf)?.maxRatio ?? null;
 }
 
-export type CategoryVerdict = { name: string; eligible: boolean; reasons: string[] };
+/** Why a category is not met: a key of the catalogue's claims.reasons and its values, worded where it is shown. */
+export type Reason = { key: string; values?: Record<string, string> };
+export type CategoryVerdict = { name: string; eligible: boolean; reasons: Reason[] };
 
 export function assessCategories(f: CategoryFacts): CategoryVerdict[] {
   const alcoholPct = f.polishedRiceKg > 0 ? (f.addedAlcohol95Kg / f.polishedRiceKg) * 100 : 0;
   const uncertified = f.uncertifiedEquivalentLots ?? [];
   return CATEGORY_RULES.map((rule) => {
-    const reasons: string[] = [];
-    if (f.kojiRatioPct === null || f.kojiRatioPct < MIN_KOJI_RATIO_PCT - EPS) reasons.push(`koji rice ${fmt(f.kojiRatioPct)} % is below 15 % of the rice`);
-    if (f.lowestGrade === null || !isThirdGradeOrBetter(f.lowestGrade)) reasons.push(`rice graded ${f.lowestGrade ?? "unknown"} is below 3rd grade`);
-    if (uncertified.length) reasons.push(`rice graded equivalent to 3rd grade has no certificate attached (${uncertified.join(", ")})`);
+    const reasons: Reason[] = [];
+    const because = (key: string, values?: Record<string, string>) => reasons.push(values ? { key, values } : { key });
+    if (f.kojiRatioPct === null) because("kojiUnknown");
+    else if (f.kojiRatioPct < MIN_KOJI_RATIO_PCT - EPS) because("kojiBelow", { pct: fmt(f.kojiRatioPct) });
+    if (f.lowestGrade === null) because("gradeUnknown");
+    else if (!isThirdGradeOrBetter(f.lowestGrade)) because("gradeBelow", { grade: f.lowestGrade });
+    if (uncertified.length) because("noCertificate", { lots: uncertified.join(", ") });
     const limit = ratioLimit(rule, f.specialMethod === true);
-    if (limit !== null && (f.polishingRatioPct === null || f.polishingRatioPct > limit + EPS)) {
-      reasons.push(`polishing ratio ${fmt(f.polishingRatioPct)} % is above ${limit} %`);
-    }
-    if (rule.alcohol === "none" && f.addedAlcoholKg > 0) reasons.push("distilled alcohol was added");
+    if (limit !== null && f.polishingRatioPct === null) because("ratioUnknown", { limit: String(limit) });
+    else if (limit !== null && f.polishingRatioPct! > limit + EPS) because("ratioAbove", { pct: fmt(f.polishingRatioPct!), limit: String(limit) });
+    if (rule.alcohol === "none" && f.addedAlcoholKg > 0) because("alcoholAdded");
     if (rule.alcohol === "up-to-10") {
-      if (f.addedAlcoholKg <= 0) reasons.push("no distilled alcohol was added (a junmai category applies)");
-      else if (alcoholPct > MAX_ALCOHOL_SHARE_PCT + EPS) reasons.push(`added alcohol ${fmt(alcoholPct)} % of the rice weight (as 95 % alcohol) is above 10 %`);
+      if (f.addedAlcoholKg <= 0) because("noAlcohol");
+      else if (alcoholPct > MAX_ALCOHOL_SHARE_PCT + EPS) because("alcoholAbove", { pct: fmt(alcoholPct) });
     }
-    if (rule.ginjo && !f.ginjoMethod) reasons.push("not brewed by the ginjo method");
+    if (rule.ginjo && !f.ginjoMethod) because("notGinjo");
     return { name: rule.name, eligible: reasons.length === 0, reasons };
   });
 }
 
-const fmt = (v: number | null) => (v === null ? "unknown" : String(Math.round(v * 100) / 100));
+const fmt = (v: number) => String(Math.round(v * 100) / 100);

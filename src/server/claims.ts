@@ -1,7 +1,7 @@
 import "server-only";
 import { eq, inArray, sql } from "drizzle-orm";
 import { attachments, lots } from "@/db/schema";
-import { assessCategories, type CategoryFacts, type CategoryVerdict } from "@/domain/categories";
+import { assessCategories, type CategoryFacts, type Reason } from "@/domain/categories";
 import { lowestGrade, type Grade } from "@/domain/grades";
 import { getDb } from "./db";
 import { invalid } from "./errors";
@@ -80,9 +80,10 @@ export function claimsForLot(lot: { id: number; code: string; kind: string }, t:
   if (!CLAIMABLE.includes(lot.kind)) throw invalid({ code: [t("validation.notClaimable")] }, "errors.notClaimable");
   const tanks = ancestorsOfKind(lot.id, "tank").map((tank) => ({ code: tank.code, facts: tankFacts(tank) }));
   const verdicts = tanks.map((x) => assessCategories(x.facts));
-  const categories: CategoryVerdict[] = (verdicts[0] ?? assessCategories(emptyFacts)).map((v, n) => {
-    const reasons = [...new Set(verdicts.flatMap((per, i) => per[n]!.reasons.map((r) => (tanks.length > 1 ? `${tanks[i]!.code}: ${r}` : r))))];
-    return { name: v.name, eligible: verdicts.length > 0 && reasons.length === 0, reasons: verdicts.length ? reasons : ["no tank behind this lot"] };
+  const word = (r: Reason) => t(`claims.reasons.${r.key}`, r.values);
+  const categories = (verdicts[0] ?? assessCategories(emptyFacts)).map((v, n) => {
+    const reasons = [...new Set(verdicts.flatMap((per, i) => per[n]!.reasons.map((r) => (tanks.length > 1 ? t("claims.ofTank", { tank: tanks[i]!.code, reason: word(r) }) : word(r)))))];
+    return { name: v.name, eligible: verdicts.length > 0 && reasons.length === 0, reasons: verdicts.length ? reasons : [t("claims.reasons.noTank")] };
   });
   const facts = tanks.map((x) => x.facts);
   // Two at a time: handed to reduce directly, Math.min would also weigh the index and the array.
