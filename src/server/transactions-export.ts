@@ -35,6 +35,9 @@ export type TransactionRecord = {
   recordedBy: string;
   eventId: number;
   reversesEventId: number | null;
+  /** A receipt of a dispatch: the slip's quantity and what was short on arrival (slip − arrival). */
+  slipQuantity: number | null;
+  shortfall: number | null;
 };
 
 const original = alias(events, "original");
@@ -71,10 +74,12 @@ export function listTransactionRecords(actor: SessionUser, range: DateRange, t: 
       place: sql<string>`coalesce(${original.place}, ${events.place})`,
       deliverySlip: sql<string>`coalesce(${original.referenceDoc}, ${events.referenceDoc})`,
       recordedBy: users.name,
+      attributes: sql<string>`coalesce(${original.attributes}, ${events.attributes})`,
     })
     .from(events)
     .leftJoin(original, eq(original.id, events.corrects))
-    .innerJoin(eventInputs, sql`${eventInputs.eventId} = ${source}`)
+    // The shortfall a receipt found is its own figure on the receipt's line, not a line of its own.
+    .innerJoin(eventInputs, sql`${eventInputs.eventId} = ${source} and ${eventInputs.use} <> 'loss'`)
     .innerJoin(lots, eq(lots.id, eventInputs.lotId))
     .innerJoin(holder, sql`${holder.id} = ${party}`)
     .leftJoin(other, eq(other.id, events.counterpartyId))
@@ -94,6 +99,8 @@ export function listTransactionRecords(actor: SessionUser, range: DateRange, t: 
     const reversal = r.step === "correcting";
     const kind = t(`lot.kinds.${r.kind}`);
     if (!origins.has(r.lotId)) origins.set(r.lotId, originOf(r.lotId, t));
+    const { slipQuantity, shortfall } = JSON.parse(r.attributes) as { slipQuantity?: number; shortfall?: number };
+    const sign = reversal ? -1 : 1;
     return {
       date: dayInJapan(r.at),
       direction: (reversal ? r.originalStep : r.step) === "receiving" ? "receipt" : "shipment",
@@ -110,6 +117,8 @@ export function listTransactionRecords(actor: SessionUser, range: DateRange, t: 
       recordedBy: r.recordedBy,
       eventId: r.eventId,
       reversesEventId: r.reverses,
+      slipQuantity: typeof slipQuantity === "number" ? sign * slipQuantity : null,
+      shortfall: typeof shortfall === "number" ? sign * shortfall : null,
     };
   });
 }
@@ -139,7 +148,7 @@ function originOf(lotId: number, t: Translate): string {
   return names.length ? names.join(", ") : domestic;
 }
 
-const COLUMNS = ["date", "direction", "entry", "product", "lot", "origin", "quantity", "unit", "party", "counterparty", "place", "deliverySlip", "recordedBy", "event", "reverses"] as const;
+const COLUMNS = ["date", "direction", "entry", "product", "lot", "origin", "quantity", "unit", "party", "counterparty", "place", "deliverySlip", "recordedBy", "event", "reverses", "slipQuantity", "shortfall"] as const;
 
 export function transactionsCsv(records: TransactionRecord[], t: Translate): string {
   return csvText(
@@ -160,6 +169,8 @@ export function transactionsCsv(records: TransactionRecord[], t: Translate): str
       r.recordedBy,
       r.eventId,
       r.reversesEventId ?? "",
+      r.slipQuantity ?? "",
+      r.shortfall ?? "",
     ]),
   );
 }

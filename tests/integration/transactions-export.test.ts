@@ -4,6 +4,7 @@ import { POST as postEvent } from "../../app/api/events/route";
 import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as getTransactions } from "../../app/api/records/transactions.csv/route";
 import { csvText } from "@/lib/validation/csv";
+import { getSqlite } from "@/server/db";
 import { call, jsonRequest, signInAs } from "../support/api";
 
 let grower: string, grower2: string, miller: string, admin: string;
@@ -17,8 +18,12 @@ const event = async (cookie: string, body: unknown) => {
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   return res.body;
 };
-const receive = (lot: string, quantity: number, at: string, extra: Record<string, string> = {}) =>
-  event(miller, { step: "receiving", at, inputs: [{ lot, quantity }], referenceDoc: `DS-${lot}`, place: "Shirotae mill yard", ...extra });
+/** The holder's dispatch (dated in September, outside the range the tests read), then the mill's receipt of `quantity` on arrival. */
+const receive = async (lot: string, quantity: number, at: string, extra: Record<string, string> = {}, slip = quantity) => {
+  const holder = (getSqlite().prepare("select party_id as p from lots where code = ?").get(lot) as { p: string }).p;
+  await event(admin, { step: "shipping", partyId: holder, at: "2025-09-20T10:00:00+09:00", inputs: [{ lot, quantity: slip }], counterpartyId: "mill-shirotae", referenceDoc: `DS-${lot}` });
+  return event(miller, { step: "receiving", at, inputs: [{ lot, quantity }], referenceDoc: `DS-${lot}`, place: "Shirotae mill yard", ...extra });
+};
 
 async function download(cookie: string | undefined, query: string) {
   const response = await getTransactions(jsonRequest(`/api/records/transactions.csv${query}`, { cookie }));
@@ -38,13 +43,14 @@ beforeAll(async () => {
   admin = await signInAs("admin@example.com");
   h1 = await harvest(grower, "field-ikeda-terrace", 300, "Yamada Nishiki");
   h2 = await harvest(grower2, "field-nakase-river", 400, "Omachi");
-  h3 = await harvest(admin, "field-coop-north", 700, "Yamada Nishiki");
   const h4 = await harvest(grower, "field-ikeda-cedar", 100, "Omachi");
   // 00:10 on 1 October in Japan is still 30 September in UTC: the range is in Japan's days.
   await receive(h1, 300, "2025-10-01T00:10:00+09:00");
   // A classic payload from OWASP's "CSV Injection" page, typed into free-text fields.
   receipt2 = (await receive(h2, 400, "2025-10-03T10:00:00+09:00", { place: "=cmd|' /C calc'!A0", referenceDoc: "@SUM(1+1)" })).id;
-  await receive(h3, 700, "2025-10-04T10:00:00+09:00");
+  // 702 kg on the slip, 700 kg on arrival: 2 kg short in transit.
+  h3 = await harvest(admin, "field-coop-north", 702, "Yamada Nishiki");
+  await receive(h3, 700, "2025-10-04T10:00:00+09:00", {}, 702);
   await event(admin, { step: "correcting", at: "2025-10-05T10:00:00+09:00", corrects: receipt2, reason: "Unloaded from the wrong truck" });
   const run = await event(miller, {
     step: "polishing",
@@ -67,7 +73,7 @@ describe("GET /api/records/transactions.csv", () => {
     expect(text.startsWith("\uFEFFDate,Direction,")).toBe(true);
     const parsed = Papa.parse<Record<string, string>>(text, { header: true, skipEmptyLines: true });
     expect(parsed.errors).toEqual([]);
-    expect(parsed.meta.fields).toEqual(["Date", "Direction", "Entry", "Product", "Lot code", "Origin", "Quantity", "Unit", "Recording party", "Counterparty", "Place", "Delivery slip", "Recorded by", "Event", "Reverses event"]);
+    expect(parsed.meta.fields).toEqual(["Date", "Direction", "Entry", "Product", "Lot code", "Origin", "Quantity", "Unit", "Recording party", "Counterparty", "Place", "Delivery slip", "Recorded by", "Event", "Reverses event", "Slip quantity", "Short in transit"]);
     const pick = (r: Record<string, string>) => [r.Date, r.Direction, r.Entry, r["Lot code"], r.Product, r.Origin, r.Quantity, r.Unit, r["Recording party"], r.Counterparty, r["Recorded by"]];
     expect(parsed.data.map(pick)).toEqual([
       ["2025-10-01", "receipt", "record", h1, "Harvest (brown rice), Yamada Nishiki", "Hyogo", "300", "kg", "Shirotae Polishing Works", "Ikeda Farm", "Ota Kenji"],
@@ -81,6 +87,9 @@ describe("GET /api/records/transactions.csv", () => {
     expect(parsed.data[0]).toMatchObject({ Place: "Shirotae mill yard", "Delivery slip": `DS-${h1}`, "Reverses event": "" });
     expect(parsed.data[3]!["Reverses event"]).toBe(String(receipt2));
     expect(parsed.data[4]!["Delivery slip"]).toBe("SH-0007");
+    // The receipt of a dispatch keeps the slip's weight and the loss in transit beside the weight received.
+    expect(parsed.data[2]).toMatchObject({ Quantity: "700", "Slip quantity": "702", "Short in transit": "2" });
+    expect(parsed.data[3]).toMatchObject({ Quantity: "-400", "Slip quantity": "-400" });
   });
 
   it("neutralises cells that a spreadsheet would run as formulas", async () => {
