@@ -7,6 +7,7 @@ import { POST as postPreview } from "../../app/api/import/preview/route";
 import { GET as getLotRoute } from "../../app/api/lots/[code]/route";
 import { GET as getLotEvents } from "../../app/api/lots/[code]/events/route";
 import { createLineCollector, type ImportKind } from "@/lib/validation/csv";
+import { POST as postEvent } from "../../app/api/events/route";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 
 let grower: string, miller: string;
@@ -105,6 +106,15 @@ describe("harvest import", () => {
 });
 
 describe("receipt import", () => {
+  // Each receipt answers the grower's dispatch of the lot to the mill (a receipt needs the sender's word).
+  beforeAll(async () => {
+    for (const code of ["H25-0001", "H25-0002", "H25-0003"]) {
+      const onHand = (await lot(grower, code)).onHand;
+      const sent = await call(postEvent, jsonRequest("/api/events", { cookie: grower, body: { step: "shipping", at: "2025-10-01T09:00:00+09:00", inputs: [{ lot: code, quantity: onHand }], counterpartyId: "mill-shirotae", referenceDoc: `DS-${code}` } }));
+      expect(sent.status, JSON.stringify(sent.body)).toBe(201);
+    }
+  });
+
   it("fails the second receipt of the same lot in one file, at its line, and writes nothing", async () => {
     const before = await tableDigests();
     const checked = await preview(miller, "receipts", "receipts-same-lot-twice.csv");
@@ -124,8 +134,8 @@ describe("receipt import", () => {
     expect((await lot(miller, "H25-0001")).party.id).toBe("mill-shirotae");
     expect((await lot(miller, "H25-0002")).party.id).toBe("mill-shirotae");
     const events = (await call(getLotEvents, jsonRequest("/api/lots/H25-0001/events", { cookie: miller }), { code: "H25-0001" })).body.items;
-    expect(events.map((e: { step: string }) => e.step)).toEqual(["registering", "receiving"]);
-    expect(events[1]).toMatchObject({ referenceDoc: "DS-1001", place: "Shirotae Polishing Works\r\nMill Road 5, Asagiri Valley", at: "2025-10-02T03:00:00.000Z" });
+    expect(events.map((e: { step: string }) => e.step)).toEqual(["registering", "shipping", "receiving"]);
+    expect(events[2]).toMatchObject({ referenceDoc: "DS-1001", place: "Shirotae Polishing Works\r\nMill Road 5, Asagiri Valley", at: "2025-10-02T03:00:00.000Z" });
   });
 
   it("is not open to growers", async () => {
