@@ -102,7 +102,8 @@ function toEpcisEvent(e: LotEvent, recall: Recall): EpcisEvent | null {
     }
     case "receiving":
     case "shipping": {
-      const moved = e.inputs.filter((i) => i.use !== "observe");
+      // A receipt's shortfall (loss in transit) is not an object that changed hands.
+      const moved = e.inputs.filter((i) => i.use !== "observe" && i.use !== "loss");
       if (!moved.length) return null;
       const [from, to] = e.step === "receiving" ? [e.counterparty?.id, e.party.id] : [e.party.id, e.counterparty?.id];
       // CBV possessing_party: Grainline follows who holds a lot, not who owns it.
