@@ -177,6 +177,7 @@ export const PAGES: PageEntry[] = [
   { file: "app/(office)/overview/page.tsx", guard: { by: "permission", permission: "users:manage" }, expect: PAGE_ADMIN_ONLY },
   { file: "app/(office)/provenance/page.tsx", guard: { by: "permission", permission: "provenance:read" }, expect: PAGE_READ_ALL },
   { file: "app/(office)/recall/page.tsx", guard: { by: "user", anyOf: ["provenance:read", "records:read-all"], source: ["canReadRecall(user)"] }, expect: PAGE_READ_ALL },
+  { file: "app/(office)/dispatch/page.tsx", guard: { by: "user", anyOf: ["polishing:record", "brewing:record", "harvests:dispatch-own"] }, expect: o("redirect:/sign-in", "ok", "ok", "ok", "ok", "403", "403") },
   { file: "app/(office)/receive/page.tsx", guard: { by: "user", anyOf: ["polishing:record", "brewing:record"] }, expect: o("redirect:/sign-in", "ok", "ok", "403", "ok", "403", "403") },
   { file: "app/(office)/records/page.tsx", guard: { by: "permission", permission: "audit:read" }, expect: o("redirect:/sign-in", "ok", "403", "403", "403", "403", "ok") },
   { file: "app/(office)/records/transactions/page.tsx", guard: { by: "user" }, expect: PAGE_SIGNED_IN },
@@ -231,6 +232,9 @@ export const ACTIONS: ActionEntry[] = [
   { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "reversePaymentAction", guard: { by: "user", checkedIn: "reversePayment" }, form: {}, expect: ADMIN_ONLY_WRITE },
   { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "recordAdjustmentAction", guard: { by: "user", checkedIn: "recordAdjustment" }, form: {}, expect: ADMIN_ONLY_WRITE },
   { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "issueStatementAction", guard: { by: "user", checkedIn: "issueStatement" }, form: {}, expect: ADMIN_ONLY_WRITE },
+  { file: "app/(office)/dispatch/actions.ts", name: "dispatchLotAction", guard: { by: "user", checkedIn: "requireAny" }, form: {}, expect: o("401", "422", "422", "422", "422", "403", "403") },
+  { file: "app/(office)/dispatch/actions.ts", name: "confirmReceiptAction", guard: { by: "user", checkedIn: "requireAny" }, form: {}, expect: o("401", "422", "422", "422", "422", "403", "403") },
+  { file: "app/(office)/dispatch/actions.ts", name: "declineReceiptAction", guard: { by: "user", checkedIn: "requireAny" }, form: {}, expect: o("401", "422", "422", "422", "422", "403", "403") },
   { file: "app/(office)/receive/actions.ts", name: "receiveLotAction", guard: { by: "user", checkedIn: "recordEvent" }, form: {}, expect: o("401", "422", "422", "403", "422", "403", "403") },
 ];
 

@@ -32,7 +32,7 @@ const INTERNAL = translator("en")("errors.internal");
 
 type Who = "anonymous" | "admin" | "grower" | "miller";
 const cookies: Record<Who, string> = { anonymous: "", admin: "", grower: "", miller: "" };
-const prepared = { growerLot: "", eventId: "", token: "", paymentId: "" };
+const prepared = { growerLot: "", eventId: "", token: "", paymentId: "", dispatchLot: "", confirmId: "", declineId: "" };
 
 /** The settings form as the page fills it: every band's two bounds and the public-page boxes. */
 function settingsForm(): Record<string, string> {
@@ -61,7 +61,10 @@ const CASES: Case[] = [
   { file: "app/(office)/fields/actions.ts", name: "createFieldAction", who: "grower", base: () => ({ name: "Probe Paddy", region: "Hyogo", areaHa: "1.5", latitude: "", longitude: "", growerId: "" }) },
   { file: "app/(office)/fields/actions.ts", name: "registerHarvestAction", who: "grower", base: () => ({ fieldId: "field-ikeda-terrace", variety: "Yamada Nishiki", cropYear: "2026", brownKg: "600", moisturePct: "14.8", grade: "1", bags: "10" }) },
   { file: "app/(office)/lots/[code]/actions.ts", name: "correctEventAction", who: "admin", base: () => ({ corrects: prepared.eventId, reason: "Probe: the reading was taken on the wrong lot" }) },
-  { file: "app/(office)/receive/actions.ts", name: "receiveLotAction", who: "miller", base: () => ({ code: prepared.growerLot, referenceDoc: "DS-PROBE-1", place: "Mill yard", date: "2026-11-20", partyId: "" }) },
+  { file: "app/(office)/receive/actions.ts", name: "receiveLotAction", who: "miller", base: () => ({ code: prepared.growerLot, quantity: "598.5", referenceDoc: "DS-PROBE-1", place: "Mill yard", date: "2026-11-20", partyId: "" }) },
+  { file: "app/(office)/dispatch/actions.ts", name: "dispatchLotAction", who: "grower", base: () => ({ code: prepared.dispatchLot, counterpartyId: "mill-shirotae", referenceDoc: "DS-PROBE-2", place: "", date: "2026-11-19" }) },
+  { file: "app/(office)/dispatch/actions.ts", name: "confirmReceiptAction", who: "grower", base: () => ({ requestId: prepared.confirmId }) },
+  { file: "app/(office)/dispatch/actions.ts", name: "declineReceiptAction", who: "grower", base: () => ({ requestId: prepared.declineId, reason: "Probe: not our delivery" }) },
   { file: "app/(office)/suppliers/actions.ts", name: "saveRoundingAction", who: "admin", base: () => ({ rounding: "half-up" }) },
   { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "setInvoiceNumberAction", who: "admin", base: () => ({ partyId: "grower-nakase", invoiceNumber: "T1234567890123" }) },
   {
@@ -123,6 +126,15 @@ beforeAll(async () => {
   const harvest = await call(harvestsRoute, jsonRequest("/api/harvests", { cookie: cookies.grower, body: HARVESTS.base }));
   expect(harvest.status).toBe(201);
   prepared.growerLot = harvest.body.code;
+  // Two more of the grower's harvests: one to dispatch, one the mill "receives" undispatched (twice: to confirm, to decline).
+  const more = async () => (await call(harvestsRoute, jsonRequest("/api/harvests", { cookie: cookies.grower, body: HARVESTS.base }))).body.code as string;
+  prepared.dispatchLot = await more();
+  for (const key of ["confirmId", "declineId"] as const) {
+    const awaited = await more();
+    const receipt = await call(eventsRoute, jsonRequest("/api/events", { cookie: cookies.miller, body: { step: "receiving", inputs: [{ lot: awaited, quantity: 1 }] } }));
+    expect(receipt.status).toBe(202);
+    prepared[key] = String((getSqlite().prepare("select max(id) as id from receipt_requests").get() as { id: number }).id);
+  }
   const reading = await call(eventsRoute, jsonRequest("/api/events", { cookie: cookies.grower, body: { step: "measuring", inputs: [{ lot: harvest.body.code, quantity: 0 }], measurements: [{ name: "moisturePct", value: 14.9, unit: "%" }] } }));
   expect(reading.status).toBe(201);
   prepared.eventId = String(reading.body.id);

@@ -15,12 +15,6 @@ import { requireUser } from "@/server/session";
 import { requireAny } from "@/server/event-rows";
 import { STEP_RULES } from "@/domain/steps";
 
-/** Who sends lots at all (and so answers receipts awaiting its word): the shipping step's roles. */
-async function requireSender() {
-  const actor = await requireUser();
-  requireAny(actor, STEP_RULES.shipping.permission);
-  return actor;
-}
 
 const dispatchForm = z.object({
   code: z.string().trim().min(1).max(20),
@@ -34,7 +28,9 @@ const dispatchForm = z.object({
 export async function dispatchLotAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);
   return guardAction(values, async (t) => {
-    const actor = await requireSender();
+    const actor = await requireUser();
+    // Who sends lots at all (and so answers receipts awaiting its word): the shipping step's roles.
+    requireAny(actor, STEP_RULES.shipping.permission);
     const form = dispatchForm.parse(values);
     const code = normaliseLotCode(form.code);
     // The sender ships what it holds: the slip weight is the lot's on-hand weight.
@@ -58,7 +54,9 @@ export async function dispatchLotAction(_prev: FormState, formData: FormData): P
 export async function confirmReceiptAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);
   return guardAction(values, async (t) => {
-    const actor = await requireSender();
+    const actor = await requireUser();
+    // Who sends lots at all (and so answers receipts awaiting its word): the shipping step's roles.
+    requireAny(actor, STEP_RULES.shipping.permission);
     const { requestId } = answerSchema.parse(values);
     confirmReceiptRequest(actor, requestId, t);
     revalidatePath("/dispatch");
@@ -69,7 +67,9 @@ export async function confirmReceiptAction(_prev: FormState, formData: FormData)
 export async function declineReceiptAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);
   return guardAction(values, async (t) => {
-    const actor = await requireSender();
+    const actor = await requireUser();
+    // Who sends lots at all (and so answers receipts awaiting its word): the shipping step's roles.
+    requireAny(actor, STEP_RULES.shipping.permission);
     const { requestId, reason } = declineSchema.parse(values);
     declineReceiptRequest(actor, requestId, reason, t);
     revalidatePath("/dispatch");

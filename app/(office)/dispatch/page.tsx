@@ -2,7 +2,6 @@ import { forbidden } from "next/navigation";
 import { getFormatter, getTranslations } from "next-intl/server";
 import { can } from "@/domain/permissions";
 import { normaliseLotCode } from "@/domain/lot-code";
-import { STEP_RULES } from "@/domain/steps";
 import { requirePageUser } from "@/server/page-guard";
 import { listParties } from "@/server/parties";
 import { listRequestsToAnswer } from "@/server/receipt-requests";
@@ -15,7 +14,8 @@ export async function generateMetadata() {
 
 export default async function DispatchPage({ searchParams }: { searchParams: Promise<{ code?: string }> }) {
   const user = await requirePageUser();
-  if (!STEP_RULES.shipping.permission.some((p) => can(user, p))) forbidden();
+  // The shipping step's roles (STEP_RULES.shipping): mill and brewery staff, the office, growers for their harvest.
+  if (!can(user, "polishing:record") && !can(user, "brewing:record") && !can(user, "harvests:dispatch-own")) forbidden();
   const t = await getTranslations("dispatch");
   const format = await getFormatter();
   const code = normaliseLotCode(String((await searchParams).code ?? "")).slice(0, 20);
