@@ -37,6 +37,8 @@ test("200 concurrent draws from one lot: accepted draws never exceed what it had
   test.setTimeout(120_000);
   await signInAndLand(page, "grower@example.com");
   const harvest = await (await page.request.post("/api/harvests", { data: { fieldId: "field-ikeda-cedar", variety: "Omachi", cropYear: 2026, brownKg: 150, moisturePct: 14.2, grade: "2", bags: 3 } })).json();
+  // A receipt needs the sender's word: the grower dispatches the lot to the mill first.
+  expect((await page.request.post("/api/events", { data: { step: "shipping", inputs: [{ lot: harvest.code, quantity: 150 }], counterpartyId: "mill-shirotae", referenceDoc: "DS-E2E-150" } })).status()).toBe(201);
   await page.request.post("/api/auth/sign-out");
   await signInAndLand(page, "miller@example.com");
   expect((await page.request.post("/api/events", { data: { step: "receiving", inputs: [{ lot: harvest.code, quantity: 150 }] } })).status()).toBe(201);
