@@ -58,3 +58,32 @@ test("200 concurrent draws from one lot: accepted draws never exceed what it had
   const events = (await (await page.request.get(`/api/lots/${harvest.code}/events`)).json()).items;
   expect(events.filter((e: { step: string }) => e.step === "polishing")).toHaveLength(accepted);
 });
+
+// RFC 3986 §2.1: a percent-escape is "%" and two hexadecimal digits. Next's router answered
+// these with a bare 500; the production server's front door (src/server/front-door.ts) says 400.
+test("a path with a broken percent-escape gets 400 with the security headers", async ({ request }) => {
+  for (const path of ["/lots/%E0%A4%A", "/api/lots/%zz", "/01/%/10/x"]) {
+    const res = await request.get(path);
+    expect(res.status(), path).toBe(400);
+    expect(res.headers()["content-security-policy"], path).toContain("frame-ancestors 'none'");
+    expect(res.headers()["x-content-type-options"], path).toBe("nosniff");
+  }
+});
+
+// RFC 9110 §15.5.14: 413 Content Too Large. The declared length is judged before any byte of
+// the body is read: the answer comes while the client still holds the body back.
+test("a request declaring a 2 MB body gets 413 with the security headers, unread", async ({ baseURL }) => {
+  const { request: send } = await import("node:http");
+  for (const path of ["/api/events", "/api/fields", "/sign-in"]) {
+    const answer = await new Promise<{ status: number; headers: Record<string, unknown> }>((resolve, reject) => {
+      const req = send(`${baseURL}${path}`, { method: "POST", headers: { "content-type": "application/json", "content-length": String(2 * 1024 * 1024) } }, (res) => {
+        resolve({ status: res.statusCode!, headers: res.headers });
+        req.destroy();
+      });
+      req.on("error", reject);
+      req.flushHeaders();
+    });
+    expect(answer.status, path).toBe(413);
+    expect(answer.headers["content-security-policy"], path).toContain("frame-ancestors 'none'");
+  }
+});
