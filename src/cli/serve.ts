@@ -31,7 +31,7 @@ const checkpointer = env.GRAINLINE_CHECKPOINTS === "inline" ? null : (await impo
 
 // Malformed paths (400) and bodies over their limit (413) are answered before anything reads
 // the body; then the fast path, else Next (src/server/front-door.ts).
-const handle = frontDoor(fastPath, (req, res) => {
+const door = frontDoor(fastPath, (req, res) => {
   nextHandler(req, res).catch((error: unknown) => {
     // Next answers its own errors; this is one it could not, so the request still gets an answer.
     console.error(error);
@@ -39,10 +39,12 @@ const handle = frontDoor(fastPath, (req, res) => {
     res.end("Something went wrong on our side.");
   });
 });
-const server = http.createServer((req, res) => {
+const withTransportSecurity = (handle: http.RequestListener) => (req: http.IncomingMessage, res: http.ServerResponse) => {
   for (const [name, value] of transportSecurity) res.setHeader(name, value);
   handle(req, res);
-});
+};
+const server = http.createServer(withTransportSecurity(door.request));
+server.on("checkContinue", withTransportSecurity(door.checkContinue));
 server.listen(port, hostname, () => console.log(`Grainline is listening on http://${hostname ?? "localhost"}:${port}`));
 
 async function stop() {

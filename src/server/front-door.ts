@@ -50,29 +50,33 @@ export function malformedPath(pathname: string): boolean {
 const pathOf = (req: IncomingMessage) => (req.url ?? "/").split("?", 1)[0]!;
 
 /**
- * The production server's request handler (src/cli/serve.ts): a malformed path is answered
+ * The production server's request handlers (src/cli/serve.ts): a malformed path is answered
  * 400 and a body over its limit 413, before anything reads the body; then the fast path
  * (src/server/fast-path.ts) or Next. A streamed body is read here up to its limit first.
+ * `checkContinue` takes Node's event of that name: a client that waits before sending its
+ * body (Expect: 100-continue, as curl does for large ones) is told 413 instead of "go on".
  */
-export function frontDoor(fastPath: ((req: IncomingMessage, res: ServerResponse) => boolean) | null, next: Handler): Handler {
+export function frontDoor(fastPath: ((req: IncomingMessage, res: ServerResponse) => boolean) | null, next: Handler) {
   const pass = (req: IncomingMessage, res: ServerResponse) => {
     if (fastPath?.(req, res)) return;
     // The socket's own peer, for sign-in throttling; whatever a client sent under this name is replaced.
     req.headers[PEER_HEADER] = req.socket.remoteAddress ?? "";
     next(req, res);
   };
-  return (req, res) => {
+  const handle = (req: IncomingMessage, res: ServerResponse, continueFirst: boolean) => {
     const pathname = pathOf(req);
     if (malformedPath(pathname)) return refuse(req, res, 400, "bad_request", { key: "errors.malformedAddress" });
     const limit = bodyLimitFor(req.method, pathname);
     // Node's parser has already refused a Content-Length that is not a plain number.
     if (Number(req.headers["content-length"] ?? 0) > limit.bytes) return refuse(req, res, 413, "too_large", limit.message);
+    if (continueFirst) res.writeContinue();
     if (req.headers["transfer-encoding"] === undefined || limit.countsItself) return pass(req, res);
     readCapped(req, limit.bytes).then(
       (body) => (body ? pass(withBody(req, body), res) : refuse(req, res, 413, "too_large", limit.message)),
       () => res.destroy(), // the client went away mid-body: no one to answer
     );
   };
+  return { request: (req: IncomingMessage, res: ServerResponse) => handle(req, res, false), checkContinue: (req: IncomingMessage, res: ServerResponse) => handle(req, res, true) };
 }
 
 /**

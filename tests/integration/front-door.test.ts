@@ -75,6 +75,16 @@ describe("bodies over 1 MiB are refused before they are read", () => {
     await expectRefusedUnread(() => sendRaw(server.port, { path: "/api/fields", headers: { cookie: grower }, declared: 2 * MiB }));
   });
 
+  it("a client that waits for \"100 Continue\" before a 2 MB body is told 413 instead (RFC 9110 §10.1.1)", async () => {
+    const answer = await sendRaw(server.port, { path: "/api/fields", headers: { cookie: grower, "content-type": "application/json" }, body: twoMB, expectContinue: true });
+    expect(answer.status).toBe(413);
+    expect(answer.continued).toBe(false);
+    expectSecurityHeaders(answer);
+    const small = await sendRaw(server.port, { path: "/api/fields", headers: { cookie: grower, "content-type": "application/json" }, body: paddedField(300), expectContinue: true });
+    expect(small.continued).toBe(true);
+    expect(small.status).toBe(422);
+  });
+
   it("a 2 MB server-action post to a page: 413 in plain text", async () => {
     const answer = await sendRaw(server.port, { path: "/admin/parties", headers: { cookie: brewer, "next-action": "0".repeat(40), "content-type": "text/plain" }, body: Buffer.alloc(2 * MiB, 0x61) });
     expect(answer.status).toBe(413);

@@ -17,7 +17,9 @@ export async function startFrontDoor(routes: StandInRoute[]) {
     reached.push({ method: req.method!, url: req.url! });
     void standIn(routes, req, res);
   };
-  const server = http.createServer(frontDoor(serveFast, next));
+  const door = frontDoor(serveFast, next);
+  const server = http.createServer(door.request);
+  server.on("checkContinue", door.checkContinue);
   await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
   const port = (server.address() as AddressInfo).port;
   return { port, reached, close: () => new Promise<void>((r) => server.close(() => r())) };
@@ -39,25 +41,28 @@ async function standIn(routes: StandInRoute[], req: http.IncomingMessage, res: h
   res.writeHead(200, { "content-type": "text/plain" }).end("a page Next would render");
 }
 
-export type RawAnswer = { status: number; headers: http.IncomingHttpHeaders; body: string };
+export type RawAnswer = { status: number; headers: http.IncomingHttpHeaders; body: string; continued: boolean };
 
 /**
  * Sends one request over a fresh socket. `body` is sent with a Content-Length, or in `chunks`
- * with Transfer-Encoding: chunked; `declared` claims a length without sending the bytes.
+ * with Transfer-Encoding: chunked; `declared` claims a length without sending the bytes;
+ * `expectContinue` sends the body only once the server says "100 Continue" (`continued`).
  * Resolves on the answer, even if the server closed the socket before taking the whole body.
  */
-export function sendRaw(port: number, init: { method?: string; path: string; headers?: Record<string, string>; body?: Buffer; chunks?: Buffer[]; declared?: number }): Promise<RawAnswer> {
+export function sendRaw(port: number, init: { method?: string; path: string; headers?: Record<string, string>; body?: Buffer; chunks?: Buffer[]; declared?: number; expectContinue?: boolean }): Promise<RawAnswer> {
   return new Promise((resolve, reject) => {
     const headers: Record<string, string> = { host: "localhost:3000", ...init.headers };
     if (init.body) headers["content-length"] = String(init.body.length);
     if (init.declared !== undefined) headers["content-length"] = String(init.declared);
     if (init.chunks) headers["transfer-encoding"] = "chunked";
+    if (init.expectContinue) headers.expect = "100-continue";
     let answered = false;
+    let continued = false;
     const req = http.request({ host: "127.0.0.1", port, method: init.method ?? "POST", path: init.path, headers, agent: false }, (res) => {
       answered = true;
       const parts: Buffer[] = [];
       const done = () => {
-        resolve({ status: res.statusCode!, headers: res.headers, body: Buffer.concat(parts).toString("utf8") });
+        resolve({ status: res.statusCode!, headers: res.headers, body: Buffer.concat(parts).toString("utf8"), continued });
         req.destroy();
       };
       res.on("data", (c: Buffer) => parts.push(c));
@@ -67,6 +72,10 @@ export function sendRaw(port: number, init: { method?: string; path: string; hea
     // A server that answers early and closes may reset the socket under a body still being sent.
     req.on("error", (error) => (answered ? undefined : reject(error)));
     if (init.declared !== undefined) return void req.flushHeaders();
+    if (init.expectContinue) {
+      req.on("continue", () => ((continued = true), req.end(init.body)));
+      return void req.flushHeaders();
+    }
     if (init.chunks) {
       for (const chunk of init.chunks) req.write(chunk);
       return void req.end();
