@@ -112,7 +112,7 @@ class Floor {
   record(actor: SessionUser, input: Input): Recorded {
     const full = { inputs: [], outputs: [], measurements: [], ...input } as EventInput;
     const result = this.api.applyEvent(this.tx, actor, full, this.t) as Recorded;
-    if (full.step !== "receiving" && full.step !== "measuring") {
+    if (full.step !== "receiving" && full.step !== "shipping" && full.step !== "measuring") {
       for (const i of full.inputs) this.onHand.set(i.lot, this.onHand.get(i.lot)! - i.quantity);
     }
     for (const o of result.outputs) this.onHand.set(o.code, (this.onHand.get(o.code) ?? 0) + o.quantity);
@@ -240,8 +240,11 @@ function harvestAndPolish(c: Ctx, year: number): Stock[][] {
       }
     }
     let slip = 0;
-    for (const codes of byGrower.values()) {
-      floor.record(c.miller, { step: "receiving", at: at(year, 10, 25), inputs: codes.map((lot) => ({ lot, quantity: floor.onHand.get(lot)! })), referenceDoc: `DS-${year}-${++slip}` });
+    // Each grower's delivery slip (recorded by the office for the grower), then the mill's receipt of each bag lot.
+    for (const [growerId, codes] of byGrower) {
+      const referenceDoc = `DS-${year}-${++slip}`;
+      floor.record(c.office, { step: "shipping", partyId: growerId, counterpartyId: c.miller.partyId, at: at(year, 10, 24), inputs: codes.map(floor.all.bind(floor)), referenceDoc });
+      for (const lot of codes) floor.record(c.miller, { step: "receiving", at: at(year, 10, 25), inputs: [floor.all(lot)], referenceDoc });
     }
   });
   const pools: Stock[][] = CLASSES.map(() => []);
@@ -273,7 +276,9 @@ function harvestAndPolish(c: Ctx, year: number): Stock[][] {
         }
         picked.forEach((l, n) => (l.left = r3(l.left - inputs[n]!.quantity)));
         const out = result.outputs.find((o) => o.kind === "polished")!;
-        floor.record(c.brewer, { step: "receiving", at: at(year, 11, 2, Math.floor(runDay / 3)), inputs: [{ lot: out.code, quantity: out.quantity }], referenceDoc: `SH-${out.code}` });
+        const shipped = { inputs: [{ lot: out.code, quantity: out.quantity }], referenceDoc: `SH-${out.code}` };
+        floor.record(c.miller, { step: "shipping", counterpartyId: c.brewer.partyId, at: at(year, 11, 1, Math.floor(runDay / 3)), ...shipped });
+        floor.record(c.brewer, { step: "receiving", at: at(year, 11, 2, Math.floor(runDay / 3)), ...shipped });
         pools[cls]!.push({ code: out.code, left: out.quantity, cls, season: year });
         runDay++;
       });

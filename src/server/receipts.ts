@@ -3,6 +3,7 @@ import { and, desc, eq, sql } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { eventInputs, events, lots, parties, receiptRequests } from "@/db/schema";
 import { contentOfDraw } from "@/domain/composition";
+import { isValidLotCode } from "@/domain/lot-code";
 import { canSeeLot } from "@/domain/permissions";
 import type { PartyKind } from "@/domain/roles";
 import { RECEIVABLE_KINDS } from "@/domain/steps";
@@ -59,6 +60,8 @@ export function applyReceipt(tx: DbOrTx, actor: SessionUser, input: EventInput, 
   if (input.inputs.length !== 1) fail("inputs", t("validation.oneLotPerReceipt"));
   const named = input.inputs[0];
   if (named && !(named.quantity > 0)) fail("inputs.0.quantity", t("validation.tooSmall", { minimum: 0 }));
+  // A request is kept as typed, so what it names must at least be written as a lot code.
+  if (named && !isValidLotCode(named.lot)) fail("inputs.0.lot", t("validation.notALotCode"));
   input.measurements.forEach((m, n) => m.lot && m.lot !== named?.lot && fail(`measurements.${n}.lot`, t("validation.unknownLot")));
   const receiver = resolveEventParty(tx, actor, input, t);
   if (input.counterpartyId && !tx.select({ id: parties.id }).from(parties).where(eq(parties.id, input.counterpartyId)).get()) fail("counterpartyId", t("validation.unknownCounterparty"));
