@@ -29,15 +29,23 @@ test("a grower registers a field and a harvest, prints its label; the miller pol
   const label = page.getByTestId("label").first();
   await expect(label).toContainText(code);
   await expect(label.locator("svg")).toBeVisible();
+
+  // Grower: the delivery slip (the sender's word); the lot stays the grower's until it arrives.
+  await page.goto(`/dispatch?code=${code}`);
+  await page.getByLabel("Send to").selectOption({ label: "Shirotae Polishing Works" });
+  await page.getByLabel("Delivery-slip number").fill("DS-2026-201");
+  await page.getByRole("button", { name: "Record dispatch" }).click();
+  await expect(page.getByTestId("form-message")).toContainText(`Lot ${code} dispatched`);
   await signOut(page);
 
-  // Miller: receive the new lot, then polish it together with a lot already at the mill.
+  // Miller: receive the new lot with its weight on arrival, then polish it with a lot already at the mill.
   await signInAndLand(page, "miller@example.com");
   await page.goto("/receive");
   await page.getByLabel("Lot code").fill(code);
+  await page.getByLabel("Weight on arrival").fill("480");
   await page.getByLabel("Delivery-slip number").fill("DS-2026-201");
   await page.getByRole("button", { name: "Record receipt" }).click();
-  await expect(page.getByTestId("form-message")).toContainText(`Lot ${code} received from Ikeda Farm`);
+  await expect(page.getByTestId("form-message")).toContainText(`Lot ${code} received.`);
 
   await page.goto("/mill");
   await expect(page.getByTestId("lots-table")).toContainText(code);

@@ -26,11 +26,19 @@ test("admin records a receipt and a payment; the grower sees what is owed, the l
   await expect(harvest.getByTestId("form-message")).toContainText(/Harvest lot H26-\d{4} registered/);
   const code = /H26-\d{4}/.exec((await harvest.getByTestId("form-message").textContent()) ?? "")![0];
 
+  // The grower's delivery slip, recorded by the office for the grower, then the receipt.
+  await page.goto(`/dispatch?code=${code}`);
+  await page.getByLabel("Send to").selectOption({ label: "Kirinoha Brewery" });
+  await page.getByLabel("Delivery-slip number").fill("DS-E2E-1");
+  await page.getByRole("button", { name: "Record dispatch" }).click();
+  await expect(page.getByTestId("form-message")).toContainText(`Lot ${code} dispatched`);
+
   await page.goto("/receive");
   await page.getByLabel("Lot code").fill(code);
+  await page.getByLabel("Weight on arrival").fill("630");
   await page.getByLabel("Delivery-slip number").fill("DS-E2E-1");
   await page.getByRole("button", { name: "Record receipt" }).click();
-  await expect(page.getByTestId("form-message")).toContainText(`Lot ${code} received from Nakase Family Paddies`);
+  await expect(page.getByTestId("form-message")).toContainText(`Lot ${code} received.`);
   await signOut(page);
 
   // 630 kg = 10.5 bags × 25,000 = 262,500 yen; not yet stated, so its tax is as the next
@@ -89,8 +97,11 @@ test("a grower cannot open another grower's account", async ({ page }) => {
   await signInAndLand(page, "grower@example.com");
   const own = await page.request.get("/api/suppliers/grower-ikeda/ledger");
   expect(own.status()).toBe(200);
+  // Another supplier's account answers exactly as a party that does not exist.
   const other = await page.request.get("/api/suppliers/grower-nakase/ledger");
-  expect(other.status()).toBe(403);
+  const missing = await page.request.get("/api/suppliers/no-such-party/ledger");
+  expect(other.status()).toBe(404);
+  expect(await other.text()).toBe(await missing.text());
   const office = await page.goto("/suppliers/grower-nakase");
   expect(office?.status()).toBe(403);
 });

@@ -19,8 +19,8 @@ export default async function DispatchPage({ searchParams }: { searchParams: Pro
   const t = await getTranslations("dispatch");
   const format = await getFormatter();
   const code = normaliseLotCode(String((await searchParams).code ?? "")).slice(0, 20);
-  // Lots travel to mills and breweries; a party never dispatches to itself.
-  const receivers = [...listParties("mill"), ...listParties("brewery")].filter((p) => p.id !== user.partyId).map(({ id, name }) => ({ id, name }));
+  // Lots travel to mills and breweries; a party never dispatches to itself, but the office sends for growers to its own brewery.
+  const receivers = [...listParties("mill"), ...listParties("brewery")].filter((p) => can(user, "lots:act-any") || p.id !== user.partyId).map(({ id, name }) => ({ id, name }));
   const requests = listRequestsToAnswer(user);
   return (
     <div className="max-w-3xl space-y-6">
