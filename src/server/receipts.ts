@@ -30,13 +30,13 @@ export function checkDispatch(tx: DbOrTx, d: { eventParty: string; counterparty:
   if (Object.keys(errors).length) throw invalid(errors);
 }
 
-export type OpenDispatch = { id: number; slip: number; referenceDoc: string };
+export type OpenDispatch = { id: number; slip: number; referenceDoc: string; at: Date };
 
 /** The dispatch a lot in transit is travelling under: the latest one on it (a lot has one open at a time). */
 export function openDispatch(tx: DbOrTx, lot: LotRow): OpenDispatch | null {
   if (!lot.inTransitTo) return null;
   const row = tx
-    .select({ id: events.id, slip: eventInputs.quantity, referenceDoc: events.referenceDoc })
+    .select({ id: events.id, slip: eventInputs.quantity, referenceDoc: events.referenceDoc, at: events.at })
     .from(eventInputs)
     .innerJoin(events, eq(events.id, eventInputs.eventId))
     .where(and(eq(eventInputs.lotId, lot.id), eq(eventInputs.use, "dispatch")))
@@ -114,6 +114,8 @@ export function receiveDispatched(tx: DbOrTx, r: Receipt, t: Translate) {
   const arrival = r.input.inputs[0]!.quantity;
   const shortfall = r.dispatch.slip - arrival > EPS ? r.dispatch.slip - arrival : 0;
   const at = r.input.at ? new Date(r.input.at) : new Date();
+  // Rice arrives after it was sent: a receipt dated before its slip is a typing slip.
+  if (at < r.dispatch.at) throw invalid({ at: [t("validation.receiptBeforeDispatch", { date: r.dispatch.at.toISOString().slice(0, 10) })] });
   const eventId = insertEvent(tx, {
     step: "receiving",
     at,

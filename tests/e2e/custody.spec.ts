@@ -43,6 +43,9 @@ test("a receipt the grower never dispatched waits for the grower's word; confirm
   await expect(page.getByTestId("lots-table")).toContainText(code);
   await page.goto("/receive");
   await expect(page.getByTestId("own-receipt-requests").getByRole("listitem").filter({ hasText: code })).toContainText("confirmed");
+  // The slip weight beside the weight on arrival; the difference is the loss in transit.
+  await page.goto(`/lots/${code}`);
+  await expect(page.getByTestId("receipt-figures")).toHaveText("Slip 300 kg · on arrival 298.5 kg · short in transit 1.5 kg");
 });
 
 test("a payment over the balance owed asks for a reason; a payment is reversed with a reason, never deleted", async ({ page }) => {

@@ -85,6 +85,17 @@ describe("dispatch, then receipt", () => {
     expect(row("select amount_yen as amount, json_extract(detail, '$.kg') as kg from supplier_entries where event_id = ?", res.body.id)).toEqual({ amount: 273_625, kg: 597 });
   });
 
+  it("refuses a receipt dated before the dispatch, and changes nothing", async () => {
+    const code = await harvest(grower, 400);
+    expect((await event(grower, { step: "shipping", at: "2026-10-05T09:00:00+09:00", inputs: [{ lot: code, quantity: 400 }], counterpartyId: "mill-shirotae", referenceDoc: "DS-EARLY" })).status).toBe(201);
+    const before = await tableDigests();
+    const res = await receive(code, 400, { at: "2026-10-04T12:00:00+09:00" });
+    expect(res.status).toBe(422);
+    expect(res.body.error.fields.at).toEqual([en("validation.receiptBeforeDispatch", { date: "2026-10-05" })]);
+    expect(await tableDigests()).toEqual(before);
+    expect(holderOf(code)).toEqual({ party: "grower-ikeda", transit: "mill-shirotae", onHand: 400 });
+  });
+
   it("a correction of the receipt hands the lot back, still on its way; correcting the dispatch then calls it back", async () => {
     const code = await harvest(grower, 300);
     const sent = await dispatch(grower, code, 300);

@@ -72,6 +72,7 @@ export async function EventTimeline({ events, lotCode }: { events: ShownLotEvent
               </div>
             ) : null}
           </div>
+          <ReceiptFigures event={e} qty={qty} />
           {e.referenceDoc || e.place || e.note ? (
             <p className="mt-2 text-sm text-ink-soft">
               {[e.referenceDoc && t("lotPage.ref", { ref: e.referenceDoc }), e.place && t("lotPage.place", { place: e.place }), e.note].filter(Boolean).join(" · ")}
@@ -80,6 +81,19 @@ export async function EventTimeline({ events, lotCode }: { events: ShownLotEvent
         </li>
       ))}
     </ol>
+  );
+}
+
+/** A receipt's slip weight beside the weight on arrival, and the loss in transit as its own figure. */
+async function ReceiptFigures({ event, qty }: { event: ShownLotEvent; qty: (q: number, unit: string) => string }) {
+  const a = event.attributes as { slipQuantity?: unknown; arrivalQuantity?: unknown; shortfall?: unknown };
+  const unit = event.inputs.find((i) => i.unit)?.unit;
+  if (event.step !== "receiving" || typeof a.slipQuantity !== "number" || typeof a.arrivalQuantity !== "number" || !unit) return null;
+  const t = await getTranslations("lotPage");
+  return (
+    <p className="mt-2 text-sm font-semibold" data-testid="receipt-figures">
+      {t("receiptFigures", { slip: qty(a.slipQuantity, unit), arrival: qty(a.arrivalQuantity, unit), shortfall: qty(Number(a.shortfall ?? 0), unit) })}
+    </p>
   );
 }
 
