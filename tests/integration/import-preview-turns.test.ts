@@ -23,7 +23,14 @@ const preview = (cookie: string, rows = harvestRows(2)) => call(postPreview, jso
 const SIGN_IN_TABLES = ["sessions", "audit_log", "sign_in_throttle"];
 
 describe("a 5,000-row preview shares the server", () => {
-  it("a sign-in is answered within 200 ms while the preview runs, and the preview still reports every row", async () => {
+  // A wall-clock bound on a shared 2-core machine: measured 48–151 ms while the rest of the suite
+  // ran beside it. A retry measures again under the same bound (a preview that held the loop took
+  // 3,864 ms, so no retry can pass it). Each attempt runs at its own minute of a past day, so the
+  // rows quota (10,000 a minute) counts each attempt alone and none against the tests after it.
+  let attempt = 0;
+  it("a sign-in is answered within 200 ms while the preview runs, and the preview still reports every row", { retry: 2 }, async () => {
+    vi.useFakeTimers({ toFake: ["Date"] });
+    vi.setSystemTime(new Date(Date.UTC(2020, 0, 1, 0, 2 * attempt++)));
     const rows = harvestRows(5_000);
     rows[3_999]!.cells[5] = "premium"; // one bad grade, in the 20th chunk of 200
     const before = await tableDigests(SIGN_IN_TABLES);
