@@ -347,6 +347,25 @@ export const receiptOutcomes = sqliteTable(
   (t) => [uniqueIndex("receipt_outcomes_request_unique").on(t.requestId)],
 );
 
+/**
+ * Holds put on lots (from a recall) and their releases, appended only (triggers in the
+ * migration): a lot is on hold while its newest row is a hold. `recallCode` names the recall
+ * the action was taken from, when it was.
+ */
+export const lotHolds = sqliteTable(
+  "lot_holds",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    lotId: integer("lot_id").notNull().references(() => lots.id),
+    action: text("action", { enum: ["hold", "release"] }).notNull(),
+    reason: text("reason").notNull(),
+    recallCode: text("recall_code").notNull().default(""),
+    userId: text("user_id").notNull().references(() => users.id),
+    at: integer("at", { mode: "timestamp_ms" }).notNull(),
+  },
+  (t) => [index("lot_holds_lot_idx").on(t.lotId, t.id)],
+);
+
 // ---------------------------------------------------------------------------
 // The supplier ledger: what the brewery owes growers and mills, in integer yen. Contracts,
 // entries and statements are appended, never changed (triggers in the migration).
