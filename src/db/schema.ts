@@ -289,6 +289,27 @@ export const settings = sqliteTable("settings", {
 });
 
 /**
+ * The brewery's products: what a bottling fills (brand name, the category its label claims,
+ * bottle size) and the GTIN its barcode carries — one GTIN per product and size (GS1 General
+ * Specifications, GTIN allocation). Kept as registered; a bottling copies what it used.
+ */
+export const products = sqliteTable(
+  "products",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    name: text("name").notNull(),
+    // A category of CATEGORY_RULES (src/domain/categories.ts), or "" when the label claims none.
+    category: text("category").notNull().default(""),
+    bottleMl: integer("bottle_ml").notNull(),
+    // Kept as the 14-digit form (a JAN-13 with a leading 0), so one product has one spelling.
+    gtin: text("gtin").notNull(),
+    userId: text("user_id").notNull().references(() => users.id),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("products_gtin_unique").on(t.gtin)],
+);
+
+/**
  * Composition kept as it is made: how much of a lot's content each harvest lot accounts
  * for, one row per event, lot and source. A lot's shares are the sums over its content_in;
  * a correction appends the negated rows. Backward trace and forward trace from a harvest
