@@ -9,7 +9,10 @@ import { postJson, type ApiResult } from "./api-client";
  * once and kept with it, so however often it is resent the server records it once.
  */
 export type FloorWriteResult<T> = { state: "sent"; result: ApiResult<T> } | { state: "queued"; id: string };
-export type QueuedWrite = { id: string; url: string; body: unknown; label: string; createdAt: string; lastStatus?: number; lastError?: string };
+/** The form a write came from, so a refused write opens again with what was typed. */
+export type QueuedForm = { href: string; values: Record<string, string> };
+export type QueuedWrite = { id: string; url: string; body: unknown; label: string; createdAt: string; form?: QueuedForm; lastStatus?: number; lastError?: string; lastFields?: Record<string, string[]> };
+export type QueuedSummary = Pick<QueuedWrite, "id" | "label" | "createdAt" | "lastError"> & { fixHref?: string };
 
 let store: UseStore | null = null;
 let owner = "";
@@ -78,7 +81,8 @@ export async function flushQueue(options: { retryRefused?: boolean } = {}): Prom
       }
       if (result.status === 0) break;
       const lastError = result.error.message || result.error.code;
-      await changeQueue((items) => items.map((i) => (i.id === item.id ? { ...i, lastStatus: result.status, lastError } : i)));
+      const lastFields = result.error.fields;
+      await changeQueue((items) => items.map((i) => (i.id === item.id ? { ...i, lastStatus: result.status, lastError, lastFields } : i)));
       if (!refused({ ...item, lastStatus: result.status })) break;
     }
     return { sent, left: (await readQueue()).length };
@@ -90,8 +94,8 @@ export async function flushQueue(options: { retryRefused?: boolean } = {}): Prom
  * answer from the server (created, 409, 422 …) is "sent" and shown to the person; only
  * no answer at all queues it. Writes already waiting go first, so order is kept.
  */
-export async function submitFloorWrite<T>(url: string, body: unknown, label: string): Promise<FloorWriteResult<T>> {
-  const item: QueuedWrite = { id: newIdempotencyKey(), url, body, label, createdAt: new Date().toISOString() };
+export async function submitFloorWrite<T>(url: string, body: unknown, label: string, form?: QueuedForm): Promise<FloorWriteResult<T>> {
+  const item: QueuedWrite = { id: newIdempotencyKey(), url, body, label, createdAt: new Date().toISOString(), ...(form ? { form } : {}) };
   const queue = async (): Promise<FloorWriteResult<T>> => {
     await changeQueue((items) => [...items, item]);
     return { state: "queued", id: item.id };
@@ -107,12 +111,25 @@ export async function submitFloorWrite<T>(url: string, body: unknown, label: str
   return unanswered(result.status) ? queue() : { state: "sent", result };
 }
 
-/** Drops a refused write the person has read and decided not to send. */
+/** A waiting write of this person's, to open again in its form. */
+export async function readQueuedWrite(id: string): Promise<QueuedWrite | null> {
+  return (await readQueue()).find((i) => i.id === id) ?? null;
+}
+
+/**
+ * Keeps what was typed on a refused write that was fixed and refused again (it stays in the
+ * queue, to fix later), so leaving the form never loses it.
+ */
+export async function keepRefusedWrite(id: string, form: QueuedForm, body: unknown, lastError: string, lastFields?: Record<string, string[]>): Promise<void> {
+  await changeQueue((items) => items.map((i) => (i.id === id ? { ...i, form, body, lastError, lastFields } : i)));
+}
+
+/** Drops a refused write the person has read and decided not to send (or has sent again, fixed). */
 export async function discardQueuedWrite(id: string): Promise<void> {
   await changeQueue((items) => items.filter((i) => i.id !== id));
 }
 
-export function useQueuedWrites(): { items: { id: string; label: string; createdAt: string; lastError?: string }[]; flush: () => Promise<void> } {
+export function useQueuedWrites(): { items: QueuedSummary[]; flush: () => Promise<void> } {
   const [items, setItems] = useState<QueuedWrite[]>([]);
   useEffect(() => {
     let live = true;
@@ -127,7 +144,8 @@ export function useQueuedWrites(): { items: { id: string; label: string; created
   const flush = useCallback(async () => {
     await flushQueue({ retryRefused: true });
   }, []);
-  return { items: items.map(({ id, label, createdAt, lastError }) => ({ id, label, createdAt, lastError })), flush };
+  const fixHref = (item: QueuedWrite) => (item.form && refused(item) ? `${item.form.href}${item.form.href.includes("?") ? "&" : "?"}queued=${encodeURIComponent(item.id)}` : undefined);
+  return { items: items.map((item) => ({ id: item.id, label: item.label, createdAt: item.createdAt, lastError: item.lastError, fixHref: fixHref(item) })), flush };
 }
 
 /** Sends waiting writes on page load, when the phone comes back online, and every 30 s while any wait. */

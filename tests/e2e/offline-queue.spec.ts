@@ -90,7 +90,10 @@ test("an answer from the server is shown, never queued; a write refused on resen
   await page.reload();
   await expect(page.getByTestId("queue-panel")).toContainText("Not accepted");
   expect(answered).toBe(2);
+  // Discarding asks first: one tap is not enough.
   await page.getByTestId("queue-panel").getByRole("button", { name: "Discard" }).click();
+  await expect(page.getByTestId("queue-panel").getByTestId("queue-count")).toHaveText("1 record waiting to be sent");
+  await page.getByTestId("queue-panel").getByRole("button", { name: "Tap again to discard" }).click();
   await expect(page.getByTestId("queue-panel")).toHaveCount(0);
   expect(await moistureReadings(page.request, 12.8)).toHaveLength(0);
 });

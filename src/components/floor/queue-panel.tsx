@@ -1,5 +1,6 @@
 "use client";
 
+import Link from "next/link";
 import { useTranslations } from "next-intl";
 import { useEffect, useState } from "react";
 import { discardQueuedWrite, setQueueOwner, useQueueAutoFlush, useQueuedWrites } from "@/lib/offline-queue";
@@ -59,14 +60,31 @@ export function QueuePanel({ userId }: { userId: string }) {
                 {item.lastError ? <span className="block font-semibold text-persimmon">{t("refused", { error: item.lastError })}</span> : null}
               </span>
               {item.lastError ? (
-                <button type="button" onClick={() => void discardQueuedWrite(item.id)} className="btn-quiet min-h-12 px-3">
-                  {t("discard")}
-                </button>
+                <span className="flex flex-wrap gap-2">
+                  {item.fixHref ? <Link href={item.fixHref} className="btn min-h-12 px-3">{t("fix")}</Link> : null}
+                  <DiscardButton id={item.id} />
+                </span>
               ) : null}
             </li>
           ))}
         </ul>
       </div>
     </section>
+  );
+}
+
+/** A discarded record is gone for good, so the first tap only asks; the second, within 5 s, discards. */
+function DiscardButton({ id }: { id: string }) {
+  const t = useTranslations("floorScan.queue");
+  const [asking, setAsking] = useState(false);
+  useEffect(() => {
+    if (!asking) return;
+    const timer = window.setTimeout(() => setAsking(false), 5000);
+    return () => window.clearTimeout(timer);
+  }, [asking]);
+  return (
+    <button type="button" onClick={() => (asking ? void discardQueuedWrite(id) : setAsking(true))} className={`${asking ? "btn" : "btn-quiet"} min-h-12 px-3`} aria-live="polite">
+      {asking ? t("discardConfirm") : t("discard")}
+    </button>
   );
 }

@@ -2,7 +2,7 @@
 
 import type { IScannerControls } from "@zxing/browser";
 import { useTranslations } from "next-intl";
-import { useEffect, useRef, useState } from "react";
+import { useCallback, useEffect, useRef, useState } from "react";
 
 type CameraError = "denied" | "noCamera" | "busy" | "insecure" | "unknown";
 
@@ -20,7 +20,7 @@ function cameraError(error: unknown): CameraError {
  * whether it was the one wanted (then the camera stops, saving the battery and the next
  * bag from being read by accident).
  */
-export function Scanner({ onText }: { onText: (text: string) => boolean }) {
+export function Scanner({ onText, autoStart = false }: { onText: (text: string) => boolean; autoStart?: boolean }) {
   const t = useTranslations("floorScan.camera");
   const video = useRef<HTMLVideoElement>(null);
   const controls = useRef<IScannerControls | null>(null);
@@ -39,7 +39,7 @@ export function Scanner({ onText }: { onText: (text: string) => boolean }) {
     setState("off");
   };
 
-  const start = async () => {
+  const start = useCallback(async () => {
     setError(null);
     if (!navigator.mediaDevices?.getUserMedia) {
       setError(window.isSecureContext ? "noCamera" : "insecure");
@@ -66,7 +66,12 @@ export function Scanner({ onText }: { onText: (text: string) => boolean }) {
       setState("off");
       setError(cameraError(failure));
     }
-  };
+  }, []);
+
+  // A scan button beside a field has already said "open the camera": no second tap.
+  useEffect(() => {
+    if (autoStart) void start();
+  }, [autoStart, start]);
 
   return (
     <section className="space-y-3" data-testid="scanner">

@@ -1,19 +1,24 @@
 "use client";
 
 import Link from "next/link";
-import { useState } from "react";
+import { useEffect, useMemo, useState } from "react";
 import { useTranslations } from "next-intl";
 import { alcoholAs95Kg } from "@/domain/categories";
 import { checkBand, KOJI_CHECKPOINTS, kojiMeasurementName, RICE_USES, waterAbsorptionPct, type Band, type KojiCheckpoint, type RiceUse } from "@/domain/brewing";
 import type { FloorAction } from "@/domain/floor-actions";
 import { roundPct } from "@/domain/polishing";
 import { BOTTLE_SIZES_ML } from "@/domain/steps";
-import { submitFloorWrite } from "@/lib/offline-queue";
+import { CodeField, RequiredMark } from "@/components/floor/code-field";
+import { appendBag, bagCodes, moreBagFields, moreBags, MoreBags } from "@/components/floor/more-bags";
+import { checkOffline, errorsByField, fieldPaths, requiredFields } from "@/lib/floor-form-check";
+import { discardQueuedWrite, keepRefusedWrite, readQueuedWrite, setQueueOwner, submitFloorWrite } from "@/lib/offline-queue";
+import type { Translate } from "@/lib/validation/field-errors";
 import type { ApiLot } from "@/server/lots";
 
 type Bands = { absorption: Record<RiceUse, Band>; gain: Record<RiceUse, Band>; koji: Record<KojiCheckpoint, Band> };
 type V = Record<string, string>;
-type Field = { name: string; type: "number" | "text" | "code" | "select" | "datetime" | "checkbox"; options?: readonly string[]; show?: (v: V) => boolean };
+// `bags`: the weight field that goes with this code; further bags can be scanned in a row.
+type Field = { name: string; type: "number" | "text" | "code" | "select" | "datetime" | "checkbox"; options?: readonly string[]; show?: (v: V) => boolean; bags?: string };
 type Result = { id: number; outputs: { code: string; kind: string; quantity: number; unit: string }[]; warnings: string[] };
 
 const n = (s: string | undefined) => (s && s.trim() !== "" ? Number(s.replace(",", ".")) : NaN);
@@ -79,9 +84,9 @@ const ACTIONS: Record<FloorAction, { fields: Field[]; defaults: (lot: ApiLot) =>
       { name: "tankCode", type: "code", show: (v) => v.addition !== "first" },
       { name: "starterCode", type: "code", show: (v) => v.addition === "first" },
       { name: "starterKg", type: "number", show: (v) => v.addition === "first" },
-      { name: "kojiCode", type: "code" },
+      { name: "kojiCode", type: "code", bags: "kojiKg" },
       { name: "kojiKg", type: "number" },
-      { name: "steamedCode", type: "code" },
+      { name: "steamedCode", type: "code", bags: "steamedKg" },
       { name: "steamedKg", type: "number" },
       { name: "waterL", type: "number" },
     ],
@@ -97,7 +102,9 @@ const ACTIONS: Record<FloorAction, { fields: Field[]; defaults: (lot: ApiLot) =>
       const inputs = [
         ...(first && v.starterCode ? [{ lot: code(v.starterCode), quantity: n(v.starterKg) }] : []),
         ...(v.kojiCode ? [{ lot: code(v.kojiCode), quantity: n(v.kojiKg) }] : []),
+        ...moreBags(v, "kojiCode", "kojiKg", n),
         ...(v.steamedCode ? [{ lot: code(v.steamedCode), quantity: n(v.steamedKg) }] : []),
+        ...moreBags(v, "steamedCode", "steamedKg", n),
       ];
       // The mash grows by everything put in: rice, koji, starter and water (1 L ≈ 1 kg).
       const quantity = sum(...inputs.map((i) => i.quantity), n(v.waterL));
@@ -131,8 +138,9 @@ const ACTIONS: Record<FloorAction, { fields: Field[]; defaults: (lot: ApiLot) =>
   },
 };
 
-export function FloorActionForm({ action, lot, bands }: { action: FloorAction; lot: ApiLot; bands: Bands }) {
+export function FloorActionForm({ action, lot, bands, userId, queuedId }: { action: FloorAction; lot: ApiLot; bands: Bands; userId?: string; queuedId?: string }) {
   const t = useTranslations("floorForms");
+  const translate = useTranslations();
   const def = ACTIONS[action];
   const [values, setValues] = useState<V>(() => def.defaults(lot));
   const [queued, setQueued] = useState(false);
@@ -140,23 +148,48 @@ export function FloorActionForm({ action, lot, bands }: { action: FloorAction; l
   const [result, setResult] = useState<Result | null>(null);
   const [problem, setProblem] = useState<{ message: string; fields: Record<string, string[]> } | null>(null);
   const set = (name: string, value: string) => setValues((v) => ({ ...v, [name]: value }));
+  const shown = def.fields.filter((f) => !f.show || f.show(values));
+  const checked = [...shown, ...shown.flatMap((f) => (f.bags ? moreBagFields(values, f.name, f.bags) : []))];
+  const owners = useMemo(() => fieldPaths((v) => def.build(v, lot), values, checked), [values, def, lot]); // eslint-disable-line react-hooks/exhaustive-deps
+  const required = useMemo(() => requiredFields((v) => def.build(v, lot), values, checked), [values, def, lot]); // eslint-disable-line react-hooks/exhaustive-deps
+  const byField = problem ? errorsByField(problem.fields, owners) : {};
+  const form = { href: `/floor/${action}?lot=${encodeURIComponent(lot.code)}`, values };
+
+  // A record the server refused from the queue opens again with what was typed and its answer.
+  useEffect(() => {
+    if (!queuedId || !userId) return;
+    setQueueOwner(userId);
+    void readQueuedWrite(queuedId).then((item) => {
+      if (!item?.form) return;
+      setValues(item.form.values);
+      setProblem({ message: item.lastError ?? "", fields: item.lastFields ?? {} });
+    });
+  }, [queuedId, userId]);
 
   const submit = async (e: React.FormEvent) => {
     e.preventDefault();
+    const body = def.build(values, lot);
+    // The server's own schema, on the phone: a slip is shown now, not after the queue sends it.
+    const slips = checkOffline(body, translate as unknown as Translate);
+    if (slips) return setProblem({ message: t("fixFields"), fields: slips });
     setPending(true);
     // The queue gives the write its Idempotency-Key and keeps it when the network is down.
-    const sent = await submitFloorWrite<Result>("/api/events", def.build(values, lot), `${t(`${action}.title`)} · ${lot.code}`);
+    const sent = await submitFloorWrite<Result>("/api/events", body, `${t(`${action}.title`)} · ${lot.code}`, form);
     setPending(false);
     if (sent.state === "queued") {
+      if (queuedId) await discardQueuedWrite(queuedId);
       setQueued(true);
       setProblem(null);
       return;
     }
     const res = sent.result;
     if (res.ok) {
+      if (queuedId) await discardQueuedWrite(queuedId);
       setResult(res.body);
       setProblem(null);
     } else {
+      // Refused again: it stays waiting, as now typed, until it is fixed or discarded.
+      if (queuedId) await keepRefusedWrite(queuedId, form, body, res.error.message, res.error.fields);
       setProblem({ message: res.error.message, fields: res.error.fields ?? {} });
     }
   };
@@ -179,8 +212,22 @@ export function FloorActionForm({ action, lot, bands }: { action: FloorAction; l
           <ul className="mt-1 text-base">{Object.entries(problem.fields).map(([k, msgs]) => <li key={k}>{msgs.join(" ")}</li>)}</ul>
         </div>
       ) : null}
-      {def.fields.filter((f) => !f.show || f.show(values)).map((f) => (
-        <FieldInput key={f.name} field={f} label={t(`${action}.${f.name}`)} value={values[f.name] ?? ""} onChange={(v) => set(f.name, v)} optionLabel={(o) => t(`options.${o}`)} />
+      {required.size ? <p className="text-base opacity-80">{translate("floorScan.codeField.requiredNote")}</p> : null}
+      {shown.map((f) => (
+        <div key={f.name} className="space-y-3">
+          <FieldInput
+            field={f}
+            label={t(`${action}.${f.name}`)}
+            value={values[f.name] ?? ""}
+            onChange={(v) => set(f.name, v)}
+            optionLabel={(o) => t(`options.${o}`)}
+            required={required.has(f.name)}
+            errors={byField[f.name]}
+            taken={f.bags ? bagCodes(values, f.name) : undefined}
+            onAppend={f.bags ? (c) => setValues((v) => appendBag(v, f.name, c)) : undefined}
+          />
+          {f.bags ? <MoreBags values={values} codeName={f.name} kgName={f.bags} kgLabel={t(`${action}.${f.bags}`)} required={required} errors={byField} onChange={setValues} /> : null}
+        </div>
       ))}
       <Preview action={action} values={values} bands={bands} />
       <button type="submit" className="btn min-h-16 w-full text-2xl" disabled={pending}>{t(`${action}.submit`)}</button>
@@ -197,7 +244,9 @@ function LotLine({ lot }: { lot: ApiLot }) {
   );
 }
 
-function FieldInput({ field, label, value, onChange, optionLabel }: { field: Field; label: string; value: string; onChange: (v: string) => void; optionLabel: (o: string) => string }) {
+type FieldInputProps = { field: Field; label: string; value: string; onChange: (v: string) => void; optionLabel: (o: string) => string; required?: boolean; errors?: string[]; taken?: string[]; onAppend?: (code: string) => void };
+
+function FieldInput({ field, label, value, onChange, optionLabel, required, errors, taken, onAppend }: FieldInputProps) {
   const id = `f-${field.name}`;
   const big = "field-input min-h-14 text-2xl";
   if (field.type === "checkbox") {
@@ -208,9 +257,13 @@ function FieldInput({ field, label, value, onChange, optionLabel }: { field: Fie
       </label>
     );
   }
+  if (field.type === "code") return <CodeField id={id} label={label} value={value} onChange={onChange} onAppend={onAppend} taken={taken} required={required} errors={errors} />;
   return (
     <div>
-      <label htmlFor={id} className="block text-lg font-semibold">{label}</label>
+      <label htmlFor={id} className="block text-lg font-semibold">
+        {label}
+        {required ? <RequiredMark /> : null}
+      </label>
       {field.type === "select" ? (
         <select id={id} className={big} value={value} onChange={(e) => onChange(e.target.value)}>
           {field.options!.map((o) => <option key={o} value={o}>{optionLabel(o)}</option>)}
@@ -218,14 +271,18 @@ function FieldInput({ field, label, value, onChange, optionLabel }: { field: Fie
       ) : (
         <input
           id={id}
-          className={`${big} ${field.type === "code" ? "font-[family-name:var(--font-code)] uppercase" : ""}`}
+          className={big}
           type={field.type === "datetime" ? "datetime-local" : "text"}
           inputMode={field.type === "number" ? "decimal" : undefined}
           autoComplete="off"
+          aria-required={required || undefined}
+          aria-invalid={errors?.length ? true : undefined}
+          aria-describedby={errors?.length ? `${id}-error` : undefined}
           value={value}
           onChange={(e) => onChange(e.target.value)}
         />
       )}
+      {errors?.length ? <p id={`${id}-error`} className="notice-warn mt-1 text-base text-ink" data-testid={`${id}-error`}>{errors.join(" ")}</p> : null}
     </div>
   );
 }

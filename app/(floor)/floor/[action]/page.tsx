@@ -18,12 +18,13 @@ export async function generateMetadata({ params }: { params: Promise<{ action: s
   return { title: FLOOR_ACTIONS.includes(action as FloorAction) ? t(`${action}.title`) : "404" };
 }
 
-export default async function FloorActionPage({ params, searchParams }: { params: Promise<{ action: string }>; searchParams: Promise<{ lot?: string }> }) {
+export default async function FloorActionPage({ params, searchParams }: { params: Promise<{ action: string }>; searchParams: Promise<{ lot?: string; queued?: string }> }) {
   const user = await requirePagePermission("brewing:record");
   const { action } = await params;
   if (!FLOOR_ACTIONS.includes(action as FloorAction)) notFound();
   const t = await getTranslations();
-  const code = normaliseLotCode((await searchParams).lot ?? "");
+  const query = await searchParams;
+  const code = normaliseLotCode(query.lot ?? "");
   const lot = code ? findLot(user, code) : null;
   const caution = CAUTIONS[action as FloorAction];
   const db = getDb();
@@ -34,7 +35,7 @@ export default async function FloorActionPage({ params, searchParams }: { params
       <h1 className="text-3xl font-bold">{t(`floorForms.${action}.title`)}</h1>
       {caution ? <Caution kind={caution} /> : null}
       {lot ? (
-        <FloorActionForm action={action as FloorAction} lot={lot} bands={bands} />
+        <FloorActionForm action={action as FloorAction} lot={lot} bands={bands} userId={user.id} queuedId={typeof query.queued === "string" ? query.queued : undefined} />
       ) : (
         <p role="alert" className="notice-warn text-ink">{code ? t("lookup.notFound", { code }) : t("floorForms.scanFirst")}</p>
       )}
