@@ -51,6 +51,16 @@ export const RICE_USES = ["koji", "starter", "mash"] as const;
 export type RiceUse = (typeof RICE_USES)[number];
 
 /**
+ * The band a lot is held to: its use's, or for rice soaked together and portioned at the split
+ * ("mixed", no use yet) the span of every use's band — outside it, no portion can be in band.
+ */
+export function bandForUse(bands: Record<RiceUse, Band>, use: string | undefined): Band {
+  if (RICE_USES.includes(use as RiceUse)) return bands[use as RiceUse];
+  const all = RICE_USES.map((u) => bands[u]);
+  return { min: Math.min(...all.map((b) => b.min)), max: Math.max(...all.map((b) => b.max)) };
+}
+
+/**
  * Default target bands (trade practice, from memory, per ../shared/references.md): water
  * absorption koji 30–35 %, mash 25–30 %; starter between the two. The brewery sets its own.
  */

@@ -1,19 +1,53 @@
 import { describe, expect, it } from "vitest";
-import { actionsFor, daysSince } from "./floor-actions";
+import { actionsFor, daysSince, floorOffer } from "./floor-actions";
 
 describe("floor actions by stage (the order of work on a brewery floor, common practice)", () => {
   it("follows the rice from polished to bottle", () => {
     expect(actionsFor("polished")).toEqual(["soak"]);
     expect(actionsFor("soaked")).toEqual(["steam"]);
-    expect(actionsFor("steamed", { use: "koji" })).toEqual(["koji-check", "koji"]);
-    expect(actionsFor("steamed", { use: "mash" })).toEqual(["add"]);
     expect(actionsFor("tank")).toContain("press");
     expect(actionsFor("sake")).toContain("bottle");
     expect(actionsFor("bottled")).toEqual([]);
     expect(actionsFor("harvest")).toEqual([]);
   });
 
+  it("offers the split on every steamed lot, the lot's own use first", () => {
+    expect(actionsFor("steamed", { use: "koji" })).toEqual(["koji-check", "koji", "split"]);
+    expect(actionsFor("steamed", { use: "starter" })).toEqual(["starter", "split"]);
+    // Mash rice is portioned per addition (first, middle, final) before it goes in.
+    expect(actionsFor("steamed", { use: "mash" })).toEqual(["split", "add"]);
+    expect(actionsFor("steamed", { use: "mash", addition: "middle" })).toEqual(["add", "split"]);
+    expect(actionsFor("steamed", {})[0]).toBe("split");
+  });
+
   it("counts whole days rested", () => {
     expect(daysSince("2026-11-01T10:00:00+09:00", new Date("2026-11-15T09:00:00+09:00"))).toBe(13);
+  });
+});
+
+describe("what the floor card offers (custody rules of DEVELOPERS.md)", () => {
+  const brewer = { id: "u1", role: "brewer" as const, partyId: "brewery" };
+  const admin = { id: "u0", role: "admin" as const, partyId: "brewery" };
+  const miller = { id: "u2", role: "miller" as const, partyId: "mill" };
+  const lot = (partyId: string, extra: object = {}) => ({ kind: "polished", attributes: {}, party: { id: partyId, name: partyId === "mill" ? "Kawabe Mill" : "Brewery" }, ...extra });
+
+  it("offers steps on a lot the brewer's party holds", () => {
+    expect(floorOffer(brewer, lot("brewery"))).toEqual({ state: "actions", actions: ["soak"] });
+  });
+
+  it("names the holder instead of offering steps on another party's lot", () => {
+    expect(floorOffer(brewer, lot("mill"))).toEqual({ state: "held-elsewhere", by: "Kawabe Mill" });
+  });
+
+  it("says where a lot in transit is going, even to the office, since nothing is drawn from it", () => {
+    const travelling = lot("mill", { inTransitTo: { id: "brewery", name: "Brewery" } });
+    expect(floorOffer(brewer, travelling)).toEqual({ state: "in-transit", to: "Brewery" });
+    expect(floorOffer(admin, travelling)).toEqual({ state: "in-transit", to: "Brewery" });
+  });
+
+  it("the office acts on any party's lot; a role offers only the steps it may record", () => {
+    expect(floorOffer(admin, lot("mill"))).toEqual({ state: "actions", actions: ["soak"] });
+    // A miller holding steamed rice may not record brewing steps (src/domain/steps.ts).
+    expect(floorOffer(miller, { ...lot("mill"), kind: "steamed" })).toEqual({ state: "actions", actions: ["koji-check"] });
   });
 });

@@ -1,4 +1,5 @@
-import type { LotKind } from "./steps";
+import { can, canActOnLot, type Actor, type Permission } from "./permissions";
+import { STEP_RULES, type LotKind, type RecordableStep } from "./steps";
 
 /**
  * What the floor offers after a scan, by the stage a lot is at. Each action is a floor
@@ -7,6 +8,22 @@ import type { LotKind } from "./steps";
 export const FLOOR_ACTIONS = ["soak", "steam", "split", "koji-check", "koji", "starter", "add", "measure", "press", "blend", "bottle"] as const;
 export type FloorAction = (typeof FLOOR_ACTIONS)[number];
 
+/** The event each floor screen records (../shared/api.md steps). */
+export const STEP_OF_ACTION: Record<FloorAction, RecordableStep> = {
+  soak: "soaking",
+  steam: "steaming",
+  split: "splitting",
+  "koji-check": "measuring",
+  koji: "koji-making",
+  starter: "starter",
+  add: "mash-addition",
+  measure: "measuring",
+  press: "pressing",
+  blend: "blending",
+  bottle: "bottling",
+};
+
+/** The next likely step comes first: the floor's result screen offers it as one tap. */
 export function actionsFor(kind: LotKind, attributes: Record<string, unknown> = {}): FloorAction[] {
   switch (kind) {
     case "polished":
@@ -14,10 +31,12 @@ export function actionsFor(kind: LotKind, attributes: Record<string, unknown> = 
     case "soaked":
       return ["steam"];
     case "steamed":
-      // A portion split for the koji room goes there; other steamed rice is split or added.
-      if (attributes.use === "koji") return ["koji-check", "koji"];
-      if (attributes.use === "starter") return ["starter"];
-      if (attributes.use === "mash") return ["add"];
+      // Steamed rice can always be split again (koji, starter, each mash addition); a portion
+      // already meant for one use offers that use first. Mash rice not yet portioned per
+      // addition is split first (three additions, common practice).
+      if (attributes.use === "koji") return ["koji-check", "koji", "split"];
+      if (attributes.use === "starter") return ["starter", "split"];
+      if (attributes.use === "mash") return attributes.addition ? ["add", "split"] : ["split", "add"];
       return ["split", "koji-check", "koji", "starter", "add"];
     case "koji":
       return ["starter", "add"];
@@ -31,6 +50,25 @@ export function actionsFor(kind: LotKind, attributes: Record<string, unknown> = 
     default:
       return [];
   }
+}
+
+export type FloorLot = { kind: string; attributes: Record<string, unknown>; party: { id: string; name: string }; inTransitTo?: { id: string; name: string } };
+export type FloorOffer = { state: "actions"; actions: FloorAction[] } | { state: "in-transit"; to: string } | { state: "held-elsewhere"; by: string };
+
+/**
+ * What this person may record on this lot: nothing is drawn from a lot on its way to another
+ * party, only the holder (or the office) acts on a lot, and a role sees only the steps it may
+ * record (the same rules the server enforces in src/server/events.ts).
+ */
+export function floorOffer(actor: Actor, lot: FloorLot): FloorOffer {
+  if (lot.inTransitTo) return { state: "in-transit", to: lot.inTransitTo.name };
+  if (!canActOnLot(actor, { partyId: lot.party.id })) return { state: "held-elsewhere", by: lot.party.name };
+  return { state: "actions", actions: actionsFor(lot.kind as LotKind, lot.attributes).filter((a) => mayRecord(actor, STEP_OF_ACTION[a])) };
+}
+
+export function mayRecord(actor: Actor, step: RecordableStep): boolean {
+  const permission: Permission | readonly Permission[] = STEP_RULES[step].permission;
+  return (typeof permission === "string" ? [permission] : permission).some((p) => can(actor, p));
 }
 
 /** Days a polished lot has rested (polished rice is left to settle before soaking; common practice). */

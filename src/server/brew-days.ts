@@ -68,7 +68,7 @@ export function listBrewDays(actor: SessionUser): BrewDayListing[] {
 
 type Marked = { eventId: number; at: string; corrected: boolean; correctionReason: string | null };
 type Judged = { band: Band | null; bandCheck: BandCheck | null };
-export type SoakRow = Marked & Judged & { lot: string; made: string; use: RiceUse; dryKg: number; drainedKg: number; absorptionPct: number; soakMinutes: number | null; waterTempC: number | null };
+export type SoakRow = Marked & Judged & { lot: string; made: string; use: RiceUse | null; dryKg: number; drainedKg: number; absorptionPct: number; soakMinutes: number | null; waterTempC: number | null };
 export type SteamRow = Marked & Judged & { lots: string[]; made: string; use: RiceUse | null; dryKg: number; steamedKg: number; gainPct: number; steamMinutes: number | null };
 export type SplitRow = Marked & { lot: string; kg: number; portions: { lot: string; use: RiceUse; kg: number; tank: string | null; addition: string | null }[] };
 export type LaterRow = Marked & { step: "koji-making" | "starter" | "mash-addition"; inputs: { lot: string; quantity: number; unit: string }[]; outputs: { lot: string; quantity: number; unit: string }[] };
@@ -104,7 +104,7 @@ export function brewDaySummary(actor: SessionUser, date: string) {
 
   const soaks: SoakRow[] = of("soaking").map((e) => {
     const a = e.attributes;
-    return { ...mark(e), ...judged(a), lot: e.inputs[0]?.lot ?? "", made: e.outputs[0]?.lot ?? "", use: a.use as RiceUse, dryKg: Number(a.dryKg), drainedKg: Number(a.drainedKg), absorptionPct: Number(a.absorptionPct), soakMinutes: measured(e, "soakMinutes"), waterTempC: measured(e, "waterTempC") };
+    return { ...mark(e), ...judged(a), lot: e.inputs[0]?.lot ?? "", made: e.outputs[0]?.lot ?? "", use: (a.use as RiceUse | null) ?? null, dryKg: Number(a.dryKg), drainedKg: Number(a.drainedKg), absorptionPct: Number(a.absorptionPct), soakMinutes: measured(e, "soakMinutes"), waterTempC: measured(e, "waterTempC") };
   });
   const steams: SteamRow[] = of("steaming").map((e) => {
     const a = e.attributes;

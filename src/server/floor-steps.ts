@@ -1,6 +1,6 @@
 import "server-only";
 import type { DbOrTx } from "@/db/client";
-import { ADDITIONS, KOJI_CHECKPOINTS, RICE_USES, checkBand, kojiMeasurementName, steamedGainPct, waterAbsorptionPct, type Band, type RiceUse } from "@/domain/brewing";
+import { ADDITIONS, KOJI_CHECKPOINTS, RICE_USES, bandForUse, checkBand, kojiMeasurementName, steamedGainPct, waterAbsorptionPct, type Band, type RiceUse } from "@/domain/brewing";
 import { ADDED_ALCOHOL_KG, ADDED_ALCOHOL_STRENGTH_PCT } from "@/domain/categories";
 import { contentOfDraw } from "@/domain/composition";
 import { isValidGtin } from "@/domain/gtin";
@@ -47,16 +47,17 @@ export function checkFloorStep(tx: DbOrTx, step: RecordableStep, input: EventInp
     case "soaking": {
       const use = useOf(outs[0]);
       if (held.length !== 1 || outs.length !== 1) fail("outputs", t("floor.oneInOneOut"));
-      if (!RICE_USES.includes(use as RiceUse)) fail("outputs.0.use", t("validation.oneOf", { options: RICE_USES.join(", ") }));
+      // No use: soaked together, the portions are decided at the split.
+      if (use !== undefined && !RICE_USES.includes(use as RiceUse)) fail("outputs.0.use", t("validation.oneOf", { options: RICE_USES.join(", ") }));
       need("soakMinutes");
       need("waterTempC");
       if (Object.keys(errors).length) throw invalid(errors);
       const drained = outs[0]!.quantity;
       if (drained < drawn[0]! - EPS) throw invalid({ "outputs.0.quantity": [t("floor.drainedBelowDry")] });
       const absorption = waterAbsorptionPct(drawn[0]!, drained);
-      const b = readSetting(tx, "absorptionBands")[use as RiceUse];
-      result.attributes = { use, dryKg: drawn[0], drainedKg: drained, absorptionPct: roundPct(absorption), band: b, bandCheck: band(t("floor.absorption"), absorption, b) };
-      result.outputAttributes = { use };
+      const b = bandForUse(readSetting(tx, "absorptionBands"), use);
+      result.attributes = { use: use ?? null, dryKg: drawn[0], drainedKg: drained, absorptionPct: roundPct(absorption), band: b, bandCheck: band(t("floor.absorption"), absorption, b) };
+      result.outputAttributes = use ? { use } : {};
       break;
     }
     case "steaming": {

@@ -9,6 +9,8 @@ import { prepared } from "./prepared";
 import type { SessionUser } from "./session";
 
 const holder = alias(parties, "holder");
+// The party a dispatched lot is on its way to (the floor card says so instead of offering steps).
+const transit = alias(parties, "transit");
 
 /**
  * Which lots a user may see: everything for roles that read all records, else those their party
@@ -34,6 +36,8 @@ const lotColumns = {
   attributes: lots.attributes,
   partyId: holder.id,
   partyName: holder.name,
+  transitId: transit.id,
+  transitName: transit.name,
   fieldId: fields.id,
   fieldName: fields.name,
   region: fields.region,
@@ -43,7 +47,7 @@ const lotColumns = {
 type Row = { [K in keyof typeof lotColumns]: (typeof lotColumns)[K]["_"]["data"] | null } & { id: number; code: string; kind: string; unit: string; quantity: number; onHand: number; attributes: string; createdAt: Date };
 
 function selectLots() {
-  return getDb().select(lotColumns).from(lots).innerJoin(holder, eq(holder.id, lots.partyId)).leftJoin(fields, eq(fields.id, lots.fieldId));
+  return getDb().select(lotColumns).from(lots).innerJoin(holder, eq(holder.id, lots.partyId)).leftJoin(transit, eq(transit.id, lots.inTransitTo)).leftJoin(fields, eq(fields.id, lots.fieldId));
 }
 
 /** The API's Lot shape (../shared/api.md). */
@@ -61,6 +65,7 @@ export function toApiLot(r: Row) {
     moisturePct: r.moisturePct ?? undefined,
     polishingRatioPct: r.polishingRatioPct ?? undefined,
     party: { id: r.partyId!, name: r.partyName! },
+    inTransitTo: r.transitId ? { id: r.transitId, name: r.transitName! } : undefined,
     field: r.fieldId ? { id: r.fieldId, name: r.fieldName!, region: r.region! } : undefined,
     attributes: JSON.parse(r.attributes) as Record<string, unknown>,
     // For the floor's "days rested since polishing" (polished lots only).
@@ -78,6 +83,7 @@ function lotByCode(actor: SessionUser, code: string): Row | undefined {
       .select(lotColumns)
       .from(lots)
       .innerJoin(holder, eq(holder.id, lots.partyId))
+      .leftJoin(transit, eq(transit.id, lots.inTransitTo))
       .leftJoin(fields, eq(fields.id, lots.fieldId))
       .where(and(eq(lots.code, sql.placeholder("code")), visibleTo(actor, sql.placeholder("party"))))
       .prepare(),

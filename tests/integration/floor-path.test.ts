@@ -34,8 +34,9 @@ describe("from polished rice to bottles", () => {
 
   it("refuses a soak without its measurements, changing nothing", async () => {
     const before = await tableDigests();
-    const res = await event({ step: "soaking", inputs: [{ lot: "P26-0003", quantity: 10 }], outputs: [{ kind: "soaked", quantity: 13 }], measurements: [] });
+    const res = await event({ step: "soaking", inputs: [{ lot: "P26-0003", quantity: 10 }], outputs: [{ kind: "soaked", quantity: 13, use: "kake" }], measurements: [] });
     expect(res.status).toBe(422);
+    // The use may be left out (decided at the split), but a use that is named must be one of the trade's.
     expect(Object.keys(res.body.error.fields).sort()).toEqual(["measurements.soakMinutes", "measurements.waterTempC", "outputs.0.use"]);
     expect(await tableDigests()).toEqual(before);
   });

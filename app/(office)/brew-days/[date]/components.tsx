@@ -94,7 +94,7 @@ export function SoakTable({ rows }: { rows: SoakRow[] }) {
         <Row key={r.eventId} row={r}>
           <td className={td}><LotLink code={r.lot} /></td>
           <td className={td}><LotLink code={r.made} /></td>
-          <td className={td}>{t(`uses.${r.use}`)}</td>
+          <td className={td}>{t(`uses.${r.use ?? "mixed"}`)}</td>
           <td className={num}>{n(r.dryKg, "kg")}</td>
           <td className={num}>{n(r.drainedKg, "kg")}</td>
           <td className={num}>{n(r.absorptionPct, "%")}</td>
@@ -207,8 +207,10 @@ function ChartOf({ id, kind, unit, groups, points }: { id: string; kind: "absorp
 
 export function AbsorptionChart({ rows }: { rows: SoakRow[] }) {
   const t = useTranslations("brewDays");
-  const points = rows.filter((r) => !r.corrected).map((r) => ({ id: String(r.eventId), group: r.use, label: r.lot, value: r.absorptionPct, band: r.band, check: r.bandCheck }));
-  return <ChartOf id="absorption-chart" kind="absorption" unit="%" groups={RICE_USES.map((u) => ({ key: u, label: t(`uses.${u}`) }))} points={points} />;
+  // Rice soaked for several uses ("mixed", portioned at the split) is held to the span of their bands.
+  const points = rows.filter((r) => !r.corrected).map((r) => ({ id: String(r.eventId), group: r.use ?? "mixed", label: r.lot, value: r.absorptionPct, band: r.band, check: r.bandCheck }));
+  const groups = [...RICE_USES.map((u) => ({ key: u, label: t(`uses.${u}`) })), { key: "mixed", label: t("uses.mixed") }];
+  return <ChartOf id="absorption-chart" kind="absorption" unit="%" groups={groups} points={points} />;
 }
 
 export function GainChart({ rows }: { rows: SteamRow[] }) {
