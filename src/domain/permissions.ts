@@ -95,6 +95,9 @@ export const HOME_FOR_ROLE: Record<Role, string> = {
   sales: "/provenance",
 };
 
+/** Holding lots after a recall, and releasing them: the office (it acts on any party's lots). */
+export const canHoldLots = (actor: Actor | null) => can(actor, "lots:act-any");
+
 /** Recording on a lot: the party holding it, or the office on anyone's behalf. */
 export function canActOnLot(actor: Actor | null, lot: { partyId: string }): boolean {
   if (can(actor, "lots:act-any")) return true;

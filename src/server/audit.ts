@@ -15,7 +15,9 @@ export type AuditAction =
   | "field.created"
   | "settings.updated"
   | "payment.over-balance"
-  | "payment.reversed";
+  | "payment.reversed"
+  | "lot.held"
+  | "lot.released";
 
 /** Appends who did what; called inside the same transaction as the change it records. */
 export function recordAudit(

@@ -17,6 +17,7 @@ import { checkFloorStep } from "./floor-steps";
 import { checkPolishingRun } from "./polishing-runs";
 import { insertEvent, insertEventInput, lotByCode, requireAny, resolveEventParty, writeMeasurements, type LotRow } from "./event-rows";
 import { applyReceipt, checkDispatch, inTransit } from "./receipts";
+import { refuseIfHeld } from "./holds";
 import { recordSupplierEntries } from "./supplier-entries";
 import type { SessionUser } from "./session";
 
@@ -109,8 +110,12 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
     if (!allowed) throw forbidden("errors.notYourLot");
     if (step === "shipping" && !dispatches && !can(actor, "polishing:record") && !can(actor, "brewing:record")) throw forbidden();
     if (!observes && inTransit(lot)) throw new AppError("conflict", { key: "errors.inTransit", values: { code: lot.code } }, { [`inputs.${n}.lot`]: [t("errors.inTransit", { code: lot.code })] });
+    // A lot on hold (after a recall) is neither drawn, shipped, dispatched nor bottled; a reading may still be taken.
+    if (!observes) refuseIfHeld(tx, lot, `inputs.${n}.lot`, t);
   }
   for (const o of outs) if (o.existing && !canActOnLot(actor, o.existing)) throw forbidden("errors.notYourLot");
+  // Nothing is added to a held lot either (a tank's next addition would mix more into what is held).
+  outs.forEach((o, n) => o.existing && refuseIfHeld(tx, o.existing, `outputs.${n}.lot`, t));
   if (dispatches) checkDispatch(tx, { eventParty, counterparty: counterparty!, lots: held }, t);
 
   const warnings: string[] = [];

@@ -5,6 +5,7 @@ import { fields, lots, parties } from "@/db/schema";
 import { can } from "@/domain/permissions";
 import { getDb } from "./db";
 import { notFound } from "./errors";
+import { currentHold, type Hold } from "./holds";
 import { prepared } from "./prepared";
 import type { SessionUser } from "./session";
 
@@ -71,6 +72,8 @@ export function toApiLot(r: Row) {
     // For the floor's "days rested since polishing" (polished lots only).
     polishedAt: r.kind === "polished" ? createdAt : undefined,
     createdAt,
+    // Filled for one lot read by code (getLot, findLot): the floor card and the lot page show it.
+    hold: undefined as Hold | undefined,
   };
 }
 export type ApiLot = ReturnType<typeof toApiLot>;
@@ -94,12 +97,12 @@ function lotByCode(actor: SessionUser, code: string): Row | undefined {
 export function getLot(actor: SessionUser, code: string): ApiLot {
   const row = lotByCode(actor, code);
   if (!row) throw notFound({ key: "errors.lotNotFound", values: { code } });
-  return toApiLot(row);
+  return { ...toApiLot(row), hold: currentHold(getDb(), row.id) ?? undefined };
 }
 
 export function findLot(actor: SessionUser, code: string): ApiLot | null {
   const row = lotByCode(actor, code);
-  return row ? toApiLot(row) : null;
+  return row ? { ...toApiLot(row), hold: currentHold(getDb(), row.id) ?? undefined } : null;
 }
 
 export function findLotId(actor: SessionUser, code: string): number | null {

@@ -224,6 +224,11 @@ export const ACTIONS: ActionEntry[] = [
   { file: "app/(office)/fields/actions.ts", name: "createFieldAction", guard: { by: "user", checkedIn: "createField" }, form: {}, expect: o("401", "422", "403", "422", "403", "403", "403") },
   { file: "app/(office)/fields/actions.ts", name: "registerHarvestAction", guard: { by: "user", checkedIn: "registerHarvest" }, form: {}, expect: o("401", "422", "403", "422", "403", "403", "403") },
   { file: "app/(office)/lots/[code]/actions.ts", name: "correctEventAction", guard: { by: "user", checkedIn: "recordEvent" }, form: {}, expect: o("401", "422", "422", "422", "422", "422", "422") },
+  // A shipment to a buyer: the shipping step's draw (brewing or polishing staff, the office); the form checks the buyer first.
+  { file: "app/(office)/lots/[code]/actions.ts", name: "shipToBuyerAction", guard: { by: "user", checkedIn: "recordEvent" }, form: {}, expect: o("401", "422", "422", "403", "422", "403", "403") },
+  { file: "app/(office)/lots/[code]/actions.ts", name: "releaseLotAction", guard: { by: "user", checkedIn: "releaseLot" }, form: {}, expect: ADMIN_ONLY_WRITE },
+  { file: "app/(office)/recall/actions.ts", name: "holdRecallAction", guard: { by: "user", checkedIn: "holdRecall" }, form: {}, expect: ADMIN_ONLY_WRITE },
+  { file: "app/(office)/recall/actions.ts", name: "releaseRecallAction", guard: { by: "user", checkedIn: "releaseRecall" }, form: {}, expect: ADMIN_ONLY_WRITE },
   { file: "app/(office)/suppliers/actions.ts", name: "saveRoundingAction", guard: { by: "user", checkedIn: "saveTaxRounding" }, form: {}, expect: ADMIN_ONLY_WRITE },
   { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "setInvoiceNumberAction", guard: { by: "user", checkedIn: "setInvoiceNumber" }, form: {}, expect: o("401", "404", "403", "403", "403", "403", "403") },
   { file: "app/(office)/suppliers/[partyId]/actions.ts", name: "addGrowerContractAction", guard: { by: "user", checkedIn: "addGrowerContract" }, form: {}, expect: ADMIN_ONLY_WRITE },

@@ -32,7 +32,7 @@ const INTERNAL = translator("en")("errors.internal");
 
 type Who = "anonymous" | "admin" | "grower" | "miller";
 const cookies: Record<Who, string> = { anonymous: "", admin: "", grower: "", miller: "" };
-const prepared = { growerLot: "", eventId: "", token: "", paymentId: "", dispatchLot: "", confirmId: "", declineId: "" };
+const prepared = { growerLot: "", eventId: "", token: "", paymentId: "", dispatchLot: "", confirmId: "", declineId: "", bottled: "", heldLot: "", holdLot: "" };
 
 /** The settings form as the page fills it: every band's two bounds and the public-page boxes. */
 function settingsForm(): Record<string, string> {
@@ -61,6 +61,11 @@ const CASES: Case[] = [
   { file: "app/(office)/fields/actions.ts", name: "createFieldAction", who: "grower", base: () => ({ name: "Probe Paddy", region: "Hyogo", areaHa: "1.5", latitude: "", longitude: "", growerId: "" }) },
   { file: "app/(office)/fields/actions.ts", name: "registerHarvestAction", who: "grower", base: () => ({ fieldId: "field-ikeda-terrace", variety: "Yamada Nishiki", cropYear: "2026", brownKg: "600", moisturePct: "14.8", grade: "1", bags: "10" }) },
   { file: "app/(office)/lots/[code]/actions.ts", name: "correctEventAction", who: "admin", base: () => ({ corrects: prepared.eventId, reason: "Probe: the reading was taken on the wrong lot" }) },
+  { file: "app/(office)/lots/[code]/actions.ts", name: "shipToBuyerAction", who: "admin", base: () => ({ code: prepared.bottled, counterpartyId: "buyer-minato", date: "2026-11-27", quantity: "1", referenceDoc: "INV-PROBE-1" }) },
+  // Once the base form has released the lot, a corruption that still reads right is refused as not on hold (409).
+  { file: "app/(office)/lots/[code]/actions.ts", name: "releaseLotAction", who: "admin", base: () => ({ code: prepared.heldLot, reason: "Probe: cleared by the lab" }) },
+  { file: "app/(office)/recall/actions.ts", name: "holdRecallAction", who: "admin", base: () => ({ code: prepared.holdLot, reason: "Probe: held for a check" }) },
+  { file: "app/(office)/recall/actions.ts", name: "releaseRecallAction", who: "admin", base: () => ({ code: prepared.holdLot, reason: "Probe: check passed" }) },
   { file: "app/(office)/receive/actions.ts", name: "receiveLotAction", who: "miller", base: () => ({ code: prepared.growerLot, quantity: "598.5", referenceDoc: "DS-PROBE-1", place: "Mill yard", date: "2026-11-20", partyId: "" }) },
   { file: "app/(office)/dispatch/actions.ts", name: "dispatchLotAction", who: "grower", base: () => ({ code: prepared.dispatchLot, counterpartyId: "mill-shirotae", referenceDoc: "DS-PROBE-2", place: "", date: "2026-11-19" }) },
   { file: "app/(office)/dispatch/actions.ts", name: "confirmReceiptAction", who: "grower", base: () => ({ requestId: prepared.confirmId }) },
@@ -129,6 +134,11 @@ beforeAll(async () => {
   // Two more of the grower's harvests: one to dispatch, one the mill "receives" undispatched (twice: to confirm, to decline).
   const more = async () => (await call(harvestsRoute, jsonRequest("/api/harvests", { cookie: cookies.grower, body: HARVESTS.base }))).body.code as string;
   prepared.dispatchLot = await more();
+  // Bottles to ship; a lot on hold to release; a lot to hold and release with its recall.
+  prepared.bottled = (getSqlite().prepare("select code from lots where kind = 'bottled' and on_hand >= 100 order by id").get() as { code: string }).code;
+  [prepared.heldLot, prepared.holdLot] = [await more(), await more()];
+  const { holdRecallAction } = await load("app/(office)/recall/actions.ts");
+  expect(await submit(cookies.admin, holdRecallAction!, { code: prepared.heldLot, reason: "Probe: held to be released" })).toMatchObject({ state: { ok: true } });
   for (const key of ["confirmId", "declineId"] as const) {
     const awaited = await more();
     const receipt = await call(eventsRoute, jsonRequest("/api/events", { cookie: cookies.miller, body: { step: "receiving", inputs: [{ lot: awaited, quantity: 1 }] } }));

@@ -4,7 +4,7 @@ import Link from "next/link";
 import { useState } from "react";
 import { useFormatter, useTranslations } from "next-intl";
 
-export type ReachedLot = { code: string; kind: string; unit: string; fraction: number; onHand: number; holder: string; recalled: boolean; shippedToBuyer: boolean };
+export type ReachedLot = { code: string; kind: string; unit: string; fraction: number; onHand: number; holder: string; recalled: boolean; shippedToBuyer: boolean; hold: string | null };
 
 /** The lots a recall reached; those shipped to a buyer stand out, and can be shown alone. */
 export function ReachedLotsTable({ lots }: { lots: ReachedLot[] }) {
@@ -27,6 +27,7 @@ export function ReachedLotsTable({ lots }: { lots: ReachedLot[] }) {
               <th className="px-3 py-2 text-right">{t("recall.table.fraction")}</th>
               <th className="px-3 py-2 text-right">{t("recall.table.onHand")}</th>
               <th className="px-3 py-2">{t("recall.table.holder")}</th>
+              <th className="px-3 py-2">{t("holds.column")}</th>
             </tr>
           </thead>
           <tbody>
@@ -41,6 +42,7 @@ export function ReachedLotsTable({ lots }: { lots: ReachedLot[] }) {
                 <td className="px-3 py-2 text-right tabular-nums">{format.number(lot.fraction, { style: "percent", maximumFractionDigits: 1 })}</td>
                 <td className="px-3 py-2 text-right tabular-nums">{`${format.number(lot.onHand, { maximumFractionDigits: 1 })} ${lot.unit}`}</td>
                 <td className="px-3 py-2">{lot.holder}</td>
+                <td className="px-3 py-2" data-testid="recall-hold">{lot.hold ? <span className="font-semibold text-persimmon">{t("holds.onHold", { reason: lot.hold })}</span> : <span className="text-ink-soft">{t("holds.notHeld")}</span>}</td>
               </tr>
             ))}
           </tbody>

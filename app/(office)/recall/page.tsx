@@ -5,6 +5,9 @@ import { normaliseLotCode } from "@/domain/lot-code";
 import { AppError } from "@/server/errors";
 import { requirePageUser } from "@/server/page-guard";
 import { canReadRecall, loadRecall, recallRows, shipmentsToBuyers, type Recall } from "@/server/recall";
+import { heldLots } from "@/server/holds";
+import { canHoldLots } from "@/domain/permissions";
+import { HoldPanel } from "./hold-panel";
 import { ReachedLotsTable, type ReachedLot } from "./components";
 import { PageHeader } from "@/components/page-header";
 
@@ -29,7 +32,8 @@ export default async function RecallPage({ searchParams }: { searchParams: Promi
   const rows = recall ? recallRows(recall) : [];
   const shipments = shipmentsToBuyers(rows);
   const shipped = new Set(shipments.filter((s) => s.correctedBy === null).map((s) => s.lot));
-  const lots: ReachedLot[] = (recall?.lots ?? []).map((l) => ({ code: l.code, kind: l.kind, unit: l.unit, fraction: l.fraction, onHand: l.onHand, holder: l.holder.name, recalled: l.code === recall!.lot.code, shippedToBuyer: shipped.has(l.code) }));
+  const holds = heldLots((recall?.lots ?? []).map((l) => l.code));
+  const lots: ReachedLot[] = (recall?.lots ?? []).map((l) => ({ code: l.code, kind: l.kind, unit: l.unit, fraction: l.fraction, onHand: l.onHand, holder: l.holder.name, recalled: l.code === recall!.lot.code, shippedToBuyer: shipped.has(l.code), hold: holds.get(l.code)?.reason ?? null }));
   const api = `/api/trace/${encodeURIComponent(code)}`;
   return (
     <div className="max-w-5xl space-y-6">
@@ -58,6 +62,7 @@ export default async function RecallPage({ searchParams }: { searchParams: Promi
               <p className="text-ink-soft">{t("recall.noShipments")}</p>
             )}
           </section>
+          <HoldPanel code={recall.lot.code} reached={lots.length} held={holds.size} mayHold={canHoldLots(user)} />
           <section className="space-y-2">
             <h3 className="text-xl font-bold">{t("recall.reachedTitle")}</h3>
             <ReachedLotsTable lots={lots} />

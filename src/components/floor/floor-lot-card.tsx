@@ -26,6 +26,7 @@ export function FloorLotCard({ lot }: { lot: ApiLot }) {
       <h2 id="floor-lot-code" className="m-0">
         <span className="code-chip text-3xl font-bold" data-testid="lot-code">{lot.code}</span>
       </h2>
+      {lot.hold ? <p role="alert" data-testid="lot-on-hold" className="rounded-lg bg-persimmon p-3 text-xl font-bold text-white">{t("holds.onHold", { reason: lot.hold.reason })}</p> : null}
       <dl className="grid grid-cols-[auto_1fr] gap-x-5 gap-y-2 text-xl">
         {rows
           .filter(([, , value]) => value)

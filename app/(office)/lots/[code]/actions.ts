@@ -1,10 +1,17 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
+import { z } from "zod";
+import { normaliseLotCode } from "@/domain/lot-code";
+import { can, canSeeLot } from "@/domain/permissions";
 import { formValues, type FormState } from "@/lib/form-state";
 import { eventSchema } from "@/lib/validation/events";
 import { guardAction } from "@/server/action";
-import { recordEvent } from "@/server/events";
+import { getDb } from "@/server/db";
+import { forbidden, invalid } from "@/server/errors";
+import { lotByCode, recordEvent } from "@/server/events";
+import { releaseLot } from "@/server/hold-lots";
+import { getParty } from "@/server/parties";
 import { requireUser } from "@/server/session";
 
 export async function correctEventAction(_prev: FormState, formData: FormData): Promise<FormState> {
@@ -15,5 +22,55 @@ export async function correctEventAction(_prev: FormState, formData: FormData): 
     recordEvent(actor, input, t);
     revalidatePath(`/lots/${values.code}`);
     return { ok: true, message: t("lotPage.corrected_ok") };
+  });
+}
+
+const shipmentForm = z.object({
+  code: z.string().trim().min(1).max(20),
+  counterpartyId: z.string().trim().min(1).max(64),
+  date: z.iso.date(),
+  quantity: z.coerce.number().finite().positive().max(10_000_000),
+  referenceDoc: z.string().trim().min(1).max(100),
+});
+
+/**
+ * Bottles or bulk sake leaving for a buyer: the shipping step, drawn from the lot (buyers never
+ * hold lots), with the delivery slip the recall lists. Lots for a mill or brewery go by /dispatch.
+ */
+export async function shipToBuyerAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const values = formValues(formData);
+  return guardAction(values, async (t) => {
+    const actor = await requireUser();
+    if (!can(actor, "polishing:record") && !can(actor, "brewing:record")) throw forbidden();
+    const form = shipmentForm.parse(values);
+    const code = normaliseLotCode(form.code);
+    const lot = lotByCode(getDb(), code);
+    if (!lot || !canSeeLot(actor, lot)) throw invalid({ code: [t("validation.unknownLot")] });
+    const buyer = getParty(form.counterpartyId);
+    if (!buyer || buyer.kind !== "buyer") throw invalid({ counterpartyId: [t("errors.notABuyer")] });
+    if (lot.unit === "bottle" && !Number.isInteger(form.quantity)) throw invalid({ quantity: [t("floor.wholeBottles")] });
+    const input = eventSchema.parse({
+      step: "shipping",
+      inputs: [{ lot: code, quantity: form.quantity }],
+      counterpartyId: buyer.id,
+      referenceDoc: form.referenceDoc,
+      at: `${form.date}T12:00:00+09:00`,
+      // The office records on the holder's behalf, as on the dispatch page.
+      partyId: lot.partyId === actor.partyId ? undefined : lot.partyId,
+    });
+    recordEvent(actor, input, t);
+    revalidatePath(`/lots/${code}`);
+    return { ok: true, message: t("shipments.recorded", { quantity: form.quantity, unit: lot.unit, buyer: buyer.name }) };
+  });
+}
+
+/** Releases one held lot, with the reason (audited). */
+export async function releaseLotAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const values = formValues(formData);
+  return guardAction(values, async (t) => {
+    const actor = await requireUser();
+    const { released } = releaseLot(actor, values);
+    revalidatePath(`/lots/${released[0]}`);
+    return { ok: true, message: t("holds.releasedOne", { code: released[0]! }) };
   });
 }

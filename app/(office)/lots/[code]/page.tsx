@@ -15,6 +15,11 @@ import { findLot, findLotId } from "@/server/lots";
 import { requirePageUser } from "@/server/page-guard";
 import { EventTimeline, LineageList } from "./components";
 import { CorrectionForm } from "./correction-form";
+import { HoldSection } from "./hold-section";
+import { ShipmentForm } from "./shipment-form";
+import { lotHoldState } from "@/server/holds";
+import { listParties } from "@/server/parties";
+import { can, canActOnLot, canHoldLots } from "@/domain/permissions";
 
 export async function generateMetadata({ params }: { params: Promise<{ code: string }> }) {
   return { title: normaliseLotCode((await params).code) };
@@ -37,6 +42,10 @@ export default async function LotPage({ params }: { params: Promise<{ code: stri
   const open = history.filter((e) => e.step !== "correcting" && !e.correctedBy);
   const mayCorrect = correctableIds(user, open.map((e) => ({ id: e.id, userId: e.user.id, partyId: e.party.id })));
   const correctable = open.filter((e) => mayCorrect.has(e.id));
+  const holds = lotHoldState(lotId);
+  // Bottles and sake leave for buyers from here; the same rule the shipping step applies.
+  const mayShip = ["sake", "blend", "bottled"].includes(lot.kind) && lot.onHand > 0 && canActOnLot(user, { partyId: lot.party.id }) && (can(user, "brewing:record") || can(user, "polishing:record"));
+  const shipsToBuyers = correctable.some((e) => e.step === "shipping");
 
   return (
     <div className="space-y-8">
@@ -55,6 +64,7 @@ export default async function LotPage({ params }: { params: Promise<{ code: stri
           {t("missedTarget", { target: run.targetPolishingRatioPct ?? 0, margin: run.marginPts ?? 1, achieved: run.achievedPolishingRatioPct ?? 0 })}
         </p>
       ) : null}
+      <HoldSection code={code} hold={holds.hold} history={holds.history} mayRelease={canHoldLots(user)} />
       {lot.kind === "tank" ? <TankPanel tank={tankSummary(user, code)} /> : null}
       {making ? <PolishingFigures attributes={making.attributes} format={format} /> : null}
       <section className="grid gap-6 md:grid-cols-2">
@@ -68,10 +78,19 @@ export default async function LotPage({ params }: { params: Promise<{ code: stri
         <h2 className="mb-3 text-xl font-bold">{t("history")}</h2>
         <EventTimeline events={history} lotCode={code} />
       </section>
+      {mayShip ? (
+        <section className="panel max-w-2xl" aria-labelledby="ship-title">
+          <h2 id="ship-title" className="text-xl font-bold">{(await getTranslations("shipments"))("title")}</h2>
+          <p className="mb-2 text-sm text-ink-soft">{(await getTranslations("shipments"))("intro")}</p>
+          <p className="mb-4 text-sm text-ink-soft">{(await getTranslations("shipments"))("returns")}</p>
+          <ShipmentForm code={code} unit={lot.unit} onHand={lot.onHand} buyers={listParties("buyer").map((p) => ({ id: p.id, name: p.name }))} today={new Date().toISOString().slice(0, 10)} />
+        </section>
+      ) : null}
       {correctable.length ? (
         <section className="panel max-w-2xl">
           <h2 className="text-xl font-bold">{t("correctTitle")}</h2>
           <p className="mb-4 text-sm text-ink-soft">{t("correctIntro")}</p>
+          {shipsToBuyers ? <p className="mb-4 text-sm text-ink-soft">{(await getTranslations("shipments"))("returns")}</p> : null}
           <CorrectionForm code={code} events={correctable.map((e) => ({ id: e.id, step: e.step, at: e.at }))} />
         </section>
       ) : null}
