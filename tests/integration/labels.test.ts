@@ -5,7 +5,8 @@ import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
 import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as getLabelPng } from "../../app/api/lots/[code]/label.png/route";
 import { POST as postEvent } from "../../app/api/events/route";
-import { buildLabelSheet, MIN_MODULE_MM, pickErrorCorrection, QR_WIDTH_MM } from "@/server/labels";
+import { buildLabelSheet, expandCopies, MIN_MODULE_MM, PAGE_SIZE, paginateLabels, parseCopies, pickErrorCorrection, printedRatioPct, QR_WIDTH_MM } from "@/server/labels";
+import { getSqlite } from "@/server/db";
 import type { SessionUser } from "@/server/session";
 import { call, jsonRequest, signInAs } from "../support/api";
 
@@ -34,14 +35,14 @@ beforeAll(async () => {
 afterEach(() => vi.stubEnv("GRAINLINE_ORIGIN", ""));
 
 describe("GET /api/lots/{code}/label.png", () => {
-  it("is a PNG that an independent decoder (jsQR) reads as the lot's page URL", async () => {
+  it("is a PNG that an independent decoder (jsQR) reads as the lot's label route", async () => {
     const res = await labelPng(grower, code);
     expect(res.status).toBe(200);
     expect(res.headers.get("content-type")).toBe("image/png");
     expect(res.headers.get("cache-control")).toMatch(/^private\b/);
     const image = await decodePng(res);
     const decoded = jsQR(image.data, image.width, image.height);
-    expect(decoded?.data).toBe(`http://localhost:3000/lots/${code}`);
+    expect(decoded?.data).toBe(`http://localhost:3000/l/${code}`);
   });
 
   it("follows ISO/IEC 18004 geometry: 4-module quiet zone, 17 + 4·version modules across, format info at M or stronger", async () => {
@@ -60,13 +61,13 @@ describe("GET /api/lots/{code}/label.png", () => {
     // A short URL fits at Q on a 33 mm sheet label: (17 + 4·v + 8) modules of at least 0.396 mm.
     expect(format.level).toBe("Q");
     expect(QR_WIDTH_MM.sheet / (symbol.size + 8)).toBeGreaterThanOrEqual(MIN_MODULE_MM);
-    expect(QRCode.create(`http://localhost:3000/lots/${code}`, { errorCorrectionLevel: format.level }).version).toBe(version);
+    expect(QRCode.create(`http://localhost:3000/l/${code}`, { errorCorrectionLevel: format.level }).version).toBe(version);
   });
 
   it("uses GRAINLINE_ORIGIN when it is set, without a doubled slash", async () => {
     vi.stubEnv("GRAINLINE_ORIGIN", "https://labels.example/");
     const image = await decodePng(await labelPng(grower, code));
-    expect(jsQR(image.data, image.width, image.height)?.data).toBe(`https://labels.example/lots/${code}`);
+    expect(jsQR(image.data, image.width, image.height)?.data).toBe(`https://labels.example/l/${code}`);
   });
 
   it("serves the office, and the mill once it holds the lot", async () => {
@@ -103,10 +104,10 @@ describe("label sheet", () => {
     expect(sheet.notFound).toEqual(["H26-9999"]);
     expect(sheet.labels).toHaveLength(1);
     const [label] = sheet.labels;
-    expect(label).toMatchObject({ code: own, kind: "harvest", variety: "Yamada Nishiki", cropYear: 2026, quantity: 600, unit: "kg", holder: expect.any(String), url: `https://g.example/lots/${own}` });
+    expect(label).toMatchObject({ code: own, kind: "harvest", variety: "Yamada Nishiki", cropYear: 2026, quantity: 600, unit: "kg", holder: expect.any(String), url: `https://g.example/l/${own}` });
     const image = rasteriseQrSvg(label!.svg, 6);
     const decoded = jsQR(image.data, image.width, image.height);
-    expect(decoded?.data).toBe(`https://g.example/lots/${own}`);
+    expect(decoded?.data).toBe(`https://g.example/l/${own}`);
     const symbol = matrixOf(image);
     expect(symbol.quietZoneModules).toBe(4);
     expect(symbol.size).toBe(17 + 4 * decoded!.version);
@@ -122,6 +123,36 @@ describe("label sheet", () => {
   it("refuses more than 200 codes", async () => {
     const codes = Array.from({ length: 201 }, (_, i) => `H26-${String(i).padStart(4, "0")}`);
     expect(await buildLabelSheet(ikeda, codes, "sheet", "https://g.example")).toEqual({ status: "too-many", layout: "sheet", count: 201, max: 200 });
+  });
+
+  it("prints one label per bag: a harvest's registered bags, a polished lot's 30 kg bags, or the copies asked for", async () => {
+    const own = await harvest(grower); // 600 kg in 10 bags
+    const sheet = await buildLabelSheet(ikeda, [own], "bag", "https://g.example");
+    expect(sheet.status === "ok" && sheet.labels.map((l) => [l.copies, l.bags])).toEqual([[10, "recorded"]]);
+    const brewery: SessionUser = { id: "?", role: "brewer", partyId: "brewery-kirinoha", email: "brewer@example.com", name: "Brewer" };
+    const polished = getSqlite().prepare("select code, quantity_in as kg, polishing_ratio_pct as ratio from lots where kind = 'polished' order by id desc").get() as { code: string; kg: number; ratio: number };
+    const roll = await buildLabelSheet(brewery, [polished.code], "roll", "https://g.example");
+    if (roll.status !== "ok") throw new Error(roll.status);
+    // 30 kg polished-rice bags (common practice, from memory): the last bag part-full.
+    expect(roll.labels[0]).toMatchObject({ copies: Math.ceil(polished.kg / 30), bags: "computed", polishingRatioPct: polished.ratio, mill: "Shirotae Polishing Works" });
+    expect(expandCopies(roll.labels)).toHaveLength(Math.ceil(polished.kg / 30));
+    expect(paginateLabels(expandCopies(roll.labels), "roll")).toHaveLength(Math.ceil(polished.kg / 30));
+    const three = await buildLabelSheet(brewery, [polished.code, own], "sheet", "https://g.example", 3);
+    expect(three.status === "ok" && three.labels.map((l) => l.copies)).toEqual([3, 3]);
+    expect(parseCopies("3")).toBe(3);
+    for (const bad of ["0", "-1", "2.5", "201", "1e3", "", "x"]) expect(parseCopies(bad), bad).toBeNull();
+  });
+
+  it("refuses a print of more than 480 labels", async () => {
+    const brewery: SessionUser = { id: "?", role: "brewer", partyId: "brewery-kirinoha", email: "brewer@example.com", name: "Brewer" };
+    const codes = (getSqlite().prepare("select code from lots order by id limit 3").all() as { code: string }[]).map((r) => r.code);
+    expect(await buildLabelSheet(brewery, codes, "sheet", "https://g.example", 200)).toEqual({ status: "too-many-labels", layout: "sheet", count: 600, max: 480 });
+  });
+
+  it("prints the polishing ratio with the fraction below 1 % dropped (NTA labelling standard, ../shared/references.md)", () => {
+    expect([60.4, 60, 59.99, 35.0].map(printedRatioPct)).toEqual([60, 60, 59, 35]);
+    // Page sizes: A4 (ISO 216, 210 × 297 mm); the 100 × 150 mm label and the 62 mm roll are common practice.
+    expect(PAGE_SIZE).toEqual({ sheet: "A4", bag: "100mm 150mm", roll: "62mm 100mm" });
   });
 
   it("falls back from Q to M only when Q modules would drop below 0.396 mm (GS1 General Specifications §5.12.3.1)", () => {

@@ -6,7 +6,7 @@ import { getSqlite } from "@/server/db";
 // Rice traceability act (MAFF): transaction records are kept at least three years. Grainline
 // keeps them for good: the ledger tables refuse DELETE and UPDATE at the database, and no
 // route offers a removal.
-const LEDGER = ["events", "event_inputs", "event_outputs", "lineage_edges", "measurements", "attachments", "lot_source_deltas", "supplier_contracts", "supplier_entries", "supplier_statements", "supplier_statement_entries", "receipt_requests", "receipt_outcomes"];
+const LEDGER = ["events", "event_inputs", "event_outputs", "lineage_edges", "measurements", "attachments", "lot_source_deltas", "supplier_contracts", "supplier_entries", "supplier_statements", "supplier_statement_entries", "receipt_requests", "receipt_outcomes", "lot_holds"];
 
 describe("retention", () => {
   it("refuses to delete any ledger row, however old", () => {
