@@ -28,6 +28,7 @@ export const OFFICE_NAV: NavItem[] = [
   { href: "/admin/users", label: "users", show: (a) => can(a, "users:manage") },
   { href: "/admin/outbox", label: "outbox", show: (a) => can(a, "outbox:read") },
   { href: "/admin/settings", label: "settings", show: (a) => can(a, "settings:manage") },
+  { href: "/admin/products", label: "products", show: (a) => can(a, "settings:manage") },
 ];
 
 export function navFor(actor: Actor): NavItem[] {

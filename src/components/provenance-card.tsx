@@ -10,6 +10,7 @@ type Show = Partial<Record<"varieties" | "origin" | "growers" | "polishingRatio"
 export async function ProvenanceCard({ p, show = {}, caution = false }: { p: Provenance; show?: Show; caution?: boolean }) {
   const t = await getTranslations("provenance");
   const tc = await getTranslations("caution");
+  const tp = await getTranslations("products");
   const format = await getFormatter();
   const on = (k: keyof Show) => show[k] !== false;
   const pct = (v: number) => format.number(v, { style: "percent", maximumFractionDigits: 1 });
@@ -21,8 +22,17 @@ export async function ProvenanceCard({ p, show = {}, caution = false }: { p: Pro
     </div>
   );
   if (p.shares === 0) return <p className="notice">{t("notRice")}</p>;
+  // The public page names a claimed category only where the records support it; the office sees the claim and a warning.
+  const product = p.product;
+  const claim = product?.category && (caution || product.claimSupported) ? product.category : null;
   return (
     <dl className="panel" data-testid="provenance-card">
+      {product
+        ? row(tp("product"), <>
+            <strong>{product.name}</strong>{claim ? ` · ${claim}` : ""}{product.bottleMl ? ` · ${product.bottleMl} mL` : ""}
+            {caution && !product.claimSupported ? <><br /><span role="alert" className="notice-warn mt-1 block text-ink" data-testid="claim-warning">{tp("claimWarning", { category: product.category })}</span></> : null}
+          </>, "prov-product")
+        : null}
       {on("varieties") ? row(t("varieties"), p.varieties.map((v) => `${v.name} ${pct(v.share)}`).join(" · "), "prov-varieties") : null}
       {on("varieties") && p.cropYears.length ? row(t("cropYears"), p.cropYears.join(", "), "prov-crop-years") : null}
       {on("origin") ? row(t("origin"), <><strong>{p.originStatement}</strong><br /><span className="text-sm text-ink-soft">{t("originHint")}</span></>, "prov-origin") : null}

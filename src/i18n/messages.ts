@@ -8,6 +8,7 @@ import floor from "./messages/en/floor.json";
 import graph from "./messages/en/graph.json";
 import holds from "./messages/en/holds.json";
 import labels from "./messages/en/labels.json";
+import products from "./messages/en/products.json";
 import ledger from "./messages/en/ledger.json";
 import recall from "./messages/en/recall.json";
 import suppliers from "./messages/en/suppliers.json";
@@ -17,7 +18,7 @@ import type { Locale } from "./locale";
  * The English catalogue, kept in one file per area so that work on one area does not
  * touch another's strings. Each file holds top-level namespaces; no two files share one.
  */
-const en = { ...core, ...ledger, ...labels, ...csv, ...attachments, ...brewing, ...floor, ...recall, ...graph, ...holds, ...suppliers };
+const en = { ...core, ...ledger, ...labels, ...csv, ...attachments, ...brewing, ...floor, ...recall, ...graph, ...holds, ...suppliers, ...products };
 
 export type Messages = typeof en;
 const CATALOGUES: Record<Locale, Messages> = { en };

@@ -14,6 +14,7 @@ export type AuditAction =
   | "party.updated"
   | "field.created"
   | "settings.updated"
+  | "product.created"
   | "payment.over-balance"
   | "payment.reversed"
   | "lot.held"

@@ -8,6 +8,7 @@ import { roundPct } from "@/domain/polishing";
 import type { RecordableStep } from "@/domain/steps";
 import type { EventInput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
+import { checkBottlingProduct } from "./bottling-product";
 import { invalid, type FieldErrors } from "./errors";
 import type { LotRow } from "./events";
 import { readSetting } from "./settings";
@@ -130,8 +131,11 @@ export function checkFloorStep(tx: DbOrTx, step: RecordableStep, input: EventInp
       if (!Number.isInteger(count)) fail("outputs.0.quantity", t("floor.wholeBottles"));
       const litres = (count * ml) / 1000;
       if (ml > 0 && Math.abs(litres - (drawn[0] ?? 0)) > 0.001) fail("inputs.0.quantity", t("floor.bottlesNeedLitres", { litres }));
+      const named = held[0] ? checkBottlingProduct(tx, spec, held[0], t, errors) : null;
       if (Object.keys(errors).length) throw invalid(errors);
-      result.attributes = { gtin: spec.gtin, bottleMl: ml, bottles: count, litres };
+      result.attributes = { gtin: spec.gtin, bottleMl: ml, bottles: count, litres, ...named?.attributes };
+      result.outputAttributes = { ...named?.attributes };
+      result.warnings.push(...(named?.warnings ?? []));
       break;
     }
     case "measuring": {

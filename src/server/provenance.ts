@@ -5,6 +5,7 @@ import type { Translate } from "@/lib/validation/field-errors";
 import { ancestorsOfKind, claimsForLot } from "./claims";
 import { getDb } from "./db";
 import { notFound } from "./errors";
+import { productOfLot } from "./products";
 import { sourcesOf, traceHead } from "./trace";
 import type { SessionUser } from "./session";
 
@@ -56,6 +57,7 @@ export function provenanceOf(head: Head, t: Translate, claims: ReturnType<typeof
     polishingRatiosPct: ratios.sort((a, b) => a - b),
     kojiRatioPct: claims?.kojiRatioPct ?? null,
     categories: claims ? claims.categories.filter((c) => c.eligible).map((c) => c.name) : [],
+    product: productOfLot(head.id, claims ? claims.categories.filter((c) => c.eligible).map((c) => c.name) : null),
     ...keyDates(head.id),
     shares: sources.length,
   };

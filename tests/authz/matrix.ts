@@ -166,6 +166,7 @@ export const PAGES: PageEntry[] = [
   { file: "app/(office)/admin/settings/page.tsx", guard: { by: "permission", permission: "settings:manage" }, expect: PAGE_ADMIN_ONLY },
   { file: "app/(office)/admin/users/page.tsx", guard: { by: "permission", permission: "users:manage" }, expect: PAGE_ADMIN_ONLY },
   { file: "app/(office)/brew-days/[date]/page.tsx", guard: { by: "permission", permission: "records:read-all" }, expect: PAGE_READ_ALL },
+  { file: "app/(office)/admin/products/page.tsx", guard: { by: "permission", permission: "settings:manage" }, expect: PAGE_ADMIN_ONLY },
   { file: "app/(office)/brew-days/page.tsx", guard: { by: "permission", permission: "records:read-all" }, expect: PAGE_READ_ALL },
   { file: "app/(office)/fields/page.tsx", guard: { by: "user", anyOf: ["fields:read-all", "fields:write-own"] }, expect: o("redirect:/sign-in", "ok", "ok", "ok", "403", "ok", "ok") },
   { file: "app/(office)/import/page.tsx", guard: { by: "user", anyOf: ["harvests:record-own", "harvests:record-any", "polishing:record", "brewing:record"], source: ["importKindsFor(user)"] }, expect: o("redirect:/sign-in", "ok", "ok", "ok", "ok", "403", "403") },
@@ -221,6 +222,7 @@ export const ACTIONS: ActionEntry[] = [
   // With no settings stored (the seed stores none) restoring the defaults writes nothing.
   { file: "app/(office)/admin/settings/actions.ts", name: "restoreDefaultsAction", guard: { by: "user", checkedIn: "restoreSettingDefaults" }, form: {}, expect: ADMIN_ONLY },
   { file: "app/(office)/admin/users/actions.ts", name: "inviteUserAction", guard: { by: "permission", permission: "users:manage" }, form: {}, expect: ADMIN_ONLY_WRITE },
+  { file: "app/(office)/admin/products/actions.ts", name: "createProductAction", guard: { by: "user", checkedIn: "createProduct" }, form: {}, expect: ADMIN_ONLY_WRITE },
   { file: "app/(office)/fields/actions.ts", name: "createFieldAction", guard: { by: "user", checkedIn: "createField" }, form: {}, expect: o("401", "422", "403", "422", "403", "403", "403") },
   { file: "app/(office)/fields/actions.ts", name: "registerHarvestAction", guard: { by: "user", checkedIn: "registerHarvest" }, form: {}, expect: o("401", "422", "403", "422", "403", "403", "403") },
   { file: "app/(office)/lots/[code]/actions.ts", name: "correctEventAction", guard: { by: "user", checkedIn: "recordEvent" }, form: {}, expect: o("401", "422", "422", "422", "422", "422", "422") },

@@ -11,6 +11,7 @@ import { outbox } from "@/db/schema";
 import { translator } from "@/i18n/messages";
 import { getDb, getSqlite } from "@/server/db";
 import { SETTING_DEFAULTS } from "@/server/settings";
+import { gtinCheckDigit } from "@/domain/gtin";
 import { POST as eventsRoute } from "../../app/api/events/route";
 import { POST as harvestsRoute } from "../../app/api/harvests/route";
 import { POST as paymentsRoute } from "../../app/api/suppliers/[partyId]/payments/route";
@@ -47,6 +48,13 @@ function settingsForm(): Record<string, string> {
   return form;
 }
 
+/** GTIN-13s 9500000000001… with their check digits (GS1 General Specifications §7.9), one per call. */
+let probeGtins = 0;
+function nextProbeGtin(): string {
+  const body = `950${String(++probeGtins).padStart(9, "0")}`;
+  return body + gtinCheckDigit(body);
+}
+
 /** `mayChange`: tables a refusal may still write (a failed sign-in is counted, to throttle the next). */
 type Case = { file: string; name: string; who: Who; base: () => Record<string, string>; mayChange?: string[] };
 const CASES: Case[] = [
@@ -57,6 +65,8 @@ const CASES: Case[] = [
   { file: "app/(office)/admin/parties/actions.ts", name: "updatePartyAction", who: "admin", base: () => ({ id: "grower-coop", kind: "grower", name: "Upper Asagiri Growers' Cooperative", address: "Asagiri Valley", region: "Okayama", email: "", phone: "", namedPublicly: "on" }) },
   { file: "app/(office)/admin/settings/actions.ts", name: "saveSettingsAction", who: "admin", base: settingsForm },
   { file: "app/(office)/admin/settings/actions.ts", name: "restoreDefaultsAction", who: "admin", base: () => ({}) },
+  // A fresh GTIN each run (a registered one is refused as taken): GS1 prefix 950 is GS1's own example range.
+  { file: "app/(office)/admin/products/actions.ts", name: "createProductAction", who: "admin", base: () => ({ name: "Probe Junmai", category: "junmai", bottleMl: "720", gtin: nextProbeGtin() }) },
   { file: "app/(office)/admin/users/actions.ts", name: "inviteUserAction", who: "admin", base: () => ({ name: "Probe Invitee", email: "probe.action@example.org", role: "grower", partyId: "grower-coop" }) },
   { file: "app/(office)/fields/actions.ts", name: "createFieldAction", who: "grower", base: () => ({ name: "Probe Paddy", region: "Hyogo", areaHa: "1.5", latitude: "", longitude: "", growerId: "" }) },
   { file: "app/(office)/fields/actions.ts", name: "registerHarvestAction", who: "grower", base: () => ({ fieldId: "field-ikeda-terrace", variety: "Yamada Nishiki", cropYear: "2026", brownKg: "600", moisturePct: "14.8", grade: "1", bags: "10" }) },

@@ -128,17 +128,17 @@ const ACTIONS: Record<FloorAction, { fields: Field[]; defaults: (lot: ApiLot) =>
     build: (v, lot) => ({ step: "blending", inputs: [{ lot: lot.code, quantity: n(v.thisL) }, { lot: code(v.otherCode), quantity: n(v.otherL) }], outputs: [{ kind: "blend", quantity: Number.isFinite(n(v.blendL)) ? n(v.blendL) : sum(n(v.thisL), n(v.otherL)) }] }),
   },
   bottle: {
-    fields: [{ name: "bottleMl", type: "select", options: [...BOTTLE_SIZES_ML.map(String), "custom"] }, { name: "customMl", type: "number", show: (v) => v.bottleMl === "custom" }, { name: "count", type: "number" }, { name: "gtin", type: "text" }],
+    fields: [{ name: "product", type: "select", options: [] }, { name: "bottleMl", type: "select", options: [...BOTTLE_SIZES_ML.map(String), "custom"] }, { name: "customMl", type: "number", show: (v) => v.bottleMl === "custom" }, { name: "count", type: "number" }, { name: "gtin", type: "text" }],
     defaults: () => ({ bottleMl: "720" }),
     build: (v, lot) => {
       const ml = v.bottleMl === "custom" ? n(v.customMl) : n(v.bottleMl);
       const count = n(v.count);
-      return { step: "bottling", inputs: [{ lot: lot.code, quantity: Math.round(count * ml) / 1000 }], outputs: [{ kind: "bottled", quantity: count, bottleMl: ml, gtin: (v.gtin ?? "").replace(/\s/g, "") }] };
+      return { step: "bottling", inputs: [{ lot: lot.code, quantity: Math.round(count * ml) / 1000 }], outputs: [{ kind: "bottled", quantity: count, bottleMl: ml, gtin: (v.gtin ?? "").replace(/\s/g, ""), ...(v.product ? { product: Number(v.product) } : {}) }] };
     },
   },
 };
 
-export function FloorActionForm({ action, lot, bands, userId, queuedId }: { action: FloorAction; lot: ApiLot; bands: Bands; userId?: string; queuedId?: string }) {
+export function FloorActionForm({ action, lot, bands, userId, queuedId, products = [] }: { action: FloorAction; lot: ApiLot; bands: Bands; userId?: string; queuedId?: string; products?: BottleProduct[] }) {
   const t = useTranslations("floorForms");
   const translate = useTranslations();
   const def = ACTIONS[action];
@@ -148,7 +148,7 @@ export function FloorActionForm({ action, lot, bands, userId, queuedId }: { acti
   const [result, setResult] = useState<Result | null>(null);
   const [problem, setProblem] = useState<{ message: string; fields: Record<string, string[]> } | null>(null);
   const set = (name: string, value: string) => setValues((v) => ({ ...v, [name]: value }));
-  const shown = def.fields.filter((f) => !f.show || f.show(values));
+  const shown = withProducts(def.fields, products).filter((f) => !f.show || f.show(values));
   const checked = [...shown, ...shown.flatMap((f) => (f.bags ? moreBagFields(values, f.name, f.bags) : []))];
   const owners = useMemo(() => fieldPaths((v) => def.build(v, lot), values, checked), [values, def, lot]); // eslint-disable-line react-hooks/exhaustive-deps
   const required = useMemo(() => requiredFields((v) => def.build(v, lot), values, checked), [values, def, lot]); // eslint-disable-line react-hooks/exhaustive-deps
@@ -219,8 +219,8 @@ export function FloorActionForm({ action, lot, bands, userId, queuedId }: { acti
             field={f}
             label={t(`${action}.${f.name}`)}
             value={values[f.name] ?? ""}
-            onChange={(v) => set(f.name, v)}
-            optionLabel={(o) => t(`options.${o}`)}
+            onChange={(v) => (f.name === "product" ? setValues((old) => pickProduct(old, products, v)) : set(f.name, v))}
+            optionLabel={(o) => productLabel(products, o, t("bottle.productChoose")) ?? t(`options.${o}`)}
             required={required.has(f.name)}
             errors={byField[f.name]}
             taken={f.bags ? bagCodes(values, f.name) : undefined}
@@ -233,6 +233,27 @@ export function FloorActionForm({ action, lot, bands, userId, queuedId }: { acti
       <button type="submit" className="btn min-h-16 w-full text-2xl" disabled={pending}>{t(`${action}.submit`)}</button>
     </form>
   );
+}
+
+/** A product of the register, as the bottling form offers it. */
+export type BottleProduct = { id: number; name: string; category: string; bottleMl: number; gtin: string };
+
+/** The product select appears once the register has products; picking one fills its size and GTIN. */
+function withProducts(fields: Field[], products: BottleProduct[]): Field[] {
+  return fields.flatMap((f) => (f.name !== "product" ? [f] : products.length ? [{ ...f, options: ["", ...products.map((p) => String(p.id))] }] : []));
+}
+
+function productLabel(products: BottleProduct[], id: string, choose: string): string | null {
+  if (id === "") return products.length ? choose : null;
+  const p = products.find((x) => String(x.id) === id);
+  return p ? `${p.name}${p.category ? ` · ${p.category}` : ""} · ${p.bottleMl} mL` : null;
+}
+
+function pickProduct(values: V, products: BottleProduct[], id: string): V {
+  const p = products.find((x) => String(x.id) === id);
+  if (!p) return { ...values, product: "" };
+  const listed = (BOTTLE_SIZES_ML as readonly number[]).includes(p.bottleMl);
+  return { ...values, product: id, bottleMl: listed ? String(p.bottleMl) : "custom", customMl: String(p.bottleMl), gtin: p.gtin };
 }
 
 function LotLine({ lot }: { lot: ApiLot }) {

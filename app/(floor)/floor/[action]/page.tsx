@@ -6,6 +6,7 @@ import { FLOOR_ACTIONS, type FloorAction } from "@/domain/floor-actions";
 import { normaliseLotCode } from "@/domain/lot-code";
 import { getDb } from "@/server/db";
 import { findLot } from "@/server/lots";
+import { listProducts } from "@/server/products";
 import { requirePagePermission } from "@/server/page-guard";
 import { readSetting } from "@/server/settings";
 import { FloorActionForm } from "./components";
@@ -35,7 +36,7 @@ export default async function FloorActionPage({ params, searchParams }: { params
       <h1 className="text-3xl font-bold">{t(`floorForms.${action}.title`)}</h1>
       {caution ? <Caution kind={caution} /> : null}
       {lot ? (
-        <FloorActionForm action={action as FloorAction} lot={lot} bands={bands} userId={user.id} queuedId={typeof query.queued === "string" ? query.queued : undefined} />
+        <FloorActionForm action={action as FloorAction} lot={lot} bands={bands} userId={user.id} queuedId={typeof query.queued === "string" ? query.queued : undefined} products={action === "bottle" ? listProducts() : []} />
       ) : (
         <p role="alert" className="notice-warn text-ink">{code ? t("lookup.notFound", { code }) : t("floorForms.scanFirst")}</p>
       )}

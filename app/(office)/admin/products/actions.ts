@@ -1,0 +1,17 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { formValues, type FormState } from "@/lib/form-state";
+import { guardAction } from "@/server/action";
+import { createProduct } from "@/server/products";
+import { requireUser } from "@/server/session";
+
+export async function createProductAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const values = formValues(formData);
+  return guardAction(values, async (t) => {
+    // createProduct checks settings:manage itself.
+    createProduct(await requireUser(), values, t);
+    revalidatePath("/admin/products");
+    return { ok: true, message: t("products.saved") };
+  });
+}
