@@ -24,10 +24,10 @@ export const OFFICE_NAV: NavItem[] = [
   { href: "/recall", label: "recall", show: (a) => can(a, "provenance:read") || can(a, "records:read-all") },
   { href: "/brew-days", label: "brewDays", show: (a) => can(a, "records:read-all") },
   { href: "/records", label: "records", show: (a) => can(a, "audit:read") },
-  { href: "/admin/parties", label: "parties", show: (a) => can(a, "parties:manage") },
-  { href: "/admin/users", label: "users", show: (a) => can(a, "users:manage") },
+  { href: "/admin/parties", label: "parties", show: (a) => can(a, "setup:read") },
+  { href: "/admin/users", label: "users", show: (a) => can(a, "setup:read") },
   { href: "/admin/outbox", label: "outbox", show: (a) => can(a, "outbox:read") },
-  { href: "/admin/settings", label: "settings", show: (a) => can(a, "settings:manage") },
+  { href: "/admin/settings", label: "settings", show: (a) => can(a, "setup:read") },
   { href: "/admin/products", label: "products", show: (a) => can(a, "settings:manage") },
 ];
 

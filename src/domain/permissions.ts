@@ -26,6 +26,8 @@ export const PERMISSIONS = [
   "records:correct",
   "settings:manage",
   "attachments:add",
+  // Reading the office set-up (settings, users, parties) without changing it: the admin and the auditor.
+  "setup:read",
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
@@ -48,12 +50,13 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
     "records:correct",
     "settings:manage",
     "attachments:add",
+    "setup:read",
   ],
   brewer: ["fields:read-all", "brewing:record", "provenance:read", "records:read-all", "attachments:add"],
   grower: ["fields:write-own", "harvests:record-own", "harvests:dispatch-own", "ledger:read-own", "attachments:add"],
   miller: ["polishing:record", "ledger:read-own", "attachments:add"],
   sales: ["fields:read-all", "provenance:read", "records:read-all"],
-  auditor: ["audit:read", "fields:read-all", "provenance:read", "records:read-all", "ledger:read-all"],
+  auditor: ["audit:read", "fields:read-all", "provenance:read", "records:read-all", "ledger:read-all", "setup:read"],
 };
 
 export type Actor = { id: string; role: Role; partyId: string };

@@ -54,12 +54,12 @@ export async function signOut(sessionId: string, userId: string) {
 
 export function listUsers() {
   return getDb()
-    .select({ id: users.id, email: users.email, name: users.name, role: users.role, partyId: users.partyId, partyName: parties.name, passwordHash: users.passwordHash, createdAt: users.createdAt })
+    .select({ id: users.id, email: users.email, name: users.name, role: users.role, partyId: users.partyId, partyName: parties.name, partyKind: parties.kind, passwordHash: users.passwordHash, disabledAt: users.disabledAt, createdAt: users.createdAt })
     .from(users)
     .innerJoin(parties, eq(parties.id, users.partyId))
     .orderBy(asc(users.name))
     .all()
-    .map(({ passwordHash, ...u }) => ({ ...u, status: passwordHash ? ("active" as const) : ("invited" as const) }));
+    .map(({ passwordHash, disabledAt, ...u }) => ({ ...u, status: disabledAt ? ("deactivated" as const) : passwordHash ? ("active" as const) : ("invited" as const) }));
 }
 
 /** Creates the user without a password and e-mails a single-use link to set one. */

@@ -149,6 +149,7 @@ const PAGE_SIGNED_IN = o("redirect:/sign-in", "ok", "ok", "ok", "ok", "ok", "ok"
 const PAGE_ADMIN_ONLY = o("redirect:/sign-in", "ok", "403", "403", "403", "403", "403");
 const PAGE_BREWING = o("redirect:/sign-in", "ok", "ok", "403", "403", "403", "403");
 const PAGE_READ_ALL = o("redirect:/sign-in", "ok", "ok", "403", "403", "ok", "ok");
+const PAGE_SETUP_READERS = o("redirect:/sign-in", "ok", "403", "403", "403", "403", "ok");
 const PAGE_OWN_LOTS = o("redirect:/sign-in", "ok", "ok", "404-if-not-own", "404-if-not-own", "ok", "ok");
 const PUBLIC = o("ok", "ok", "ok", "ok", "ok", "ok", "ok");
 
@@ -161,10 +162,11 @@ export const PAGES: PageEntry[] = [
   { file: "app/(floor)/scan/page.tsx", guard: { by: "permission", permission: "brewing:record" }, expect: PAGE_BREWING },
   { file: "app/(office)/admin/outbox/[id]/page.tsx", guard: { by: "permission", permission: "outbox:read" }, expect: PAGE_ADMIN_ONLY },
   { file: "app/(office)/admin/outbox/page.tsx", guard: { by: "permission", permission: "outbox:read" }, expect: PAGE_ADMIN_ONLY },
-  { file: "app/(office)/admin/parties/[id]/page.tsx", guard: { by: "permission", permission: "parties:manage" }, expect: PAGE_ADMIN_ONLY },
-  { file: "app/(office)/admin/parties/page.tsx", guard: { by: "permission", permission: "parties:manage" }, expect: PAGE_ADMIN_ONLY },
-  { file: "app/(office)/admin/settings/page.tsx", guard: { by: "permission", permission: "settings:manage" }, expect: PAGE_ADMIN_ONLY },
-  { file: "app/(office)/admin/users/page.tsx", guard: { by: "permission", permission: "users:manage" }, expect: PAGE_ADMIN_ONLY },
+  // The auditor reads the office set-up; the forms on these pages show only to the admin.
+  { file: "app/(office)/admin/parties/[id]/page.tsx", guard: { by: "permission", permission: "setup:read" }, expect: PAGE_SETUP_READERS },
+  { file: "app/(office)/admin/parties/page.tsx", guard: { by: "permission", permission: "setup:read" }, expect: PAGE_SETUP_READERS },
+  { file: "app/(office)/admin/settings/page.tsx", guard: { by: "permission", permission: "setup:read" }, expect: PAGE_SETUP_READERS },
+  { file: "app/(office)/admin/users/page.tsx", guard: { by: "permission", permission: "setup:read" }, expect: PAGE_SETUP_READERS },
   { file: "app/(office)/brew-days/[date]/page.tsx", guard: { by: "permission", permission: "records:read-all" }, expect: PAGE_READ_ALL },
   { file: "app/(office)/admin/products/page.tsx", guard: { by: "permission", permission: "settings:manage" }, expect: PAGE_ADMIN_ONLY },
   { file: "app/(office)/brew-days/page.tsx", guard: { by: "permission", permission: "records:read-all" }, expect: PAGE_READ_ALL },
@@ -222,6 +224,9 @@ export const ACTIONS: ActionEntry[] = [
   // With no settings stored (the seed stores none) restoring the defaults writes nothing.
   { file: "app/(office)/admin/settings/actions.ts", name: "restoreDefaultsAction", guard: { by: "user", checkedIn: "restoreSettingDefaults" }, form: {}, expect: ADMIN_ONLY },
   { file: "app/(office)/admin/users/actions.ts", name: "inviteUserAction", guard: { by: "permission", permission: "users:manage" }, form: {}, expect: ADMIN_ONLY_WRITE },
+  { file: "app/(office)/admin/users/actions.ts", name: "deactivateUserAction", guard: { by: "permission", permission: "users:manage" }, form: {}, expect: ADMIN_ONLY_WRITE },
+  { file: "app/(office)/admin/users/actions.ts", name: "reactivateUserAction", guard: { by: "permission", permission: "users:manage" }, form: {}, expect: ADMIN_ONLY_WRITE },
+  { file: "app/(office)/admin/users/actions.ts", name: "changeRoleAction", guard: { by: "permission", permission: "users:manage" }, form: {}, expect: ADMIN_ONLY_WRITE },
   { file: "app/(office)/admin/products/actions.ts", name: "createProductAction", guard: { by: "user", checkedIn: "createProduct" }, form: {}, expect: ADMIN_ONLY_WRITE },
   { file: "app/(office)/fields/actions.ts", name: "createFieldAction", guard: { by: "user", checkedIn: "createField" }, form: {}, expect: o("401", "422", "403", "422", "403", "403", "403") },
   { file: "app/(office)/fields/actions.ts", name: "registerHarvestAction", guard: { by: "user", checkedIn: "registerHarvest" }, form: {}, expect: o("401", "422", "403", "422", "403", "403", "403") },

@@ -68,6 +68,10 @@ const CASES: Case[] = [
   // A fresh GTIN each run (a registered one is refused as taken): GS1 prefix 950 is GS1's own example range.
   { file: "app/(office)/admin/products/actions.ts", name: "createProductAction", who: "admin", base: () => ({ name: "Probe Junmai", category: "junmai", bottleMl: "720", gtin: nextProbeGtin() }) },
   { file: "app/(office)/admin/users/actions.ts", name: "inviteUserAction", who: "admin", base: () => ({ name: "Probe Invitee", email: "probe.action@example.org", role: "grower", partyId: "grower-coop" }) },
+  // The demo sales user: no other case here signs in as sales.
+  { file: "app/(office)/admin/users/actions.ts", name: "deactivateUserAction", who: "admin", base: () => ({ userId: "user-sales" }) },
+  { file: "app/(office)/admin/users/actions.ts", name: "reactivateUserAction", who: "admin", base: () => ({ userId: "user-sales" }) },
+  { file: "app/(office)/admin/users/actions.ts", name: "changeRoleAction", who: "admin", base: () => ({ userId: "user-sales", role: "brewer" }) },
   { file: "app/(office)/fields/actions.ts", name: "createFieldAction", who: "grower", base: () => ({ name: "Probe Paddy", region: "Hyogo", areaHa: "1.5", latitude: "", longitude: "", growerId: "" }) },
   { file: "app/(office)/fields/actions.ts", name: "registerHarvestAction", who: "grower", base: () => ({ fieldId: "field-ikeda-terrace", variety: "Yamada Nishiki", cropYear: "2026", brownKg: "600", moisturePct: "14.8", grade: "1", bags: "10" }) },
   { file: "app/(office)/lots/[code]/actions.ts", name: "correctEventAction", who: "admin", base: () => ({ corrects: prepared.eventId, reason: "Probe: the reading was taken on the wrong lot" }) },

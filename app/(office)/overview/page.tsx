@@ -1,6 +1,6 @@
 import { getTranslations } from "next-intl/server";
 import { AuditTable } from "@/components/audit-table";
-import { listAudit } from "@/server/audit";
+import { auditRecord, renderAudit } from "@/server/audit-record";
 import { overviewCounts } from "@/server/overview";
 import { requirePagePermission } from "@/server/page-guard";
 import { PageHeader } from "@/components/page-header";
@@ -12,6 +12,7 @@ export async function generateMetadata() {
 export default async function OverviewPage() {
   await requirePagePermission("users:manage");
   const t = await getTranslations("home");
+  const all = await getTranslations();
   const counts = overviewCounts();
   return (
     <div className="space-y-8">
@@ -26,7 +27,7 @@ export default async function OverviewPage() {
       </dl>
       <section>
         <h2 className="mb-3 text-xl font-bold">{t("recentActivity")}</h2>
-        <AuditTable rows={listAudit(50)} pageSize={10} />
+        <AuditTable rows={renderAudit(auditRecord(50), all)} pageSize={10} />
       </section>
     </div>
   );

@@ -1,6 +1,6 @@
 import { getTranslations } from "next-intl/server";
 import { AuditTable } from "@/components/audit-table";
-import { listAudit } from "@/server/audit";
+import { auditRecord, renderAudit } from "@/server/audit-record";
 import { requirePagePermission } from "@/server/page-guard";
 import { PageHeader } from "@/components/page-header";
 
@@ -14,7 +14,7 @@ export default async function RecordsPage() {
   return (
     <div className="space-y-6">
       <PageHeader title={t("home.recordsTitle")} intro={t("home.recordsIntro")} />
-      <AuditTable rows={listAudit(2000)} />
+      <AuditTable rows={renderAudit(auditRecord(2000), t)} />
       <p className="notice text-sm">{t("caution.records")}</p>
     </div>
   );

@@ -26,3 +26,7 @@ export const inviteSchema = z.object({
   partyId: z.string().min(1).max(64),
 });
 export type InviteInput = z.infer<typeof inviteSchema>;
+
+/** A user the admin acts on from the users table (deactivate, reactivate). */
+export const userRefSchema = z.object({ userId: z.string().min(1).max(64) });
+export const roleChangeSchema = userRefSchema.extend({ role: z.enum(ROLES) });

@@ -1,4 +1,5 @@
 import { getTranslations } from "next-intl/server";
+import { can } from "@/domain/permissions";
 import { listParties } from "@/server/parties";
 import { requirePagePermission } from "@/server/page-guard";
 import { PartiesTable, PartyForm } from "./components";
@@ -8,18 +9,21 @@ export async function generateMetadata() {
   return { title: (await getTranslations("parties"))("title") };
 }
 
+/** The admin manages parties here; the auditor reads the same list with no form on it. */
 export default async function PartiesPage() {
-  await requirePagePermission("parties:manage");
+  const user = await requirePagePermission("setup:read");
   const t = await getTranslations("parties");
   const rows = listParties().map(({ id, kind, name, region, email, namedPublicly }) => ({ id, kind, name, region, email, namedPublicly }));
   return (
     <div className="space-y-8">
       <PageHeader title={t("title")} intro={t("intro")} />
       <PartiesTable rows={rows} />
-      <section className="panel">
-        <h2 className="mb-4 text-xl font-bold">{t("new")}</h2>
-        <PartyForm />
-      </section>
+      {can(user, "parties:manage") ? (
+        <section className="panel">
+          <h2 className="mb-4 text-xl font-bold">{t("new")}</h2>
+          <PartyForm />
+        </section>
+      ) : null}
     </div>
   );
 }

@@ -2,6 +2,8 @@ import { getFormatter, getTranslations } from "next-intl/server";
 import { requirePagePermission } from "@/server/page-guard";
 import { lastSettingsChange, readSettings, SETTING_DEFAULTS } from "@/server/settings";
 import { RestoreDefaultsForm, SettingsForm } from "./components";
+import { can } from "@/domain/permissions";
+import { ReadOnlySettings } from "./settings-view";
 import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
@@ -9,7 +11,9 @@ export async function generateMetadata() {
 }
 
 export default async function SettingsPage() {
-  await requirePagePermission("settings:manage");
+  // The auditor reads the settings; only who may manage them gets the forms.
+  const user = await requirePagePermission("setup:read");
+  if (!can(user, "settings:manage")) return <ReadOnlySettings />;
   const t = await getTranslations("settingsPage");
   const format = await getFormatter();
   const current = readSettings();
