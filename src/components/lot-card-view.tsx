@@ -8,6 +8,9 @@ export async function LotCardView({ lot, dark }: { lot: ApiLot; dark?: boolean }
     [t("kind"), t(`kinds.${lot.kind}`)],
     [t("onHand"), `${format.number(lot.onHand, { maximumFractionDigits: 1 })} ${lot.unit}`],
     [t("variety"), lot.variety ?? null],
+    // A polished mix keeps each variety with its share of the rice.
+    [t("varieties"), varietiesOf(lot, (n) => format.number(n, { style: "percent", maximumFractionDigits: 1 }))],
+    [t("tank"), typeof lot.attributes.tankName === "string" ? lot.attributes.tankName : null],
     [t("cropYear"), lot.cropYear ? String(lot.cropYear) : null],
     [t("grade"), lot.grade ? t(`grades.${lot.grade}`) : null],
     [t("polishingRatio"), lot.polishingRatioPct != null ? `${format.number(lot.polishingRatioPct, { maximumFractionDigits: 1 })} %` : null],
@@ -28,4 +31,9 @@ export async function LotCardView({ lot, dark }: { lot: ApiLot; dark?: boolean }
       </dl>
     </article>
   );
+}
+
+function varietiesOf(lot: ApiLot, pct: (n: number) => string): string | null {
+  const mix = lot.attributes.varieties as { variety: string; share: number }[] | undefined;
+  return Array.isArray(mix) && mix.length > 1 ? mix.map((v) => `${v.variety} ${pct(v.share)}`).join(", ") : null;
 }

@@ -11,6 +11,7 @@ import labels from "./messages/en/labels.json";
 import products from "./messages/en/products.json";
 import ledger from "./messages/en/ledger.json";
 import recall from "./messages/en/recall.json";
+import registers from "./messages/en/registers.json";
 import suppliers from "./messages/en/suppliers.json";
 import type { Locale } from "./locale";
 
@@ -18,7 +19,7 @@ import type { Locale } from "./locale";
  * The English catalogue, kept in one file per area so that work on one area does not
  * touch another's strings. Each file holds top-level namespaces; no two files share one.
  */
-const en = { ...core, ...ledger, ...labels, ...csv, ...attachments, ...brewing, ...floor, ...recall, ...graph, ...holds, ...suppliers, ...products };
+const en = { ...core, ...ledger, ...labels, ...csv, ...attachments, ...brewing, ...floor, ...recall, ...graph, ...holds, ...suppliers, ...products, ...registers };
 
 export type Messages = typeof en;
 const CATALOGUES: Record<Locale, Messages> = { en };

@@ -161,7 +161,7 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
     if (d.use === "dispatch") tx.update(lots).set({ inTransitTo: counterparty!.id }).where(eq(lots.id, d.lot.id)).run();
   }
 
-  const outputs = writeOutputs(tx, { eventId, at, step, eventParty, draws, outs, polishedRatio: polishing?.achievedPct ?? null, rule: rule.content, carried: floor?.outputAttributes ?? {} });
+  const outputs = writeOutputs(tx, { eventId, at, step, eventParty, draws, outs, polishedRatio: polishing?.achievedPct ?? null, rule: rule.content, carried: { ...polishing?.outputAttributes, ...floor?.outputAttributes } });
   writeMeasurements(tx, eventId, input, held, outputs.lots, t);
   recordSupplierEntries(tx, { eventId, step, eventParty, counterparty, draws, at });
   return { id: eventId, outputs: outputs.summary, warnings };

@@ -12,6 +12,7 @@ import { checkBottlingProduct } from "./bottling-product";
 import { invalid, type FieldErrors } from "./errors";
 import type { LotRow } from "./events";
 import { readSetting } from "./settings";
+import { resolveFirstAdditionTank } from "./tank-register";
 
 type Out = { kind: string; quantity: number; existing: LotRow | null; spec: Record<string, unknown> | null };
 export type FloorCheck = { attributes: Record<string, unknown>; warnings: string[]; outputAttributes: Record<string, unknown> };
@@ -106,6 +107,12 @@ export function checkFloorStep(tx: DbOrTx, step: RecordableStep, input: EventInp
       if (Object.keys(errors).length) throw invalid(errors);
       const byKind = (kind: string) => sum(held.map((l, n) => (l.kind === kind ? drawn[n]! : 0)));
       result.attributes = { addition: input.attributes?.addition ?? null, kojiKg: byKind("koji"), steamedKg: byKind("steamed"), starterKg: byKind("starter"), waterL: m("waterL"), riceKg: dryKg };
+      if (step === "mash-addition" && input.attributes?.addition === "first") {
+        const tank = resolveFirstAdditionTank(tx, outs[0]!.spec ?? {}, t);
+        if (tank) result.outputAttributes = tank;
+        // Common practice: a mash is started from a yeast starter (moto); none is worth a second look.
+        if (!held.some((l) => l.kind === "starter")) result.warnings.push(t("tankRegister.noStarter"));
+      }
       break;
     }
     case "pressing": {

@@ -10,6 +10,7 @@ import { forbidden, invalid } from "./errors";
 import { createOnce, type StoredResponse } from "./idempotency";
 import { allocateLotCode } from "./lot-codes";
 import type { SessionUser } from "./session";
+import { requireListedVariety } from "./variety-list";
 
 /**
  * Registers a harvest lot (an EPCIS commissioning): brown rice from one field, held by its
@@ -28,6 +29,7 @@ export function registerHarvestInTx(tx: DbOrTx, actor: SessionUser, input: Harve
   // Another grower's field answers exactly as a field that does not exist.
   if (!field || !canReadFieldsOf(actor, field.growerId)) throw invalid({ fieldId: [t("validation.unknownField")] });
   if (!canRecordOnField(actor, field)) throw forbidden("errors.notYourField");
+  const variety = requireListedVariety(tx, input.variety, t);
   const at = input.at ? new Date(input.at) : new Date();
   const eventId = tx
     .insert(events)
@@ -43,7 +45,7 @@ export function registerHarvestInTx(tx: DbOrTx, actor: SessionUser, input: Harve
       partyId: field.growerId,
       originPartyId: field.growerId,
       fieldId: field.id,
-      variety: input.variety,
+      variety,
       cropYear: input.cropYear,
       grade: input.grade,
       moisturePct: input.moisturePct,

@@ -130,7 +130,8 @@ export function listLots(actor: SessionUser, query: LotQuery) {
   const filters = and(
     visibleTo(actor),
     query.kind ? eq(lots.kind, query.kind as never) : undefined,
-    query.q ? like(lots.code, `%${query.q.replace(/[%_]/g, "")}%`) : undefined,
+    // A code, or a tank's name ("Tank 3" finds the tank lots of that tank).
+    query.q ? or(like(lots.code, `%${query.q.replace(/[%_]/g, "")}%`), and(eq(lots.kind, "tank"), sql`lower(json_extract(${lots.attributes}, '$.tankName')) = ${query.q.trim().replace(/\s+/g, " ").toLowerCase()}`)) : undefined,
     query.variety ? eq(lots.variety, query.variety) : undefined,
     query.cropYear ? eq(lots.cropYear, query.cropYear) : undefined,
     query.partyId ? eq(lots.partyId, query.partyId) : undefined,

@@ -7,6 +7,7 @@ import type { EventInput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
 import { applyEvent } from "./events";
 import { registerHarvestInTx } from "./harvests";
+import { seedMasterList } from "./master-lists";
 import type { SessionUser } from "./session";
 
 type Users = Record<"admin" | "grower" | "grower2" | "miller" | "brewer", SessionUser>;
@@ -44,15 +45,20 @@ export function seedBrewSeason(tx: DbOrTx, u: Users) {
     dispatch(n === 3 ? u.grower2 : n === 2 ? u.admin : u.grower, lot, kg, "mill-shirotae", `DS-2024-0${n}`, `2024-10-1${n}T10:00:00+09:00`, n === 2 ? "grower-coop" : undefined);
     rec(u.miller, { step: "receiving", at: `2024-10-1${n}T10:00:00+09:00`, inputs: [{ lot, quantity: kg }], referenceDoc: `DS-2024-0${n}`, place: "Shirotae mill yard" });
   }
-  const polish = (date: string, inputs: [string, number][], out: number, bran: number, target: number) => {
-    const run = rec(u.miller, { step: "polishing", at: `${date}T10:00:00+09:00`, inputs: inputs.map(([lot, quantity]) => ({ lot, quantity })), outputs: [{ kind: "polished", quantity: out }, { kind: "bran", quantity: bran }], measurements: [{ name: "targetPolishingRatioPct", value: target, unit: "%" }] });
+  // A run of two varieties is confirmed as such (the polished lot keeps both with their shares).
+  const polish = (date: string, inputs: [string, number][], out: number, bran: number, target: number, mixed = false) => {
+    const run = rec(u.miller, { step: "polishing", at: `${date}T10:00:00+09:00`, ...(mixed ? { attributes: { mixedVarietiesConfirmed: true } } : {}), inputs: inputs.map(([lot, quantity]) => ({ lot, quantity })), outputs: [{ kind: "polished", quantity: out }, { kind: "bran", quantity: bran }], measurements: [{ name: "targetPolishingRatioPct", value: target, unit: "%" }] });
     const code = first(run);
     dispatch(u.miller, code, out, "brewery-kirinoha", `SH-${code}`, day(date, 6));
     rec(u.brewer, { step: "receiving", at: day(date, 6), inputs: [{ lot: code, quantity: out }], referenceDoc: `SH-${code}`, place: "Kirinoha rice store" });
     return code;
   };
   const p50 = polish("2024-10-28", [[a, 1500], [b, 500]], 1000, 960, 50);
-  const p60 = polish("2024-11-04", [[b, 500], [c, 1800]], 1380, 880, 60);
+  const p60 = polish("2024-11-04", [[b, 500], [c, 1800]], 1380, 880, 60, true);
+  // The tank register (invented locations and sizes); a first addition names its tank from it.
+  const tank = (n: string, name: string, capacityL: number, location: string) => ({ id: `tank-${n}`, name, capacityL, location, active: true });
+  const register = [tank("1", "Tank 1", 3000, "North cellar"), tank("2", "Tank 2", 3000, "North cellar"), tank("3", "Tank 3", 2500, "North cellar"), tank("4", "Tank 4", 4000, "Cold room"), tank("5", "Tank 5", 4000, "Cold room"), tank("6", "Small tank A", 800, "Cold room")];
+  seedMasterList(tx, "tankRegister", register, u.admin.id);
 
   /** One tank from its first soak to pressing, scaled to `rice` kg of polished rice. */
   const brewTank = (polished: string, rice: number, start: string, name: string, ginjo: boolean, alcoholKg: number) => {

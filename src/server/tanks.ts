@@ -1,12 +1,12 @@
 import "server-only";
-import { and, asc, eq, sql } from "drizzle-orm";
+import { and, asc, desc, eq, sql } from "drizzle-orm";
 import { eventOutputs, events, lots } from "@/db/schema";
 import { kojiRatioPct, waterRatioPct } from "@/domain/brewing";
 import { ADDED_ALCOHOL_KG, ADDED_ALCOHOL_STRENGTH_PCT, REFERENCE_ALCOHOL_PCT } from "@/domain/categories";
 import { roundPct } from "@/domain/polishing";
 import { getDb } from "./db";
 import { notFound } from "./errors";
-import { findLotId } from "./lots";
+import { findLot, findLotId, visibleTo } from "./lots";
 import type { SessionUser } from "./session";
 
 /**
@@ -98,3 +98,19 @@ export function tankSummary(actor: SessionUser, code: string) {
   };
 }
 export type TankSummary = ReturnType<typeof tankSummary>;
+
+/**
+ * The tank lot a tank's name stands for, as `actor` may see it: the newest lot of that name still
+ * holding mash, else the newest of that name (just pressed). Names compare without case.
+ */
+export function findTankLotByName(actor: SessionUser, name: string) {
+  const key = name.trim().replace(/\s+/g, " ").toLowerCase();
+  if (!key || key.length > 40) return null;
+  const row = getDb()
+    .select({ code: lots.code })
+    .from(lots)
+    .where(and(eq(lots.kind, "tank"), sql`lower(json_extract(${lots.attributes}, '$.tankName')) = ${key}`, visibleTo(actor)))
+    .orderBy(sql`${lots.onHand} > 0 desc`, desc(lots.id))
+    .get();
+  return row ? findLot(actor, row.code) : null;
+}

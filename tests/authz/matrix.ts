@@ -223,6 +223,9 @@ export const ACTIONS: ActionEntry[] = [
   { file: "app/(office)/admin/settings/actions.ts", name: "saveSettingsAction", guard: { by: "user", checkedIn: "saveSettings" }, form: {}, expect: ADMIN_ONLY_WRITE },
   // With no settings stored (the seed stores none) restoring the defaults writes nothing.
   { file: "app/(office)/admin/settings/actions.ts", name: "restoreDefaultsAction", guard: { by: "user", checkedIn: "restoreSettingDefaults" }, form: {}, expect: ADMIN_ONLY },
+  { file: "app/(office)/admin/settings/actions.ts", name: "saveTankAction", guard: { by: "user", checkedIn: "saveTank" }, form: {}, expect: ADMIN_ONLY_WRITE },
+  { file: "app/(office)/admin/settings/actions.ts", name: "addVarietyAction", guard: { by: "user", checkedIn: "addVariety" }, form: {}, expect: ADMIN_ONLY_WRITE },
+  { file: "app/(office)/admin/settings/actions.ts", name: "removeVarietyAction", guard: { by: "user", checkedIn: "removeVariety" }, form: {}, expect: ADMIN_ONLY_WRITE },
   { file: "app/(office)/admin/users/actions.ts", name: "inviteUserAction", guard: { by: "permission", permission: "users:manage" }, form: {}, expect: ADMIN_ONLY_WRITE },
   { file: "app/(office)/admin/users/actions.ts", name: "deactivateUserAction", guard: { by: "permission", permission: "users:manage" }, form: {}, expect: ADMIN_ONLY_WRITE },
   { file: "app/(office)/admin/users/actions.ts", name: "reactivateUserAction", guard: { by: "permission", permission: "users:manage" }, form: {}, expect: ADMIN_ONLY_WRITE },

@@ -65,6 +65,11 @@ const CASES: Case[] = [
   { file: "app/(office)/admin/parties/actions.ts", name: "updatePartyAction", who: "admin", base: () => ({ id: "grower-coop", kind: "grower", name: "Upper Asagiri Growers' Cooperative", address: "Asagiri Valley", region: "Okayama", email: "", phone: "", namedPublicly: "on" }) },
   { file: "app/(office)/admin/settings/actions.ts", name: "saveSettingsAction", who: "admin", base: settingsForm },
   { file: "app/(office)/admin/settings/actions.ts", name: "restoreDefaultsAction", who: "admin", base: () => ({}) },
+  // A corrupted form that still reads right adds another tank or variety; the rest are refused.
+  { file: "app/(office)/admin/settings/actions.ts", name: "saveTankAction", who: "admin", base: () => ({ id: "", name: "Probe Tank", capacityL: "1500", location: "Annex", active: "on" }) },
+  { file: "app/(office)/admin/settings/actions.ts", name: "addVarietyAction", who: "admin", base: () => ({ name: "Probe Variety", kind: "table" }) },
+  // Once the base form has taken Hitomebore off the list, a corruption that still reads right is refused as not listed.
+  { file: "app/(office)/admin/settings/actions.ts", name: "removeVarietyAction", who: "admin", base: () => ({ name: "Hitomebore" }) },
   // A fresh GTIN each run (a registered one is refused as taken): GS1 prefix 950 is GS1's own example range.
   { file: "app/(office)/admin/products/actions.ts", name: "createProductAction", who: "admin", base: () => ({ name: "Probe Junmai", category: "junmai", bottleMl: "720", gtin: nextProbeGtin() }) },
   { file: "app/(office)/admin/users/actions.ts", name: "inviteUserAction", who: "admin", base: () => ({ name: "Probe Invitee", email: "probe.action@example.org", role: "grower", partyId: "grower-coop" }) },

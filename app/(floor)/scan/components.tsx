@@ -79,8 +79,11 @@ export function ScanScreen({ userId, initial, typed }: { userId: string; initial
           role="search"
           className="space-y-3"
           onSubmit={(event) => {
+            const text = String(new FormData(event.currentTarget).get("code") ?? "");
+            // Not a code but perhaps a tank's name ("Tank 3"): the page looks names up itself.
+            if (text.trim() && !readScanText(text)) return;
             event.preventDefault();
-            read(String(new FormData(event.currentTarget).get("code") ?? ""));
+            read(text);
           }}
         >
           <label className="block">

@@ -2,6 +2,7 @@ import { getTranslations } from "next-intl/server";
 import { readScanText } from "@/lib/scan-text";
 import { findLot } from "@/server/lots";
 import { requirePagePermission } from "@/server/page-guard";
+import { findTankLotByName } from "@/server/tanks";
 import { ScanScreen, type ScanView } from "./components";
 
 export async function generateMetadata() {
@@ -15,13 +16,14 @@ export default async function ScanPage({ searchParams }: { searchParams: Promise
   const raw = (await searchParams).code;
   const typed = (Array.isArray(raw) ? raw[0] : raw)?.trim() ?? "";
   const reading = typed ? readScanText(typed) : null;
-  const lot = reading ? findLot(user, reading.code) : null;
+  // Typed text that is no code may be a tank's name: the tank lot it holds now.
+  const lot = reading ? findLot(user, reading.code) : typed ? findTankLotByName(user, typed) : null;
   const initial: ScanView = !typed
     ? { state: "idle" }
-    : !reading
-      ? { state: "not-ours", text: typed.slice(0, 80) }
-      : lot
-        ? { state: "lot", lot }
+    : lot
+      ? { state: "lot", lot }
+      : !reading
+        ? { state: "not-ours", text: typed.slice(0, 80) }
         : { state: "not-found", code: reading.code };
   return (
     <div className="space-y-6">
@@ -29,7 +31,7 @@ export default async function ScanPage({ searchParams }: { searchParams: Promise
         <h1 className="text-3xl font-bold">{t("title")}</h1>
         <p className="opacity-80">{t("intro")}</p>
       </header>
-      <ScanScreen userId={user.id} initial={initial} typed={reading?.code ?? typed} />
+      <ScanScreen userId={user.id} initial={initial} typed={lot?.code ?? reading?.code ?? typed} />
     </div>
   );
 }

@@ -6,13 +6,12 @@ import { useTranslations } from "next-intl";
 import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
 import { GRADES } from "@/domain/grades";
+import { VARIETY_KINDS, type Variety } from "@/domain/varieties";
 import { initialFormState } from "@/lib/form-state";
 import { registerHarvestAction } from "./actions";
 
-// Brewing-rice varieties offered as suggestions; any other name may be typed.
-const VARIETIES = ["Yamada Nishiki", "Omachi", "Gohyakumangoku", "Miyama Nishiki", "Dewasansan", "Hattan Nishiki"];
-
-export function HarvestForm({ fields, defaultYear }: { fields: { id: string; name: string }[]; defaultYear: number }) {
+/** `varieties`: the brewery's list (Settings → Rice varieties); the server refuses any other name. */
+export function HarvestForm({ fields, defaultYear, varieties }: { fields: { id: string; name: string }[]; defaultYear: number; varieties: Variety[] }) {
   const t = useTranslations();
   const [state, action, pending] = useActionState(registerHarvestAction, initialFormState);
   const v = (k: string, d = "") => (state.ok ? d : (state.values?.[k] ?? d));
@@ -34,8 +33,18 @@ export function HarvestForm({ fields, defaultYear }: { fields: { id: string; nam
         </select>
         {state.fields?.fieldId ? <p className="field-error">{state.fields.fieldId.join(" ")}</p> : null}
       </label>
-      <FormField label={t("harvest.variety")} name="variety" list="varieties" defaultValue={v("variety")} errors={state.fields?.variety} />
-      <datalist id="varieties">{VARIETIES.map((n) => <option key={n} value={n} />)}</datalist>
+      <label>
+        <span className="field-label">{t("harvest.variety")}</span>
+        <select name="variety" className="field-input" defaultValue={v("variety")} aria-invalid={state.fields?.variety ? true : undefined}>
+          <option value="">{t("varietyList.choose")}</option>
+          {VARIETY_KINDS.map((kind) => (
+            <optgroup key={kind} label={t(`varietyList.kinds.${kind}`)}>
+              {varieties.filter((x) => x.kind === kind).map((x) => <option key={x.name} value={x.name}>{x.name}</option>)}
+            </optgroup>
+          ))}
+        </select>
+        {state.fields?.variety ? <p className="field-error">{state.fields.variety.join(" ")}</p> : null}
+      </label>
       <FormField label={t("harvest.cropYear")} name="cropYear" inputMode="numeric" defaultValue={v("cropYear", String(defaultYear))} errors={state.fields?.cropYear} />
       <FormField label={t("harvest.brownKg")} name="brownKg" inputMode="decimal" defaultValue={v("brownKg")} errors={state.fields?.brownKg} />
       <FormField label={t("harvest.moisturePct")} name="moisturePct" inputMode="decimal" defaultValue={v("moisturePct")} errors={state.fields?.moisturePct} aria-describedby="moisture-hint" />

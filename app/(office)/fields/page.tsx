@@ -6,6 +6,7 @@ import { requirePageUser } from "@/server/page-guard";
 import { listLots } from "@/server/lots";
 import { listParties } from "@/server/parties";
 import { LotsTable } from "@/components/lots-table";
+import { readVarietyList } from "@/server/variety-list";
 import { HarvestForm } from "./harvest-form";
 import { FieldForm, FieldsTable } from "./components";
 import { PageHeader } from "@/components/page-header";
@@ -31,7 +32,7 @@ export default async function FieldsPage() {
         <section className="panel">
           <h2 className="text-xl font-bold">{t("harvest.title")}</h2>
           <p className="mb-4 text-sm text-ink-soft">{t("harvest.intro")}</p>
-          <HarvestForm fields={rows.map(({ id, name, growerName }) => ({ id, name: readsAll ? `${growerName} — ${name}` : name }))} defaultYear={new Date().getFullYear()} />
+          <HarvestForm fields={rows.map(({ id, name, growerName }) => ({ id, name: readsAll ? `${growerName} — ${name}` : name }))} defaultYear={new Date().getFullYear()} varieties={readVarietyList()} />
         </section>
       ) : null}
       <section>

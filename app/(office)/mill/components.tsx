@@ -22,6 +22,8 @@ export function PolishingRunForm() {
   const [result, setResult] = useState<Result | null>(null);
   const [pending, setPending] = useState(false);
   const [key, setKey] = useState(() => crypto.randomUUID());
+  // Set once the server has said the lots are of different varieties and the miller ticks the box.
+  const [mixConfirmed, setMixConfirmed] = useState(false);
 
   const submit = async (e: React.FormEvent) => {
     e.preventDefault();
@@ -40,6 +42,7 @@ export function PolishingRunForm() {
       outputs: [{ kind: "polished", quantity: num(f.polished) }, ...(f.bran.trim() ? [{ kind: "bran", quantity: num(f.bran) }] : [])],
       measurements,
       ...(f.note.trim() ? { note: f.note.trim() } : {}),
+      ...(mixConfirmed ? { attributes: { mixedVarietiesConfirmed: true } } : {}),
     };
     const res = await postJson<Result>("/api/events", body, key);
     setPending(false);
@@ -114,11 +117,26 @@ export function PolishingRunForm() {
       {err("outputs")}
       {err("outputs.0.quantity")}
       {err("measurements")}
+      {errors["attributes.mixedVarietiesConfirmed"] || mixConfirmed ? <MixConfirm warning={errors["attributes.mixedVarietiesConfirmed"]} checked={mixConfirmed} onChange={setMixConfirmed} /> : null}
       <label className="block">
         <span className="field-label">{t("note")}</span>
         <input className="field-input" value={f.note} maxLength={2000} onChange={(e) => setF({ ...f, note: e.target.value })} />
       </label>
       <button type="submit" className="btn" disabled={pending}>{t("record")}</button>
     </form>
+  );
+}
+
+/** Two varieties polished together: the server's warning, and the box that confirms the mix. */
+function MixConfirm({ warning, checked, onChange }: { warning?: string[]; checked: boolean; onChange: (v: boolean) => void }) {
+  const t = useTranslations("varietyList");
+  return (
+    <div className="notice-warn space-y-2" data-testid="mix-confirm">
+      {warning?.length ? <p role="alert">{warning.join(" ")}</p> : null}
+      <label className="flex items-center gap-3 font-semibold">
+        <input type="checkbox" className="h-6 w-6" checked={checked} onChange={(e) => onChange(e.target.checked)} />
+        {t("mixCheckbox")}
+      </label>
+    </div>
   );
 }

@@ -78,6 +78,8 @@ const ACTIONS: Record<FloorAction, { fields: Field[]; defaults: (lot: ApiLot) =>
   add: {
     fields: [
       { name: "addition", type: "select", options: ["first", "middle", "final"] },
+      // A register tank is picked by name; with no register yet, a name is typed.
+      { name: "tankId", type: "select", options: [], show: (v) => v.addition === "first" },
       { name: "tankName", type: "text", show: (v) => v.addition === "first" },
       { name: "ginjoMethod", type: "checkbox", show: (v) => v.addition === "first" },
       { name: "specialMethod", type: "checkbox", show: (v) => v.addition === "first" },
@@ -108,7 +110,7 @@ const ACTIONS: Record<FloorAction, { fields: Field[]; defaults: (lot: ApiLot) =>
       ];
       // The mash grows by everything put in: rice, koji, starter and water (1 L ≈ 1 kg).
       const quantity = sum(...inputs.map((i) => i.quantity), n(v.waterL));
-      const output = first ? { kind: "tank", quantity, tankName: v.tankName || undefined, ginjoMethod: v.ginjoMethod === "on", specialMethod: v.specialMethod === "on" } : { lot: code(v.tankCode), quantity };
+      const output = first ? { kind: "tank", quantity, tankId: v.tankId || undefined, tankName: v.tankId ? undefined : v.tankName || undefined, ginjoMethod: v.ginjoMethod === "on", specialMethod: v.specialMethod === "on" } : { lot: code(v.tankCode), quantity };
       return { step: "mash-addition", attributes: { addition: v.addition }, inputs, outputs: [output], measurements: ms("waterL", n(v.waterL), "L") };
     },
   },
@@ -138,7 +140,7 @@ const ACTIONS: Record<FloorAction, { fields: Field[]; defaults: (lot: ApiLot) =>
   },
 };
 
-export function FloorActionForm({ action, lot, bands, userId, queuedId, products = [] }: { action: FloorAction; lot: ApiLot; bands: Bands; userId?: string; queuedId?: string; products?: BottleProduct[] }) {
+export function FloorActionForm({ action, lot, bands, userId, queuedId, tanks = [], products = [] }: { action: FloorAction; lot: ApiLot; bands: Bands; userId?: string; queuedId?: string; tanks?: FreeTank[]; products?: BottleProduct[] }) {
   const t = useTranslations("floorForms");
   const translate = useTranslations();
   const def = ACTIONS[action];
@@ -148,7 +150,7 @@ export function FloorActionForm({ action, lot, bands, userId, queuedId, products
   const [result, setResult] = useState<Result | null>(null);
   const [problem, setProblem] = useState<{ message: string; fields: Record<string, string[]> } | null>(null);
   const set = (name: string, value: string) => setValues((v) => ({ ...v, [name]: value }));
-  const shown = withProducts(def.fields, products).filter((f) => !f.show || f.show(values));
+  const shown = withProducts(withTanks(def.fields, tanks), products).filter((f) => !f.show || f.show(values));
   const checked = [...shown, ...shown.flatMap((f) => (f.bags ? moreBagFields(values, f.name, f.bags) : []))];
   const owners = useMemo(() => fieldPaths((v) => def.build(v, lot), values, checked), [values, def, lot]); // eslint-disable-line react-hooks/exhaustive-deps
   const required = useMemo(() => requiredFields((v) => def.build(v, lot), values, checked), [values, def, lot]); // eslint-disable-line react-hooks/exhaustive-deps
@@ -220,7 +222,7 @@ export function FloorActionForm({ action, lot, bands, userId, queuedId, products
             label={t(`${action}.${f.name}`)}
             value={values[f.name] ?? ""}
             onChange={(v) => (f.name === "product" ? setValues((old) => pickProduct(old, products, v)) : set(f.name, v))}
-            optionLabel={(o) => productLabel(products, o, t("bottle.productChoose")) ?? t(`options.${o}`)}
+            optionLabel={(o) => tankLabel(tanks, o, t("add.tankChoose")) ?? productLabel(products, o, t("bottle.productChoose")) ?? t(`options.${o}`)}
             required={required.has(f.name)}
             errors={byField[f.name]}
             taken={f.bags ? bagCodes(values, f.name) : undefined}
@@ -233,6 +235,21 @@ export function FloorActionForm({ action, lot, bands, userId, queuedId, products
       <button type="submit" className="btn min-h-16 w-full text-2xl" disabled={pending}>{t(`${action}.submit`)}</button>
     </form>
   );
+}
+
+/** Register tanks free for a first addition (a tank still holding mash is not offered). */
+export type FreeTank = { id: string; name: string; capacityL: number; location: string };
+
+/** The tank select takes the register's free tanks; without a register the name is typed instead. */
+function withTanks(fields: Field[], tanks: FreeTank[]): Field[] {
+  if (!fields.some((f) => f.name === "tankId")) return fields;
+  return fields.flatMap((f) => (f.name === "tankId" ? (tanks.length ? [{ ...f, options: ["", ...tanks.map((x) => x.id)] }] : []) : f.name === "tankName" && tanks.length ? [] : [f]));
+}
+
+function tankLabel(tanks: FreeTank[], id: string, choose: string): string | null {
+  if (id === "") return tanks.length ? choose : null;
+  const tank = tanks.find((x) => x.id === id);
+  return tank ? `${tank.name} · ${tank.capacityL} L${tank.location ? ` · ${tank.location}` : ""}` : null;
 }
 
 /** A product of the register, as the bottling form offers it. */
@@ -316,6 +333,10 @@ function Preview({ action, values, bands }: { action: FloorAction; values: V; ba
     const band = bands.absorption[values.use as RiceUse];
     const within = checkBand(pct, band) === "within";
     return <p data-testid="absorption-preview" className={within ? "notice text-ink" : "notice-warn text-ink"}>{t("absorptionPreview", { pct: roundPct(pct), min: band.min, max: band.max })}</p>;
+  }
+  // Common practice: a mash is started from a yeast starter; without one the brewer should know.
+  if (action === "add" && values.addition === "first" && !(values.starterCode ?? "").trim()) {
+    return <p data-testid="no-starter-preview" className="notice-warn text-ink">{t("add.noStarter")}</p>;
   }
   if (action === "measure" && n(values.addedAlcoholKg) > 0 && n(values.addedAlcoholStrengthPct) > 0) {
     const kg95 = alcoholAs95Kg(n(values.addedAlcoholKg), n(values.addedAlcoholStrengthPct));

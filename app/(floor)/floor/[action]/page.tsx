@@ -9,6 +9,7 @@ import { findLot } from "@/server/lots";
 import { listProducts } from "@/server/products";
 import { requirePagePermission } from "@/server/page-guard";
 import { readSetting } from "@/server/settings";
+import { freeTanks } from "@/server/tank-register";
 import { FloorActionForm } from "./components";
 
 const CAUTIONS: Partial<Record<FloorAction, CautionKind>> = { steam: "steam", split: "steam", "koji-check": "koji", koji: "koji", add: "tank", measure: "tank", press: "tank" };
@@ -36,7 +37,7 @@ export default async function FloorActionPage({ params, searchParams }: { params
       <h1 className="text-3xl font-bold">{t(`floorForms.${action}.title`)}</h1>
       {caution ? <Caution kind={caution} /> : null}
       {lot ? (
-        <FloorActionForm action={action as FloorAction} lot={lot} bands={bands} userId={user.id} queuedId={typeof query.queued === "string" ? query.queued : undefined} products={action === "bottle" ? listProducts() : []} />
+        <FloorActionForm action={action as FloorAction} lot={lot} bands={bands} userId={user.id} queuedId={typeof query.queued === "string" ? query.queued : undefined} tanks={action === "add" ? freeTanks() : []} products={action === "bottle" ? listProducts() : []} />
       ) : (
         <p role="alert" className="notice-warn text-ink">{code ? t("lookup.notFound", { code }) : t("floorForms.scanFirst")}</p>
       )}

@@ -6,6 +6,8 @@ import { settingsFromForm } from "@/lib/validation/settings";
 import { guardAction } from "@/server/action";
 import { requireUser } from "@/server/session";
 import { restoreSettingDefaults, saveSettings } from "@/server/settings";
+import { saveTank } from "@/server/tank-register";
+import { addVariety, removeVariety } from "@/server/variety-list";
 
 export async function saveSettingsAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);
@@ -22,5 +24,33 @@ export async function restoreDefaultsAction(_prev: FormState, formData: FormData
     const { changed } = restoreSettingDefaults(await requireUser());
     revalidatePath("/admin/settings");
     return { ok: true, message: t(changed.length ? "settingsPage.restored" : "settingsPage.alreadyDefaults") };
+  });
+}
+
+export async function saveTankAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const values = formValues(formData);
+  return guardAction(values, async (t) => {
+    // saveTank checks settings:manage itself; the audit entry is written with the change.
+    saveTank(await requireUser(), values, t);
+    revalidatePath("/admin/settings");
+    return { ok: true, message: t("tankRegister.saved", { name: values.name?.trim() ?? "" }) };
+  });
+}
+
+export async function addVarietyAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const values = formValues(formData);
+  return guardAction(values, async (t) => {
+    const { name } = addVariety(await requireUser(), values, t);
+    revalidatePath("/admin/settings");
+    return { ok: true, message: t("varietyList.added", { name }) };
+  });
+}
+
+export async function removeVarietyAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const values = formValues(formData);
+  return guardAction(values, async (t) => {
+    const { name } = removeVariety(await requireUser(), values, t);
+    revalidatePath("/admin/settings");
+    return { ok: true, message: t("varietyList.removed", { name }) };
   });
 }

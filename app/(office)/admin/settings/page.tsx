@@ -1,9 +1,12 @@
 import { getFormatter, getTranslations } from "next-intl/server";
 import { requirePagePermission } from "@/server/page-guard";
 import { lastSettingsChange, readSettings, SETTING_DEFAULTS } from "@/server/settings";
+import { tankRegisterWithContents } from "@/server/tank-register";
+import { readVarietyList } from "@/server/variety-list";
 import { RestoreDefaultsForm, SettingsForm } from "./components";
 import { can } from "@/domain/permissions";
 import { ReadOnlySettings } from "./settings-view";
+import { TankRegister, VarietyList } from "./registers";
 import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {
@@ -27,6 +30,8 @@ export default async function SettingsPage() {
         </p>
       </PageHeader>
       <SettingsForm current={current} defaults={SETTING_DEFAULTS} />
+      <TankRegister tanks={tankRegisterWithContents()} />
+      <VarietyList varieties={readVarietyList()} />
       <section className="panel max-w-2xl space-y-3">
         <h2 className="text-xl font-bold">{t("restoreTitle")}</h2>
         <p className="text-sm text-ink-soft">{t("restoreIntro")}</p>
