@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { labelSheetPath, lotPageUrl, MAX_LABEL_CODES, parseLabelCodes } from "./label-url";
+import { labelPagePath, labelPageUrl, labelSheetPath, lotPageUrl, MAX_LABEL_CODES, parseLabelCodes } from "./label-url";
 
 describe("lotPageUrl", () => {
   it("puts a plain code under /lots/ on the origin", () => {
@@ -68,6 +68,14 @@ describe("what a label's QR holds", () => {
   it("is the GS1 Digital Link URI for a bottle with a valid GTIN, the lot page otherwise", async () => {
     const { labelUrl } = await import("./label-url");
     expect(labelUrl("https://kirinoha.example", { code: "BT26-0001", kind: "bottled", attributes: { gtin: "4006381333931" } })).toBe("https://kirinoha.example/01/04006381333931/10/BT26-0001");
-    expect(labelUrl("https://kirinoha.example", { code: "P26-0001", kind: "polished", attributes: {} })).toBe("https://kirinoha.example/lots/P26-0001");
+    expect(labelUrl("https://kirinoha.example", { code: "P26-0001", kind: "polished", attributes: {} })).toBe("https://kirinoha.example/l/P26-0001");
+  });
+});
+
+describe("labelPageUrl", () => {
+  it("is the one label route /l/{code}, the code one percent-encoded path segment (RFC 3986 §3.3)", () => {
+    expect(labelPageUrl("https://grainline.example/", "P26-0003")).toBe("https://grainline.example/l/P26-0003");
+    expect(labelPagePath("A/B")).toBe("/l/A%2FB");
+    expect(new URL(labelPageUrl("https://g.example", "X?y=1#z")).pathname).toBe("/l/X%3Fy%3D1%23z");
   });
 });

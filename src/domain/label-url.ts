@@ -10,6 +10,19 @@ export function lotPageUrl(origin: string, code: string): string {
   return `${origin.replace(/\/+$/, "")}/lots/${encodeURIComponent(code)}`;
 }
 
+/**
+ * The address a lot's label carries (`/l/{code}`): one route that opens the floor card on a
+ * phone and the office lot page on a desk (app/l/[code]/page.tsx). Shorter than the lot page's
+ * address, so the QR code stays small; encoded as lotPageUrl is.
+ */
+export function labelPageUrl(origin: string, code: string): string {
+  return `${origin.replace(/\/+$/, "")}${labelPagePath(code)}`;
+}
+
+export function labelPagePath(code: string): string {
+  return `/l/${encodeURIComponent(code)}`;
+}
+
 /** A sheet is 24 labels; 200 is a little over 8 sheets, enough for a season's delivery at once. */
 export const MAX_LABEL_CODES = 200;
 
@@ -34,10 +47,10 @@ export function labelSheetPath(codes: readonly string[], layout: "sheet" | "bag"
 
 /**
  * What a lot's QR code holds: a bottle carries its GS1 Digital Link URI (GTIN + lot, the
- * public provenance page); every other lot carries the address of its page in Grainline.
+ * public provenance page); every other lot carries its label address in Grainline.
  */
 export function labelUrl(origin: string, lot: { code: string; kind: string; attributes: Record<string, unknown> }): string {
   const gtin = lot.attributes.gtin;
   if (lot.kind === "bottled" && typeof gtin === "string" && isValidGtin(gtin)) return digitalLinkUri(origin, gtin, lot.code);
-  return lotPageUrl(origin, lot.code);
+  return labelPageUrl(origin, lot.code);
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { digitalLinkUri } from "@/domain/gtin";
-import { lotPageUrl } from "@/domain/label-url";
+import { labelPageUrl, lotPageUrl } from "@/domain/label-url";
 import { lotCodeFromScan, readScanText } from "./scan-text";
 
 // 09506000134352 and 09521234543213: GTINs used in GS1's Digital Link examples.
@@ -10,6 +10,11 @@ describe("our lot label address", () => {
   it("reads the code from {origin}/lots/{CODE}, as the label route prints it", () => {
     expect(readScanText(lotPageUrl("https://grainline.kirinoha.example", "P26-0003"))).toEqual({ code: "P26-0003", source: "label" });
     expect(readScanText("http://localhost:3000/lots/H26-0007/")).toEqual({ code: "H26-0007", source: "label" });
+  });
+
+  it("reads the label route {origin}/l/{CODE} that labels now carry", () => {
+    expect(readScanText(labelPageUrl("https://grainline.kirinoha.example", "P26-0003"))).toEqual({ code: "P26-0003", source: "label" });
+    expect(lotCodeFromScan("HTTPS://GRAINLINE.EXAMPLE/L/P26-0001")).toBe("P26-0001");
   });
 
   it("reads an address upper-cased to fit QR alphanumeric mode (ISO/IEC 18004: digits, capitals, space and $%*+-./: only)", () => {

@@ -5,9 +5,10 @@ import { isValidLotCode, normaliseLotCode } from "@/domain/lot-code";
 export type ScanSource = "label" | "digital-link" | "typed";
 export type ScanReading = { code: string; source: ScanSource };
 
-// Our lot label: {origin}/lots/{CODE} (src/domain/label-url.ts). QR encoders may upper-case a
-// URL to fit alphanumeric mode, so the path is matched case-insensitively.
-const LABEL_PATH = /\/lots\/([^/]+)\/?$/i;
+// Our lot label: {origin}/l/{CODE}, and {origin}/lots/{CODE} on labels printed before it
+// (src/domain/label-url.ts). QR encoders may upper-case a URL to fit alphanumeric mode, so the
+// path is matched case-insensitively.
+const LABEL_PATH = /\/(?:lots|l)\/([^/]+)\/?$/i;
 
 // GS1 Digital Link Standard: URI Syntax: a domain with an optional path of its own, then
 // /01/{gtin} and the key qualifiers in the standard's order (22 consumer product variant,

@@ -1,6 +1,7 @@
 import "server-only";
 import { forbidden, redirect } from "next/navigation";
 import { can, type Permission } from "@/domain/permissions";
+import { signInPath } from "@/domain/safe-next";
 import { currentUser, type SessionUser } from "./session";
 
 /** For pages: no session → sign-in; a role without the permission → 403 page. */
@@ -15,4 +16,9 @@ export async function requirePageUser(): Promise<SessionUser> {
   const user = await currentUser();
   if (!user) redirect("/sign-in");
   return user;
+}
+
+/** For an address reached from outside (a label's QR code): no session → sign-in, then back here. */
+export async function signInFirst(next: string): Promise<void> {
+  if (!(await currentUser())) redirect(signInPath(next));
 }

@@ -175,6 +175,8 @@ export const PAGES: PageEntry[] = [
   { file: "app/(office)/labels/page.tsx", guard: { by: "user", source: ["listLabelCandidates(user)"] }, expect: PAGE_SIGNED_IN },
   { file: "app/(office)/lots/[code]/graph/page.tsx", guard: { by: "user", ownLotsOnly: true }, expect: PAGE_OWN_LOTS },
   { file: "app/(office)/lots/[code]/page.tsx", guard: { by: "user", ownLotsOnly: true }, expect: PAGE_OWN_LOTS },
+  // The label's QR address: signed in, it sends on to /scan or /lots/{code}, each with its own guard.
+  { file: "app/l/[code]/page.tsx", guard: { by: "user", source: ["signInFirst(", "isPhoneRequest("] }, expect: PAGE_SIGNED_IN },
   { file: "app/(office)/lots/page.tsx", guard: { by: "user" }, expect: PAGE_SIGNED_IN },
   { file: "app/(office)/mill/page.tsx", guard: { by: "permission", permission: "polishing:record" }, expect: o("redirect:/sign-in", "ok", "403", "403", "ok", "403", "403") },
   { file: "app/(office)/overview/page.tsx", guard: { by: "permission", permission: "users:manage" }, expect: PAGE_ADMIN_ONLY },

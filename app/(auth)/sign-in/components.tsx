@@ -7,12 +7,13 @@ import { FormMessage } from "@/components/ui/form-message";
 import { initialFormState } from "@/lib/form-state";
 import { signInAction } from "./actions";
 
-export function SignInForm() {
+export function SignInForm({ next }: { next?: string }) {
   const t = useTranslations("auth");
   const [state, action, pending] = useActionState(signInAction, initialFormState);
   return (
     <form action={action} className="space-y-4" noValidate>
       <FormMessage state={state} />
+      {next ? <input type="hidden" name="next" value={next} /> : null}
       <FormField label={t("email")} name="email" type="email" autoComplete="username" required defaultValue={state.values?.email} errors={state.fields?.email} />
       <FormField label={t("password")} name="password" type="password" autoComplete="current-password" required errors={state.fields?.password} />
       <button type="submit" className="btn w-full py-3 text-lg" disabled={pending}>

@@ -2,6 +2,7 @@ import Link from "next/link";
 import { redirect } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { HOME_FOR_ROLE } from "@/domain/permissions";
+import { safeNextPath } from "@/domain/safe-next";
 import { currentUser } from "@/server/session";
 import { SignInForm } from "./components";
 
@@ -10,15 +11,18 @@ export async function generateMetadata() {
   return { title: t("signInTitle") };
 }
 
-export default async function SignInPage() {
+export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string | string[] }> }) {
+  // Only a path on this site is kept (an absolute or //host address is ignored: no open redirect).
+  const next = safeNextPath((await searchParams).next) ?? undefined;
   const user = await currentUser();
+  if (user && next) redirect(next);
   if (user) redirect(HOME_FOR_ROLE[user.role]);
   const t = await getTranslations("auth");
   return (
     <>
       <h1 className="text-2xl font-bold">{t("signInTitle")}</h1>
       <p className="mt-1 mb-5 text-ink-soft">{t("signInIntro")}</p>
-      <SignInForm />
+      <SignInForm next={next} />
       <p className="mt-5 text-sm">
         <Link href="/forgot-password">{t("forgot")}</Link>
       </p>
