@@ -5,6 +5,7 @@
 // ask for the one-step-forward trace the recall gives; the hold itself is common practice).
 import { beforeAll, describe, expect, it, vi } from "vitest";
 import { translator } from "@/i18n/messages";
+import type { FormState } from "@/lib/form-state";
 import { getSqlite } from "@/server/db";
 import { POST as postEvent } from "../../app/api/events/route";
 import { POST as postHarvest } from "../../app/api/harvests/route";
@@ -23,14 +24,14 @@ let admin: string, brewer: string, grower: string, sales: string, auditor: strin
 const one = (sql: string, ...args: unknown[]) => getSqlite().prepare(sql).get(...args) as Record<string, unknown>;
 const all = (sql: string, ...args: unknown[]) => getSqlite().prepare(sql).all(...args) as Record<string, unknown>[];
 const event = (cookie: string, body: unknown) => call(postEvent, jsonRequest("/api/events", { cookie, body }));
-const state = (answer: Awaited<ReturnType<typeof submit>>) => ("state" in answer ? answer.state : { redirect: answer.redirect });
+const state = (answer: Awaited<ReturnType<typeof submit>>): FormState => ("state" in answer ? answer.state : { message: `redirect to ${answer.redirect}` });
 const heldCodes = () => new Set(all("select l.code from lots l where (select action from lot_holds h where h.lot_id = l.id order by h.id desc limit 1) = 'hold'").map((r) => r.code as string));
 
 // The seeded 2024 season (src/server/seed-brewing.ts): the first harvest reaches Tank 1, its sake
 // (1020 L, 720 L of it bottled) and the two bottlings, 200 bottles of which went to Minato.
 let harvest2024: string, sake: string, bottles800: string;
 beforeAll(async () => {
-  [admin, brewer, grower, sales, auditor] = await Promise.all(["admin", "brewer", "grower", "sales", "auditor"].map((r) => signInAs(`${r}@example.com`)));
+  [admin, brewer, grower, sales, auditor] = [await signInAs("admin@example.com"), await signInAs("brewer@example.com"), await signInAs("grower@example.com"), await signInAs("sales@example.com"), await signInAs("auditor@example.com")];
   harvest2024 = one("select code from lots where kind = 'harvest' and crop_year = 2024 order by id").code as string;
   sake = one("select code from lots where kind = 'sake' order by id").code as string;
   bottles800 = one("select code from lots where kind = 'bottled' and quantity_in = 800 order by id").code as string;

@@ -5,6 +5,7 @@
 // recorded again with the quantity the buyer kept.
 import { beforeAll, describe, expect, it, vi } from "vitest";
 import { translator } from "@/i18n/messages";
+import type { FormState } from "@/lib/form-state";
 import { getSqlite } from "@/server/db";
 import { loadRecall, recallRows, shipmentsToBuyers } from "@/server/recall";
 import { correctEventAction, shipToBuyerAction } from "../../app/(office)/lots/[code]/actions";
@@ -19,7 +20,7 @@ const en = translator("en");
 let admin: string, grower: string, miller: string, sales: string;
 let bottles: string, harvest2024: string;
 const one = (sql: string, ...args: unknown[]) => getSqlite().prepare(sql).get(...args) as Record<string, unknown>;
-const state = (answer: Awaited<ReturnType<typeof submit>>) => ("state" in answer ? answer.state : { redirect: answer.redirect });
+const state = (answer: Awaited<ReturnType<typeof submit>>): FormState => ("state" in answer ? answer.state : { message: `redirect to ${answer.redirect}` });
 const onHand = () => one("select on_hand as n from lots where code = ?", bottles).n as number;
 const ship = (cookie: string, extra: Record<string, string> = {}) =>
   submit(cookie, shipToBuyerAction, { code: bottles, counterpartyId: "buyer-minato", date: "2026-12-01", quantity: "24", referenceDoc: "INV-2026-120", ...extra });
@@ -30,7 +31,7 @@ const recallOf = async () => {
 };
 
 beforeAll(async () => {
-  [admin, grower, miller, sales] = await Promise.all(["admin", "grower", "miller", "sales"].map((r) => signInAs(`${r}@example.com`)));
+  [admin, grower, miller, sales] = [await signInAs("admin@example.com"), await signInAs("grower@example.com"), await signInAs("miller@example.com"), await signInAs("sales@example.com")];
   // The seeded 2024 season: 800 bottles of 720 mL from the first harvest's sake, all still in the brewery.
   bottles = one("select code from lots where kind = 'bottled' and quantity_in = 800 order by id").code as string;
   harvest2024 = one("select code from lots where kind = 'harvest' and crop_year = 2024 order by id").code as string;
