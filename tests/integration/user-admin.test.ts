@@ -8,6 +8,7 @@ import { GET as meRoute } from "../../app/api/me/route";
 import { changeRoleAction, deactivateUserAction, reactivateUserAction } from "../../app/(office)/admin/users/actions";
 import { auditLog, users } from "@/db/schema";
 import { getDb } from "@/server/db";
+import type { FormState } from "@/lib/form-state";
 import { submit } from "../support/action-scope";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 
@@ -17,7 +18,10 @@ vi.mock("next-intl/server", async () => (await import("../support/action-scope")
 
 const me = async (cookie: string) => (await call(meRoute, jsonRequest("/api/me", { cookie }))).status;
 const signIn = (email: string, password: string) => call(signInRoute, jsonRequest("/api/auth/sign-in", { body: { email, password }, headers: { "x-grainline-peer": `10.9.0.${email.length}` } }));
-const stateOf = (r: Awaited<ReturnType<typeof submit>>) => ("state" in r ? r.state : { redirect: r.redirect });
+function stateOf(r: Awaited<ReturnType<typeof submit>>): FormState {
+  if (!("state" in r)) throw new Error(`redirected to ${r.redirect}`);
+  return r.state;
+}
 const lastAudit = () => getDb().select().from(auditLog).orderBy(auditLog.id).all().at(-1)!;
 
 describe("deactivating and reactivating a user", () => {
