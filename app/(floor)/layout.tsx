@@ -3,6 +3,7 @@ import { NextIntlClientProvider } from "next-intl";
 import { redirect } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { BrandMark } from "@/components/brand-mark";
+import { FloorNav } from "@/components/floor/floor-nav";
 import { QueuePanel } from "@/components/floor/queue-panel";
 import { UserBar } from "@/components/user-bar";
 import { currentUser } from "@/server/session";
@@ -23,6 +24,7 @@ export default async function FloorLayout({ children }: { children: React.ReactN
         </Link>
         <UserBar user={user} signOut={signOutAction} />
       </header>
+      <FloorNav actor={user} />
       <QueuePanel userId={user.id} />
       <main id="content" className="mx-auto max-w-xl px-4 py-5 text-lg">
         {children}

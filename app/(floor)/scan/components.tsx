@@ -6,6 +6,7 @@ import { FloorLotCard } from "@/components/floor/floor-lot-card";
 import { readRecentScans, rememberScan, RecentScans } from "@/components/floor/recent-scans";
 import { Scanner } from "@/components/floor/scanner";
 import { readScanText } from "@/lib/scan-text";
+import type { Actor } from "@/domain/permissions";
 import type { ApiLot } from "@/server/lots";
 
 export type ScanView =
@@ -16,7 +17,7 @@ export type ScanView =
   | { state: "not-found" | "offline" | "signed-out" | "failed"; code: string };
 
 /** Scan or type → the lot card. Typed codes also work without JavaScript (a GET form to /scan). */
-export function ScanScreen({ userId, initial, typed }: { userId: string; initial: ScanView; typed: string }) {
+export function ScanScreen({ userId, actor, initial, typed }: { userId: string; actor: Actor; initial: ScanView; typed: string }) {
   const t = useTranslations("floorScan");
   const format = useFormatter();
   const [view, setView] = useState<ScanView>(initial);
@@ -69,7 +70,7 @@ export function ScanScreen({ userId, initial, typed }: { userId: string; initial
     <div className="space-y-6">
       {/* The answer comes first: after a scan it is what the brewer looks at, without scrolling. */}
       <div aria-live="polite" data-testid="scan-result" ref={resultRef} className="scroll-mt-4 empty:hidden">
-        <ScanResult view={view} asOf={view.state === "lot" && view.asOf ? format.dateTime(new Date(view.asOf), { dateStyle: "short", timeStyle: "short" }) : ""} />
+        <ScanResult view={view} actor={actor} asOf={view.state === "lot" && view.asOf ? format.dateTime(new Date(view.asOf), { dateStyle: "short", timeStyle: "short" }) : ""} />
       </div>
       <div className="grid gap-5 sm:grid-cols-2">
         <Scanner onText={read} />
@@ -109,7 +110,7 @@ export function ScanScreen({ userId, initial, typed }: { userId: string; initial
   );
 }
 
-function ScanResult({ view, asOf }: { view: ScanView; asOf: string }) {
+function ScanResult({ view, actor, asOf }: { view: ScanView; actor: Actor; asOf: string }) {
   const t = useTranslations("floorScan.result");
   switch (view.state) {
     case "idle":
@@ -120,7 +121,7 @@ function ScanResult({ view, asOf }: { view: ScanView; asOf: string }) {
       return (
         <div className="space-y-3">
           {view.asOf ? <p role="status" className="notice-warn text-ink">{t("offline", { code: view.lot.code, time: asOf })}</p> : null}
-          <FloorLotCard lot={view.lot} />
+          <FloorLotCard lot={view.lot} actor={actor} />
         </div>
       );
     case "not-ours":

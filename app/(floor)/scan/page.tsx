@@ -31,7 +31,7 @@ export default async function ScanPage({ searchParams }: { searchParams: Promise
         <h1 className="text-3xl font-bold">{t("title")}</h1>
         <p className="opacity-80">{t("intro")}</p>
       </header>
-      <ScanScreen userId={user.id} initial={initial} typed={lot?.code ?? reading?.code ?? typed} />
+      <ScanScreen userId={user.id} actor={{ id: user.id, role: user.role, partyId: user.partyId }} initial={initial} typed={lot?.code ?? reading?.code ?? typed} />
     </div>
   );
 }

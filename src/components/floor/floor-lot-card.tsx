@@ -2,13 +2,13 @@
 
 import Link from "next/link";
 import { useFormatter, useTranslations } from "next-intl";
-import { actionsFor, daysSince } from "@/domain/floor-actions";
-import type { LotKind } from "@/domain/steps";
+import { daysSince, floorOffer, STEP_OF_ACTION, mayRecord } from "@/domain/floor-actions";
+import type { Actor } from "@/domain/permissions";
 import type { ApiLot } from "@/server/lots";
 import { RecordMoisture } from "./record-moisture";
 
 /** What a brewer needs at arm's length after a scan, and the next steps as big buttons. */
-export function FloorLotCard({ lot }: { lot: ApiLot }) {
+export function FloorLotCard({ lot, actor }: { lot: ApiLot; actor: Actor }) {
   const t = useTranslations();
   const format = useFormatter();
   const rested = lot.polishedAt ? Math.max(0, daysSince(lot.polishedAt)) : null;
@@ -19,7 +19,8 @@ export function FloorLotCard({ lot }: { lot: ApiLot }) {
     ["polishing-ratio", t("floorScan.card.polishingRatio"), lot.polishingRatioPct != null ? `${format.number(lot.polishingRatioPct, { maximumFractionDigits: 1 })} %` : ""],
     ["rested", t("floorScan.card.rested"), rested !== null ? t("floorScan.card.restedDays", { days: rested }) : ""],
   ];
-  const actions = actionsFor(lot.kind as LotKind, lot.attributes);
+  const offer = floorOffer(actor, lot);
+  const actions = offer.state === "actions" ? offer.actions : [];
 
   return (
     <article data-testid="floor-lot-card" aria-labelledby="floor-lot-code" className="space-y-5 rounded-xl border-4 border-koji bg-cedar-deep p-5 text-paper">
@@ -41,7 +42,9 @@ export function FloorLotCard({ lot }: { lot: ApiLot }) {
       </dl>
       <nav aria-label={t("floorScan.card.nextStep")}>
         <h3 className="mb-2 text-lg font-semibold opacity-80">{t("floorScan.card.nextStep")}</h3>
-        {actions.length === 0 ? <p>{t("floorScan.card.noActions")}</p> : null}
+        {offer.state === "in-transit" ? <p data-testid="lot-whereabouts" className="text-xl font-bold">{t("floorScan.card.inTransit", { party: offer.to })}</p> : null}
+        {offer.state === "held-elsewhere" ? <p data-testid="lot-whereabouts" className="text-xl font-bold">{t("floorScan.card.heldBy", { party: offer.by })}</p> : null}
+        {offer.state === "actions" && actions.length === 0 ? <p>{t("floorScan.card.noActions")}</p> : null}
         <ul className="grid gap-3 sm:grid-cols-2">
           {actions.map((action) => (
             <li key={action}>
@@ -52,7 +55,7 @@ export function FloorLotCard({ lot }: { lot: ApiLot }) {
           ))}
         </ul>
       </nav>
-      {lot.kind === "polished" ? <RecordMoisture key={lot.code} code={lot.code} /> : null}
+      {lot.kind === "polished" && offer.state === "actions" && mayRecord(actor, STEP_OF_ACTION.measure) ? <RecordMoisture key={lot.code} code={lot.code} /> : null}
       <p>
         <Link href={`/lots/${encodeURIComponent(lot.code)}`} className="inline-flex min-h-12 items-center text-koji-pale">
           {t("floorScan.card.fullRecord", { code: lot.code })}

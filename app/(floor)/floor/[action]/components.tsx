@@ -4,7 +4,7 @@ import Link from "next/link";
 import { useEffect, useMemo, useState } from "react";
 import { useTranslations } from "next-intl";
 import { alcoholAs95Kg } from "@/domain/categories";
-import { checkBand, KOJI_CHECKPOINTS, kojiMeasurementName, RICE_USES, waterAbsorptionPct, type Band, type KojiCheckpoint, type RiceUse } from "@/domain/brewing";
+import { bandForUse, checkBand, KOJI_CHECKPOINTS, kojiMeasurementName, RICE_USES, waterAbsorptionPct, type Band, type KojiCheckpoint, type RiceUse } from "@/domain/brewing";
 import type { FloorAction } from "@/domain/floor-actions";
 import { roundPct } from "@/domain/polishing";
 import { BOTTLE_SIZES_ML } from "@/domain/steps";
@@ -14,6 +14,8 @@ import { checkOffline, errorsByField, fieldPaths, requiredFields } from "@/lib/f
 import { discardQueuedWrite, keepRefusedWrite, readQueuedWrite, setQueueOwner, submitFloorWrite } from "@/lib/offline-queue";
 import type { Translate } from "@/lib/validation/field-errors";
 import type { ApiLot } from "@/server/lots";
+import { FloorResult, type SentOutput } from "@/components/floor/floor-result";
+import { SoakTimer } from "@/components/floor/soak-timer";
 
 type Bands = { absorption: Record<RiceUse, Band>; gain: Record<RiceUse, Band>; koji: Record<KojiCheckpoint, Band> };
 type V = Record<string, string>;
@@ -31,9 +33,10 @@ const sum = (...xs: number[]) => xs.filter(Number.isFinite).reduce((a, b) => a +
 /** Fields of each floor screen, and how its values become one event of ../shared/api.md. */
 const ACTIONS: Record<FloorAction, { fields: Field[]; defaults: (lot: ApiLot) => V; build: (v: V, lot: ApiLot) => unknown }> = {
   soak: {
-    fields: [{ name: "use", type: "select", options: RICE_USES }, { name: "dryKg", type: "number" }, { name: "drainedKg", type: "number" }, { name: "soakMinutes", type: "number" }, { name: "waterTempC", type: "number" }],
-    defaults: () => ({ use: "koji" }),
-    build: (v, lot) => ({ step: "soaking", inputs: [{ lot: lot.code, quantity: n(v.dryKg) }], outputs: [{ kind: "soaked", quantity: n(v.drainedKg), use: v.use }], measurements: [...ms("soakMinutes", n(v.soakMinutes), "min"), ...ms("waterTempC", n(v.waterTempC), "°C")] }),
+    // "mixed": soaked together, each portion's use is decided at the split (no use is sent).
+    fields: [{ name: "use", type: "select", options: ["mixed", ...RICE_USES] }, { name: "dryKg", type: "number" }, { name: "drainedKg", type: "number" }, { name: "waterTempC", type: "number" }, { name: "soakMinutes", type: "number" }],
+    defaults: () => ({ use: "mixed" }),
+    build: (v, lot) => ({ step: "soaking", inputs: [{ lot: lot.code, quantity: n(v.dryKg) }], outputs: [{ kind: "soaked", quantity: n(v.drainedKg), use: v.use === "mixed" ? undefined : v.use }], measurements: [...ms("soakMinutes", n(v.soakMinutes), "min"), ...ms("waterTempC", n(v.waterTempC), "°C")] }),
   },
   steam: {
     fields: [{ name: "drawKg", type: "number" }, { name: "steamedKg", type: "number" }, { name: "steamMinutes", type: "number" }],
@@ -196,7 +199,8 @@ export function FloorActionForm({ action, lot, bands, userId, queuedId, tanks = 
     }
   };
 
-  if (result) return <FloorResult result={result} />;
+  // The outputs sent, in the order the server made them: a split portion's use and addition.
+  if (result) return <FloorResult result={result} sent={(def.build(values, lot) as { outputs?: SentOutput[] }).outputs ?? []} carried={action === "steam" && lot.attributes.use ? { use: lot.attributes.use } : {}} />;
   if (queued) {
     return (
       <div className="space-y-4" data-testid="floor-queued">
@@ -231,6 +235,7 @@ export function FloorActionForm({ action, lot, bands, userId, queuedId, tanks = 
           {f.bags ? <MoreBags values={values} codeName={f.name} kgName={f.bags} kgLabel={t(`${action}.${f.bags}`)} required={required} errors={byField} onChange={setValues} /> : null}
         </div>
       ))}
+      {action === "soak" ? <SoakTimer lot={lot.code} onMinutes={(m) => set("soakMinutes", m)} /> : null}
       <Preview action={action} values={values} bands={bands} />
       <button type="submit" className="btn min-h-16 w-full text-2xl" disabled={pending}>{t(`${action}.submit`)}</button>
     </form>
@@ -330,7 +335,7 @@ function Preview({ action, values, bands }: { action: FloorAction; values: V; ba
   const t = useTranslations("floorForms");
   if (action === "soak" && Number.isFinite(n(values.dryKg)) && n(values.dryKg) > 0 && Number.isFinite(n(values.drainedKg))) {
     const pct = waterAbsorptionPct(n(values.dryKg), n(values.drainedKg));
-    const band = bands.absorption[values.use as RiceUse];
+    const band = bandForUse(bands.absorption, values.use);
     const within = checkBand(pct, band) === "within";
     return <p data-testid="absorption-preview" className={within ? "notice text-ink" : "notice-warn text-ink"}>{t("absorptionPreview", { pct: roundPct(pct), min: band.min, max: band.max })}</p>;
   }
@@ -348,25 +353,4 @@ function Preview({ action, values, bands }: { action: FloorAction; values: V; ba
     return Number.isFinite(litres) ? <p className="notice text-ink">{t("bottlePreview", { litres })}</p> : null;
   }
   return null;
-}
-
-function FloorResult({ result }: { result: Result }) {
-  const t = useTranslations("floorForms");
-  return (
-    <div className="space-y-4" data-testid="floor-result">
-      <p role="status" className="notice text-ink">{t("recorded")}</p>
-      {result.warnings.map((w) => <p key={w} role="alert" className="notice-warn text-ink font-bold">{w}</p>)}
-      <ul className="space-y-3">
-        {result.outputs.map((o) => (
-          <li key={o.code} className="flex flex-wrap items-center gap-3">
-            <span className="code-chip text-xl">{o.code}</span>
-            <span>{o.quantity} {o.unit}</span>
-            <Link href={`/scan?code=${o.code}`} className="btn min-h-12">{t("openLot")}</Link>
-            <Link href={`/labels?codes=${o.code}&layout=bag`} className="btn-quiet min-h-12">{t("label")}</Link>
-          </li>
-        ))}
-      </ul>
-      <Link href="/scan" className="btn-quiet min-h-12 w-full">{t("scanNext")}</Link>
-    </div>
-  );
 }

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { Caution, type CautionKind } from "@/components/caution";
-import { FLOOR_ACTIONS, type FloorAction } from "@/domain/floor-actions";
+import { FLOOR_ACTIONS, floorOffer, type FloorAction } from "@/domain/floor-actions";
 import { normaliseLotCode } from "@/domain/lot-code";
 import { getDb } from "@/server/db";
 import { findLot } from "@/server/lots";
@@ -29,6 +29,8 @@ export default async function FloorActionPage({ params, searchParams }: { params
   const code = normaliseLotCode(query.lot ?? "");
   const lot = code ? findLot(user, code) : null;
   const caution = CAUTIONS[action as FloorAction];
+  // A lot the party does not hold, or one on its way elsewhere, gets no form: where it is instead.
+  const offer = lot ? floorOffer(user, lot) : null;
   const db = getDb();
   const bands = { absorption: readSetting(db, "absorptionBands"), gain: readSetting(db, "steamGainBands"), koji: readSetting(db, "kojiBands") };
   return (
@@ -36,7 +38,11 @@ export default async function FloorActionPage({ params, searchParams }: { params
       <p><Link href={code ? `/scan?code=${code}` : "/scan"} className="text-paper">← {t("floorForms.back")}</Link></p>
       <h1 className="text-3xl font-bold">{t(`floorForms.${action}.title`)}</h1>
       {caution ? <Caution kind={caution} /> : null}
-      {lot ? (
+      {offer && offer.state !== "actions" ? (
+        <p role="alert" className="notice-warn text-ink" data-testid="lot-whereabouts">
+          {offer.state === "in-transit" ? t("floorScan.card.inTransit", { party: offer.to }) : t("floorScan.card.heldBy", { party: offer.by })}
+        </p>
+      ) : lot ? (
         <FloorActionForm action={action as FloorAction} lot={lot} bands={bands} userId={user.id} queuedId={typeof query.queued === "string" ? query.queued : undefined} tanks={action === "add" ? freeTanks() : []} products={action === "bottle" ? listProducts() : []} />
       ) : (
         <p role="alert" className="notice-warn text-ink">{code ? t("lookup.notFound", { code }) : t("floorForms.scanFirst")}</p>
