@@ -46,7 +46,8 @@ test("one tank's whole path on a phone: soak, steam, split, koji, starter, three
 
   await page.goto(`/floor/add?lot=${starter}`);
   await expect(page.getByTestId("caution-tank")).toBeVisible();
-  const [tank] = await record(page, "add", starter!, { "Tank name": "Tank 5", "Koji lot": koji!, "Koji (kg)": "15", "Steamed rice lot": first!, "Steamed rice (kg)": "60", "Water (L)": "70" });
+  // The first addition picks its tank from the register (seeded: Tank 5, empty).
+  const [tank] = await record(page, "add", starter!, { "Koji lot": koji!, "Koji (kg)": "15", "Steamed rice lot": first!, "Steamed rice (kg)": "60", "Water (L)": "70" }, { Tank: "tank-5" });
   await record(page, "add", middle!, { "Tank lot": tank!, "Koji lot": koji!, "Koji (kg)": "20", "Water (L)": "120" }, { Addition: "middle" });
   await record(page, "add", final!, { "Tank lot": tank!, "Koji lot": koji!, "Koji (kg)": "25", "Water (L)": "200" }, { Addition: "final" });
 
