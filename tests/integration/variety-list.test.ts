@@ -72,6 +72,10 @@ describe("varieties come from the list", () => {
   it("is edited by the office only, each change audited; a removed name is refused again", async () => {
     const before = await tableDigests();
     expect(() => addVariety(actor("user-grower"), { name: "Sasanishiki", kind: "table" }, t)).toThrow(expect.objectContaining({ status: 403 }));
+    for (const who of ["user-brewer", "user-miller", "user-auditor"]) {
+      expect(() => addVariety(actor(who), { name: "Sasanishiki", kind: "table" }, t)).toThrow(expect.objectContaining({ status: 403 }));
+      expect(() => removeVariety(actor(who), { name: "Omachi" }, t)).toThrow(expect.objectContaining({ status: 403 }));
+    }
     expect(() => addVariety(actor("user-admin"), { name: "OMACHI", kind: "sake" }, t)).toThrow(expect.objectContaining({ status: 422 }));
     expect(await tableDigests()).toEqual(before);
     addVariety(actor("user-admin"), { name: "Sasanishiki", kind: "table" }, t);
