@@ -78,7 +78,7 @@ export function PolishingRunForm() {
         </ul>
         <div className="flex gap-3">
           <Link className="btn" href={`/labels?codes=${result.outputs.map((o) => o.code).join(",")}`}>{t("printLabels")}</Link>
-          <button type="button" className="btn-quiet" onClick={() => { setResult(null); setRows([{ lot: "", quantity: "" }, { lot: "", quantity: "" }]); setF({ polished: "", bran: "", target: "", tgwBrown: "", tgwPolished: "", moisture: "", note: "" }); }}>{t("another")}</button>
+          <button type="button" className="btn-quiet" onClick={() => { setResult(null); setMixConfirmed(false); setRows([{ lot: "", quantity: "" }, { lot: "", quantity: "" }]); setF({ polished: "", bran: "", target: "", tgwBrown: "", tgwPolished: "", moisture: "", note: "" }); }}>{t("another")}</button>
         </div>
       </div>
     );
