@@ -4,6 +4,7 @@ import { redirect } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { BrandMark } from "@/components/brand-mark";
 import { navFor } from "@/components/nav-items";
+import { SearchBox } from "@/components/search-box";
 import { UserBar } from "@/components/user-bar";
 import { currentUser } from "@/server/session";
 import { signOutAction } from "../(auth)/sign-out/actions";
@@ -28,6 +29,7 @@ export default async function OfficeLayout({ children }: { children: React.React
               </Link>
             ))}
           </nav>
+          <SearchBox />
           <UserBar user={user} signOut={signOutAction} />
         </div>
       </header>

@@ -169,6 +169,7 @@ export const PAGES: PageEntry[] = [
   { file: "app/(office)/admin/users/page.tsx", guard: { by: "permission", permission: "setup:read" }, expect: PAGE_SETUP_READERS },
   { file: "app/(office)/brew-days/[date]/page.tsx", guard: { by: "permission", permission: "records:read-all" }, expect: PAGE_READ_ALL },
   { file: "app/(office)/admin/products/page.tsx", guard: { by: "permission", permission: "settings:manage" }, expect: PAGE_ADMIN_ONLY },
+  { file: "app/(office)/search/page.tsx", guard: { by: "user", source: ["searchEverything(user"] }, expect: PAGE_SIGNED_IN },
   { file: "app/(office)/brew-days/page.tsx", guard: { by: "permission", permission: "records:read-all" }, expect: PAGE_READ_ALL },
   { file: "app/(office)/fields/page.tsx", guard: { by: "user", anyOf: ["fields:read-all", "fields:write-own"] }, expect: o("redirect:/sign-in", "ok", "ok", "ok", "403", "ok", "ok") },
   { file: "app/(office)/import/page.tsx", guard: { by: "user", anyOf: ["harvests:record-own", "harvests:record-any", "polishing:record", "brewing:record"], source: ["importKindsFor(user)"] }, expect: o("redirect:/sign-in", "ok", "ok", "ok", "ok", "403", "403") },
