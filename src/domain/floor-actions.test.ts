@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { actionsFor, daysSince, floorOffer } from "./floor-actions";
+import { actionsFor, daysSince, floorOffer, portionOf } from "./floor-actions";
 
 describe("floor actions by stage (the order of work on a brewery floor, common practice)", () => {
   it("follows the rice from polished to bottle", () => {
@@ -18,6 +18,13 @@ describe("floor actions by stage (the order of work on a brewery floor, common p
     expect(actionsFor("steamed", { use: "mash" })).toEqual(["split", "add"]);
     expect(actionsFor("steamed", { use: "mash", addition: "middle" })).toEqual(["add", "split"]);
     expect(actionsFor("steamed", {})[0]).toBe("split");
+  });
+
+  it("names what a portion is for: its addition for mash rice, nothing for rice soaked mixed", () => {
+    expect(portionOf({ use: "mash", addition: "final" })).toBe("final");
+    expect(portionOf({ use: "mash" })).toBe("mash");
+    expect(portionOf({ use: "koji" })).toBe("koji");
+    expect(portionOf({})).toBeNull();
   });
 
   it("counts whole days rested", () => {

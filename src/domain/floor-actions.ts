@@ -52,6 +52,12 @@ export function actionsFor(kind: LotKind, attributes: Record<string, unknown> = 
   }
 }
 
+/** What a portion of rice is for: its addition for mash rice, else its use (null when mixed). */
+export function portionOf(attributes: Record<string, unknown>): "koji" | "starter" | "mash" | "first" | "middle" | "final" | null {
+  if (attributes.use === "mash") return attributes.addition === "first" || attributes.addition === "middle" || attributes.addition === "final" ? attributes.addition : "mash";
+  return attributes.use === "koji" || attributes.use === "starter" ? attributes.use : null;
+}
+
 export type FloorLot = { kind: string; attributes: Record<string, unknown>; party: { id: string; name: string }; inTransitTo?: { id: string; name: string } };
 export type FloorOffer = { state: "actions"; actions: FloorAction[] } | { state: "in-transit"; to: string } | { state: "held-elsewhere"; by: string };
 

@@ -1,5 +1,5 @@
 import { expect, test, type Browser, type Page } from "@playwright/test";
-import { signInAndLand } from "./helpers";
+import { signInAndLand, signOut } from "./helpers";
 
 // Issue 13, items 1, 5 and 7, on a phone. Figures: water absorption = (drained − dry) ÷ dry × 100
 // (Nada brewers' research association glossary, ../shared/references.md); default bands are trade
@@ -84,6 +84,7 @@ test("a mixed soak, timed; steaming and the split are each one tap away, and eve
 
   // Scanned later, a portion offers its use first and the split again.
   await page.goto(`/scan?code=${codes[2]}`);
+  await expect(page.getByTestId("lot-portion")).toHaveText("For the first addition");
   const actions = page.getByTestId("floor-lot-card").getByRole("navigation").getByRole("link");
   await expect(actions).toHaveText(["Add to a tank", "Split steamed rice"]);
 
@@ -111,6 +112,13 @@ test("the card offers no steps on a lot the brewery does not hold: it says where
   await page.goto(`/floor/soak?lot=${polished}`);
   await expect(page.getByTestId("lot-whereabouts")).toContainText("Held by Shirotae Polishing Works");
   await expect(page.getByTestId("floor-form")).toHaveCount(0);
+
+  // The office records on any party's behalf (lots:act-any), so its card offers the step.
+  await signOut(page);
+  await signInAndLand(page, "admin@example.com");
+  await page.goto(`/scan?code=${polished}`);
+  await expect(card.getByRole("link", { name: "Soak" })).toBeVisible();
+  await expect(card.getByTestId("lot-whereabouts")).toHaveCount(0);
 
   await miller.post("/api/events", { step: "shipping", inputs: [{ lot: polished, quantity: 60 }], counterpartyId: "brewery-kirinoha", referenceDoc: "SH-F1-01" });
   await miller.close();

@@ -2,7 +2,7 @@
 
 import Link from "next/link";
 import { useFormatter, useTranslations } from "next-intl";
-import { daysSince, floorOffer, STEP_OF_ACTION, mayRecord } from "@/domain/floor-actions";
+import { daysSince, floorOffer, mayRecord, portionOf, STEP_OF_ACTION } from "@/domain/floor-actions";
 import type { Actor } from "@/domain/permissions";
 import type { ApiLot } from "@/server/lots";
 import { RecordMoisture } from "./record-moisture";
@@ -11,9 +11,11 @@ import { RecordMoisture } from "./record-moisture";
 export function FloorLotCard({ lot, actor }: { lot: ApiLot; actor: Actor }) {
   const t = useTranslations();
   const format = useFormatter();
+  const portion = ["soaked", "steamed"].includes(lot.kind) ? portionOf(lot.attributes) : null;
   const rested = lot.polishedAt ? Math.max(0, daysSince(lot.polishedAt)) : null;
   const rows: [string, string, string][] = [
     ["kind", t("floorScan.card.kind"), t(`lot.kinds.${lot.kind}`)],
+    ["portion", t("floorScan.card.portion"), portion ? t(`floorForms.purpose.${portion}`) : ""],
     ["variety", t("floorScan.card.variety"), lot.variety ?? ""],
     ["on-hand", t("floorScan.card.onHand"), `${format.number(lot.onHand, { maximumFractionDigits: 1 })} ${lot.unit}`],
     ["polishing-ratio", t("floorScan.card.polishingRatio"), lot.polishingRatioPct != null ? `${format.number(lot.polishingRatioPct, { maximumFractionDigits: 1 })} %` : ""],

@@ -2,7 +2,7 @@
 
 import Link from "next/link";
 import { useTranslations } from "next-intl";
-import { actionsFor } from "@/domain/floor-actions";
+import { actionsFor, portionOf } from "@/domain/floor-actions";
 import type { LotKind } from "@/domain/steps";
 
 export type FloorWriteResult = { id: number; outputs: { code: string; kind: string; quantity: number; unit: string }[]; warnings: string[] };
@@ -25,7 +25,7 @@ export function FloorResult({ result, sent, carried }: { result: FloorWriteResul
         {result.outputs.map((o, i) => {
           const spec = sent[i] ?? {};
           const attributes = { ...carried, ...(spec.use ? { use: spec.use } : {}), ...(spec.addition ? { addition: spec.addition } : {}) };
-          const purpose = purposeOf(attributes);
+          const purpose = portionOf(attributes);
           const next = actionsFor(o.kind as LotKind, attributes)[0];
           return (
             <li key={o.code} className="space-y-2 rounded-lg border-2 border-cedar p-3" data-testid="floor-output">
@@ -50,9 +50,4 @@ export function FloorResult({ result, sent, carried }: { result: FloorWriteResul
       <Link href="/scan" className="btn-quiet min-h-12 w-full">{t("scanNext")}</Link>
     </div>
   );
-}
-
-function purposeOf(a: Record<string, unknown>): string | null {
-  if (a.use === "mash") return typeof a.addition === "string" ? a.addition : "mash";
-  return a.use === "koji" || a.use === "starter" ? a.use : null;
 }
