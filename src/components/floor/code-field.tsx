@@ -52,10 +52,10 @@ export function CodeField({ id, name, label, value, onChange, onAppend, taken = 
   const described = [errors?.length ? `${id}-error` : "", notice ? `${id}-notice` : ""].filter(Boolean).join(" ") || undefined;
   return (
     <div data-testid={`code-field-${id}`}>
-      <label htmlFor={id} className="block text-lg font-semibold">
-        {label}
+      <div className="flex items-baseline">
+        <label htmlFor={id} className="block text-lg font-semibold">{label}</label>
         {required ? <RequiredMark /> : null}
-      </label>
+      </div>
       <div className="flex gap-2">
         <input
           id={id}
@@ -87,7 +87,10 @@ export function CodeField({ id, name, label, value, onChange, onAppend, taken = 
   );
 }
 
-/** The visible mark of a required field; screen readers get aria-required instead. */
+/**
+ * The visible mark of a required field, beside its label rather than in it, so the field's
+ * name stays the label's words; screen readers get aria-required instead.
+ */
 export function RequiredMark() {
   const t = useTranslations("floorScan.codeField");
   return (

@@ -60,10 +60,10 @@ export function MoreBags({ values, codeName, kgName, kgLabel, required, errors, 
                 {t("remove", { code })}
               </button>
             </div>
-            <label htmlFor={id} className="mt-2 block text-lg font-semibold">
-              {kgLabel} · {code}
+            <div className="mt-2 flex items-baseline">
+              <label htmlFor={id} className="block text-lg font-semibold">{kgLabel} · {code}</label>
               {required.has(at(kgName, i)) ? <RequiredMark /> : null}
-            </label>
+            </div>
             <input
               id={id}
               className="field-input min-h-14 text-2xl"

@@ -166,6 +166,9 @@ export function FloorActionForm({ action, lot, bands, userId, queuedId, tanks = 
     setQueueOwner(userId);
     void readQueuedWrite(queuedId).then((item) => {
       if (!item?.form) return;
+      // Opened from the queue panel on this same screen: leave the "kept on this phone" view.
+      setQueued(false);
+      setResult(null);
       setValues(item.form.values);
       setProblem({ message: item.lastError ?? "", fields: item.lastFields ?? {} });
     });
@@ -303,10 +306,10 @@ function FieldInput({ field, label, value, onChange, optionLabel, required, erro
   if (field.type === "code") return <CodeField id={id} label={label} value={value} onChange={onChange} onAppend={onAppend} taken={taken} required={required} errors={errors} />;
   return (
     <div>
-      <label htmlFor={id} className="block text-lg font-semibold">
-        {label}
+      <div className="flex items-baseline">
+        <label htmlFor={id} className="block text-lg font-semibold">{label}</label>
         {required ? <RequiredMark /> : null}
-      </label>
+      </div>
       {field.type === "select" ? (
         <select id={id} className={big} value={value} onChange={(e) => onChange(e.target.value)}>
           {field.options!.map((o) => <option key={o} value={o}>{optionLabel(o)}</option>)}
