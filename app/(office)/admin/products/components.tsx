@@ -27,7 +27,8 @@ export function ProductForm() {
   const [state, action, pending] = useActionState(createProductAction, initialFormState);
   const v = (name: string) => (state.ok ? "" : (state.values?.[name] ?? ""));
   return (
-    <form action={action} className="grid gap-4 sm:grid-cols-2" noValidate key={state.ok ? Date.now() : "form"} data-testid="product-form">
+    // React resets a form after its action; remounting on each answer puts back what was typed (or clears it once saved).
+    <form action={action} className="grid gap-4 sm:grid-cols-2" noValidate key={state.ok ? Date.now() : JSON.stringify(state.values ?? {})} data-testid="product-form">
       <div className="sm:col-span-2">
         <FormMessage state={state} />
       </div>
