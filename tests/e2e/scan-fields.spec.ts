@@ -60,7 +60,7 @@ test.beforeAll(async ({}, testInfo) => {
   await api.dispose();
 });
 
-test("the camera scans two bags in a row into one mash addition; the same bag again is refused", async ({ playwright }, testInfo) => {
+test("the camera scans two bags in a row into one mash addition; the same bag again is refused; an office code field scans too", async ({ playwright }, testInfo) => {
   test.setTimeout(120_000);
   const browser = await playwright.chromium.launch({ executablePath, args: [...CHROMIUM_ARGS, "--use-fake-device-for-media-stream", "--use-fake-ui-for-media-stream", `--use-file-for-fake-video-capture=${VIDEO}`] });
   const context = await browser.newContext({ baseURL: testInfo.project.use.baseURL, permissions: ["camera"], viewport: { width: 390, height: 844 }, hasTouch: true });
@@ -90,6 +90,11 @@ test("the camera scans two bags in a row into one mash addition; the same bag ag
   await expect(page.getByTestId("floor-result")).toBeVisible();
   // Both bags were drawn whole into the tank (14 kg each).
   for (const code of [made.steamedA, made.steamedB]) expect((await (await page.request.get(`/api/lots/${code}`)).json()).onHand).toBe(0);
+
+  // The office forms take a scan the same way: the receipt's lot code.
+  await page.goto("/receive");
+  await page.getByRole("button", { name: "Scan Lot code" }).click();
+  await expect(page.getByLabel("Lot code", { exact: true })).toHaveValue(new RegExp(`^(${made.steamedA}|${made.steamedB})$`), { timeout: 20_000 });
   await browser.close();
 });
 

@@ -2,6 +2,7 @@
 
 import { useActionState } from "react";
 import { useTranslations } from "next-intl";
+import { ScanCodeInput } from "@/components/floor/code-field";
 import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
 import { initialFormState } from "@/lib/form-state";
@@ -14,7 +15,7 @@ export function DispatchForm({ code, receivers }: { code: string; receivers: { i
   return (
     <form action={action} className="grid gap-4 sm:grid-cols-2" noValidate key={state.ok ? `ok-${state.message}` : "form"}>
       <div className="sm:col-span-2"><FormMessage state={state} /></div>
-      <FormField label={t("code")} name="code" required defaultValue={v("code", code)} errors={state.fields?.code ?? state.fields?.["inputs.0.lot"] ?? state.fields?.["inputs.0.quantity"]} className="field-input font-[family-name:var(--font-code)] uppercase" />
+      <ScanCodeInput id="code" name="code" label={t("code")} required defaultValue={v("code", code)} errors={state.fields?.code ?? state.fields?.["inputs.0.lot"] ?? state.fields?.["inputs.0.quantity"]} />
       <label>
         <span className="field-label">{t("to")}</span>
         <select name="counterpartyId" className="field-input" defaultValue={v("counterpartyId")}>

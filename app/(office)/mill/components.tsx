@@ -4,6 +4,7 @@ import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useTranslations } from "next-intl";
+import { CodeField } from "@/components/floor/code-field";
 import { postJson } from "@/lib/api-client";
 
 type Row = { lot: string; quantity: string };
@@ -92,11 +93,19 @@ export function PolishingRunForm() {
         {err("inputs")}
         {rows.map((r, n) => (
           <div key={n} className="flex flex-wrap items-start gap-3">
-            <label>
-              <span className="field-label">{t("harvestCode", { n: n + 1 })}</span>
-              <input className="field-input w-40 font-[family-name:var(--font-code)] uppercase" value={r.lot} onChange={(e) => setRows(rows.map((x, i) => (i === n ? { ...x, lot: e.target.value } : x)))} />
+            <div>
+              {/* A scan while this row holds a code adds the next harvest lot as a new row. */}
+              <CodeField
+                id={`harvest-${n}`}
+                variant="office"
+                label={t("harvestCode", { n: n + 1 })}
+                value={r.lot}
+                onChange={(lot) => setRows(rows.map((x, i) => (i === n ? { ...x, lot } : x)))}
+                onAppend={(lot) => setRows((now) => [...now.filter((x) => x.lot.trim() !== "" || x.quantity !== ""), { lot, quantity: "" }])}
+                taken={rows.map((x) => x.lot.trim().toUpperCase()).filter(Boolean)}
+              />
               {err(`inputs.${n}.lot`)}
-            </label>
+            </div>
             <label>
               <span className="field-label">{t("brownKg", { n: n + 1 })}</span>
               <input className="field-input w-32" inputMode="decimal" value={r.quantity} onChange={(e) => setRows(rows.map((x, i) => (i === n ? { ...x, quantity: e.target.value } : x)))} />

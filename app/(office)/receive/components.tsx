@@ -2,6 +2,7 @@
 
 import { useActionState } from "react";
 import { useTranslations } from "next-intl";
+import { ScanCodeInput } from "@/components/floor/code-field";
 import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
 import { initialFormState } from "@/lib/form-state";
@@ -14,7 +15,7 @@ export function ReceiveForm({ receivers }: { receivers: { id: string; name: stri
   return (
     <form action={action} className="grid gap-4 sm:grid-cols-2" noValidate key={state.ok ? `ok-${state.message}` : "form"}>
       <div className="sm:col-span-2"><FormMessage state={state} /></div>
-      <FormField label={t("code")} name="code" required defaultValue={v("code")} errors={state.fields?.code ?? state.fields?.["inputs.0.lot"]} className="field-input font-[family-name:var(--font-code)] uppercase" />
+      <ScanCodeInput id="code" name="code" label={t("code")} required defaultValue={v("code")} errors={state.fields?.code ?? state.fields?.["inputs.0.lot"]} />
       <FormField label={t("arrivalKg")} name="quantity" type="number" step="0.1" min="0" required defaultValue={v("quantity")} errors={state.fields?.quantity ?? state.fields?.["inputs.0.quantity"]} />
       <FormField label={t("slip")} name="referenceDoc" defaultValue={v("referenceDoc")} errors={state.fields?.referenceDoc} />
       <FormField label={t("place")} name="place" defaultValue={v("place")} errors={state.fields?.place} />

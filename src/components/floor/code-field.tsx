@@ -17,7 +17,13 @@ type Props = {
   taken?: readonly string[];
   required?: boolean;
   errors?: readonly string[];
-  big?: boolean;
+  /** The floor's large dark screens, or an office form's ordinary field. */
+  variant?: "floor" | "office";
+};
+
+const LOOK = {
+  floor: { label: "block text-lg font-semibold", input: "field-input min-h-14 text-2xl", button: "btn-quiet min-h-14 shrink-0 px-4", error: "notice-warn mt-1 text-base text-ink" },
+  office: { label: "field-label", input: "field-input", button: "btn-quiet shrink-0", error: "field-error" },
 };
 
 /**
@@ -25,7 +31,8 @@ type Props = {
  * code fills it (or, for several bags, is appended as another row). A code scanned twice
  * for the same field is refused, since the same bag drawn twice would double its weight.
  */
-export function CodeField({ id, name, label, value, onChange, onAppend, taken = [], required, errors, big = true }: Props) {
+export function CodeField({ id, name, label, value, onChange, onAppend, taken = [], required, errors, variant = "floor" }: Props) {
+  const look = LOOK[variant];
   const t = useTranslations("floorScan.codeField");
   const [scanning, setScanning] = useState(false);
   const [notice, setNotice] = useState<string | null>(null);
@@ -53,14 +60,14 @@ export function CodeField({ id, name, label, value, onChange, onAppend, taken = 
   return (
     <div data-testid={`code-field-${id}`}>
       <div className="flex items-baseline">
-        <label htmlFor={id} className="block text-lg font-semibold">{label}</label>
+        <label htmlFor={id} className={look.label}>{label}</label>
         {required ? <RequiredMark /> : null}
       </div>
       <div className="flex gap-2">
         <input
           id={id}
           name={name}
-          className={`field-input ${big ? "min-h-14 text-2xl" : ""} font-[family-name:var(--font-code)] uppercase`}
+          className={`${look.input} font-[family-name:var(--font-code)] uppercase`}
           autoCapitalize="characters"
           autoComplete="off"
           spellCheck={false}
@@ -71,12 +78,12 @@ export function CodeField({ id, name, label, value, onChange, onAppend, taken = 
           value={value}
           onChange={(e) => onChange(e.target.value)}
         />
-        <button type="button" className="btn-quiet min-h-14 shrink-0 px-4" aria-expanded={scanning} aria-controls={`${id}-scanner`} onClick={() => (setScanning((s) => !s), setNotice(null))}>
+        <button type="button" className={look.button} aria-expanded={scanning} aria-controls={`${id}-scanner`} onClick={() => (setScanning((s) => !s), setNotice(null))}>
           {scanning ? t("close") : t("scan")}
           <span className="sr-only"> {label}</span>
         </button>
       </div>
-      {errors?.length ? <p id={`${id}-error`} className="notice-warn mt-1 text-base text-ink" data-testid={`${id}-error`}>{errors.join(" ")}</p> : null}
+      {errors?.length ? <p id={`${id}-error`} className={look.error} data-testid={`${id}-error`}>{errors.join(" ")}</p> : null}
       {notice ? <p id={`${id}-notice`} role="alert" className="notice-warn mt-2 text-ink" data-testid={`${id}-notice`}>{notice}</p> : null}
       {scanning ? (
         <div id={`${id}-scanner`} className="mt-3">
@@ -98,4 +105,10 @@ export function RequiredMark() {
       *
     </span>
   );
+}
+
+/** For an office form posted as it is (a server action or a GET search): the field keeps its own value. */
+export function ScanCodeInput({ defaultValue = "", ...props }: Omit<Props, "value" | "onChange" | "variant"> & { defaultValue?: string }) {
+  const [value, setValue] = useState(defaultValue);
+  return <CodeField {...props} variant="office" value={value} onChange={setValue} />;
 }
