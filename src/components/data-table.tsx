@@ -15,10 +15,19 @@ import { useState } from "react";
 import { useTranslations } from "next-intl";
 import { csvText, saveCsvFile } from "@/lib/validation/csv";
 
-type Props<T> = { data: T[]; columns: ColumnDef<T, any>[]; pageSize?: number; label: string; testId?: string; exportName?: string };
+type Props<T> = {
+  data: T[];
+  columns: ColumnDef<T, any>[];
+  pageSize?: number;
+  label: string;
+  testId?: string;
+  exportName?: string;
+  /** A stable key per row, for rows whose cells hold state (a form's answer) while rows come and go. */
+  rowId?: (row: T) => string;
+};
 
 /** The office's table: sortable headers, one filter box over every column, pages, and a CSV of what it shows. */
-export function DataTable<T>({ data, columns, pageSize = 25, label, testId, exportName = "grainline-export" }: Props<T>) {
+export function DataTable<T>({ data, columns, pageSize = 25, label, testId, exportName = "grainline-export", rowId }: Props<T>) {
   const t = useTranslations("table");
   const tc = useTranslations("csv");
   const [sorting, setSorting] = useState<SortingState>([]);
@@ -29,6 +38,7 @@ export function DataTable<T>({ data, columns, pageSize = 25, label, testId, expo
     state: { sorting, globalFilter },
     onSortingChange: setSorting,
     onGlobalFilterChange: setGlobalFilter,
+    getRowId: rowId ? (row) => rowId(row) : undefined,
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
     getFilteredRowModel: getFilteredRowModel(),

@@ -3,6 +3,8 @@ import { PageHeader } from "@/components/page-header";
 import { KOJI_CHECKPOINTS, RICE_USES, type Band } from "@/domain/brewing";
 import { PUBLIC_FIELDS } from "@/lib/validation/settings";
 import { lastSettingsChange, readSettings, type BrewerySettings } from "@/server/settings";
+import { tankRegisterWithContents } from "@/server/tank-register";
+import { readVarietyList } from "@/server/variety-list";
 
 type BandGroup = "absorptionBands" | "steamGainBands" | "kojiBands";
 
@@ -20,6 +22,7 @@ export async function ReadOnlySettings() {
         </p>
       </PageHeader>
       <SettingsView current={readSettings()} />
+      <RegistersView />
     </div>
   );
 }
@@ -52,6 +55,31 @@ export async function SettingsView({ current }: { current: BrewerySettings }) {
         <ul className="text-sm">
           {PUBLIC_FIELDS.map((k) => (
             <li key={k}>{`${t(`public.${k}`)}: ${current.publicProvenance[k] ? t("shown") : t("hidden")}`}</li>
+          ))}
+        </ul>
+      </section>
+    </div>
+  );
+}
+
+/** The tank register and the variety list, as the auditor reads them. */
+async function RegistersView() {
+  const t = await getTranslations();
+  return (
+    <div className="max-w-3xl space-y-6">
+      <section className="panel space-y-2" data-testid="tank-register-view">
+        <h2 className="text-lg font-bold">{t("tankRegister.title")}</h2>
+        <ul className="text-sm">
+          {tankRegisterWithContents().map((tank) => (
+            <li key={tank.id}>{`${tank.name} · ${tank.capacityL} L · ${tank.location || "—"} · ${tank.active ? (tank.holds ?? t("tankRegister.empty")) : t("tankRegister.inactive")}`}</li>
+          ))}
+        </ul>
+      </section>
+      <section className="panel space-y-2" data-testid="variety-list-view">
+        <h2 className="text-lg font-bold">{t("varietyList.title")}</h2>
+        <ul className="text-sm">
+          {readVarietyList().map((v) => (
+            <li key={v.name}>{`${v.name} · ${t(`varietyList.kinds.${v.kind}`)}`}</li>
           ))}
         </ul>
       </section>

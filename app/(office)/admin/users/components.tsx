@@ -2,7 +2,7 @@
 
 import { useActionState, useState } from "react";
 import { useTranslations } from "next-intl";
-import type { ColumnDef } from "@tanstack/react-table";
+import type { CellContext, ColumnDef } from "@tanstack/react-table";
 import { DataTable } from "@/components/data-table";
 import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
@@ -25,8 +25,14 @@ export function UsersTable({ rows, manage }: { rows: UserRow[]; manage: boolean 
     { accessorKey: "partyName", header: t("users.party") },
     { accessorKey: "status", header: t("users.status"), cell: (c) => t(`users.statuses.${c.getValue()}`) },
   ];
-  if (manage) columns.push({ id: "change", header: t("users.actions"), cell: (c) => <UserChanges user={c.row.original} />, enableSorting: false });
-  return <DataTable data={rows} columns={columns} label={t("users.title")} testId="users-table" />;
+  if (manage) columns.push({ id: "change", header: t("users.actions"), cell: ChangeCell, enableSorting: false });
+  return <DataTable data={rows} columns={columns} label={t("users.title")} testId="users-table" rowId={(u) => u.id} />;
+}
+
+// One component for every render (flexRender mounts a cell function as a component): the
+// row's forms keep their answer when the table re-renders with the changed user.
+function ChangeCell({ row }: CellContext<UserRow, unknown>) {
+  return <UserChanges user={row.original} />;
 }
 
 function UserChanges({ user }: { user: UserRow }) {
