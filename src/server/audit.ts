@@ -1,8 +1,6 @@
 import "server-only";
-import { desc, eq } from "drizzle-orm";
-import { auditLog, users } from "@/db/schema";
+import { auditLog } from "@/db/schema";
 import type { DbOrTx } from "@/db/client";
-import { getDb } from "./db";
 
 export type AuditAction =
   | "user.signed-in"
@@ -23,7 +21,12 @@ export type AuditAction =
   | "lot.held"
   | "lot.released";
 
-/** Appends who did what; called inside the same transaction as the change it records. */
+/**
+ * Appends who did what; called inside the same transaction as the change it records. The audit
+ * record (src/server/audit-record.ts) words it from audit.actions.<action, dots as "_"> in the
+ * catalogue, with the detail's plain values; tests/integration/audit-record.test.ts fails for an
+ * action that has no such summary.
+ */
 export function recordAudit(
   db: DbOrTx,
   entry: { userId: string | null; action: AuditAction; subject: string; detail?: Record<string, unknown> },
@@ -37,16 +40,4 @@ export function recordAudit(
       at: new Date(),
     })
     .run();
-}
-
-/** The audit log with each actor's name, newest first. */
-export function listAudit(limit = 500) {
-  return getDb()
-    .select({ id: auditLog.id, at: auditLog.at, userName: users.name, action: auditLog.action, subject: auditLog.subject, detail: auditLog.detail })
-    .from(auditLog)
-    .leftJoin(users, eq(users.id, auditLog.userId))
-    .orderBy(desc(auditLog.id))
-    .limit(limit)
-    .all()
-    .map((row) => ({ ...row, userName: row.userName ?? "—" }));
 }
