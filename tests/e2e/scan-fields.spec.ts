@@ -95,6 +95,10 @@ test("the camera scans two bags in a row into one mash addition; the same bag ag
   await page.goto("/receive");
   await page.getByRole("button", { name: "Scan Lot code" }).click();
   await expect(page.getByLabel("Lot code", { exact: true })).toHaveValue(new RegExp(`^(${made.steamedA}|${made.steamedB})$`), { timeout: 20_000 });
+  // And the office lot list's code search.
+  await page.goto("/lots");
+  await page.getByRole("button", { name: "Scan Code contains" }).click();
+  await expect(page.getByLabel("Code contains", { exact: true })).toHaveValue(new RegExp(`^(${made.steamedA}|${made.steamedB})$`), { timeout: 20_000 });
   await browser.close();
 });
 

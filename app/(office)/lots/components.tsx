@@ -4,6 +4,7 @@ import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { flexRender, getCoreRowModel, useReactTable, type ColumnDef, type SortingState } from "@tanstack/react-table";
 import { useFormatter, useTranslations } from "next-intl";
+import { ScanCodeInput } from "@/components/floor/code-field";
 import { GRADES } from "@/domain/grades";
 import { LOT_KIND_LIST } from "@/domain/steps";
 import type { ApiLot } from "@/server/lots";
@@ -57,7 +58,7 @@ export function LedgerLotsTable({ rows, total, pageSize, query, holders }: { row
         {holders.length ? <Select name="partyId" label={t("lot.holder")} value={query.partyId} all={t("lotsPage.allHolders")} options={holders} /> : null}
         <label><span className="field-label">{t("lotsPage.variety")}</span><input name="variety" defaultValue={query.variety} className="field-input w-40" /></label>
         <label><span className="field-label">{t("lotsPage.cropYear")}</span><input name="cropYear" inputMode="numeric" defaultValue={query.cropYear} className="field-input w-24" /></label>
-        <label><span className="field-label">{t("lotsPage.search")}</span><input name="q" defaultValue={query.q} className="field-input w-36 font-[family-name:var(--font-code)] uppercase" /></label>
+        <div className="w-56"><ScanCodeInput id="lots-q" name="q" label={t("lotsPage.search")} defaultValue={query.q} /></div>
         <button type="submit" className="btn">{t("lotsPage.apply")}</button>
         <Link href={pathname} className="btn-quiet no-underline">{t("lotsPage.clear")}</Link>
         <span className="ml-auto text-sm text-ink-soft">{t("lotsPage.total", { count: total })}</span>
