@@ -3,15 +3,16 @@ import type { InputHTMLAttributes } from "react";
 type Props = InputHTMLAttributes<HTMLInputElement> & { label: string; name: string; errors?: string[] };
 
 /** A labelled input with its errors beside it, tied together for screen readers. */
-export function FormField({ label, name, errors, ...input }: Props) {
-  const errorId = `${name}-error`;
+export function FormField({ label, name, errors, id = name, ...input }: Props) {
+  // Two forms on one page may share a field name: an id of their own keeps each label to its input.
+  const errorId = `${id}-error`;
   return (
     <div>
-      <label htmlFor={name} className="field-label">
+      <label htmlFor={id} className="field-label">
         {label}
       </label>
       <input
-        id={name}
+        id={id}
         name={name}
         className="field-input"
         aria-invalid={errors?.length ? true : undefined}
