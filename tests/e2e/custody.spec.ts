@@ -6,7 +6,7 @@ test("a receipt the grower never dispatched waits for the grower's word; confirm
   await signInAndLand(page, "grower@example.com");
   const harvest = page.getByTestId("harvest-form");
   await harvest.getByLabel("Field").selectOption({ index: 0 });
-  await harvest.getByLabel("Variety").fill("Yamada Nishiki");
+  await harvest.getByLabel("Variety").selectOption("Yamada Nishiki");
   await harvest.getByLabel("Brown rice (kg)").fill("300");
   await harvest.getByLabel("Moisture (%)").fill("14.6");
   await harvest.getByLabel("Inspection grade").selectOption("2");

@@ -14,7 +14,7 @@ test("a grower registers a field and a harvest, prints its label; the miller pol
 
   const harvest = page.getByTestId("harvest-form");
   await harvest.getByLabel("Field").selectOption({ label: "Maple Strip" });
-  await harvest.getByLabel("Variety").fill("Yamada Nishiki");
+  await harvest.getByLabel("Variety").selectOption("Yamada Nishiki");
   await harvest.getByLabel("Brown rice (kg)").fill("480");
   await harvest.getByLabel("Moisture (%)").fill("14.5");
   await harvest.getByLabel("Inspection grade").selectOption("1");

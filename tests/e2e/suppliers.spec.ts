@@ -16,7 +16,7 @@ test("admin records a receipt and a payment; the grower sees what is owed, the l
   await page.goto("/fields");
   const harvest = page.getByTestId("harvest-form");
   await harvest.getByLabel("Field").selectOption({ label: "Nakase Family Paddies — River Flat" });
-  await harvest.getByLabel("Variety").fill("Omachi");
+  await harvest.getByLabel("Variety").selectOption("Omachi");
   await harvest.getByLabel("Crop year").fill("2026");
   await harvest.getByLabel("Brown rice (kg)").fill("630");
   await harvest.getByLabel("Moisture (%)").fill("14.7");
