@@ -7,10 +7,29 @@ import { signIn, signInAndLand } from "./helpers";
 const nav = (page: Page, name: string) => page.getByRole("navigation", { name: "Office" }).getByRole("link", { name, exact: true }).click();
 const userRow = (page: Page, email: string) => page.getByTestId("users-table").getByRole("row").filter({ hasText: email });
 
-async function sessionOf(browser: Browser, email: string) {
-  const page = await (await browser.newContext()).newPage();
-  await signInAndLand(page, email);
-  return page;
+/**
+ * A user of this spec's own, invited from the users page and signed in in a second browser: the
+ * demo users stay as other specs expect them. Returns the new user's signed-in page.
+ */
+async function invitedUser(page: Page, browser: Browser, name: string, email: string, role: string) {
+  const invite = page.locator("form").filter({ has: page.getByRole("button", { name: "Send invitation" }) });
+  await invite.getByLabel("Name").fill(name);
+  await invite.getByLabel("E-mail").fill(email);
+  await invite.getByLabel("Role").selectOption(role);
+  await invite.getByRole("button", { name: "Send invitation" }).click();
+  await expect(invite.getByTestId("form-message")).toContainText(email);
+  await nav(page, "Outbox");
+  await page.getByTestId("outbox-table").getByRole("row").filter({ hasText: email }).getByRole("link").click();
+  const href = await page.getByTestId("outbox-message").getByRole("link", { name: /\/set-password\// }).getAttribute("href");
+  const them = await (await browser.newContext()).newPage();
+  await them.goto(href!);
+  await them.getByLabel("New password", { exact: true }).fill("tank-room-evening");
+  await them.getByLabel("Repeat the password").fill("tank-room-evening");
+  await them.getByRole("button", { name: "Save password" }).click();
+  await expect(them.getByTestId("form-message")).toHaveText("Your password is saved. Sign in with it now.");
+  await signInAndLand(them, email, "tank-room-evening");
+  await nav(page, "Users");
+  return them;
 }
 
 /** What the sign-in page says to a wrong password: the words a deactivated user must get too. */
@@ -35,33 +54,35 @@ test("the admin deactivates, reactivates and re-roles users; the invite form off
     for (const option of options) expect(option, role).toMatch(new RegExp(` — ${kind}$`));
   }
 
-  // Deactivation ends the grower's session at once; their sign-in then reads like a wrong password.
-  const grower2 = await sessionOf(browser, "grower2@example.com");
-  await userRow(page, "grower2@example.com").getByRole("button", { name: "Deactivate" }).click();
-  await expect(userRow(page, "grower2@example.com")).toContainText("Deactivated");
-  await expect(userRow(page, "grower2@example.com").getByTestId("form-message")).toHaveText("Nakase Emi is deactivated: signed out everywhere, and cannot sign in.");
-  await grower2.reload();
-  await expect(grower2).toHaveURL(/\/sign-in$/);
-  const wrong = await wrongPasswordMessage(grower2);
-  await signIn(grower2, "grower2@example.com");
-  await expect(grower2.getByTestId("form-message")).toHaveText(wrong);
-  await expect(grower2).toHaveURL(/\/sign-in$/);
+  // Deactivation ends the user's session at once; their sign-in then reads like a wrong password.
+  const stamp = Date.now();
+  const [email, other] = [`sugi.${stamp}@example.com`, `noda.${stamp}@example.com`];
+  const sugi = await invitedUser(page, browser, "Sugi Nanami", email, "sales");
+  await userRow(page, email).getByRole("button", { name: "Deactivate" }).click();
+  await expect(userRow(page, email)).toContainText("Deactivated");
+  await expect(userRow(page, email).getByTestId("form-message")).toHaveText("Sugi Nanami is deactivated: signed out everywhere, and cannot sign in.");
+  await sugi.reload();
+  await expect(sugi).toHaveURL(/\/sign-in$/);
+  const wrong = await wrongPasswordMessage(sugi);
+  await signIn(sugi, email, "tank-room-evening");
+  await expect(sugi.getByTestId("form-message")).toHaveText(wrong);
+  await expect(sugi).toHaveURL(/\/sign-in$/);
 
-  await userRow(page, "grower2@example.com").getByRole("button", { name: "Reactivate" }).click();
-  await expect(userRow(page, "grower2@example.com")).toContainText("Active");
-  await signInAndLand(grower2, "grower2@example.com");
+  await userRow(page, email).getByRole("button", { name: "Reactivate" }).click();
+  await expect(userRow(page, email)).toContainText("Active");
+  await signInAndLand(sugi, email, "tank-room-evening");
 
   // A role change offers only the roles of the user's party, and signs the user out.
-  const sales = await sessionOf(browser, "sales@example.com");
-  const salesRow = userRow(page, "sales@example.com");
-  const offered = await salesRow.getByLabel("New role for Hayashi Aoi").locator("option").allInnerTexts();
+  const noda = await invitedUser(page, browser, "Noda Ritsu", other, "sales");
+  const row = userRow(page, other);
+  const offered = await row.getByLabel("New role for Noda Ritsu").locator("option").allInnerTexts();
   expect(offered.sort()).toEqual(["Auditor", "Brewer", "Office admin", "Sales"]);
-  await salesRow.getByLabel("New role for Hayashi Aoi").selectOption("brewer");
-  await salesRow.getByRole("button", { name: "Change role" }).click();
-  await expect(salesRow.getByTestId("form-message")).toHaveText("Hayashi Aoi is now Brewer, and signs in again under it.");
-  await expect(salesRow).toContainText("Brewer");
-  await sales.reload();
-  await expect(sales).toHaveURL(/\/sign-in$/);
+  await row.getByLabel("New role for Noda Ritsu").selectOption("brewer");
+  await row.getByRole("button", { name: "Change role" }).click();
+  await expect(row.getByTestId("form-message")).toHaveText("Noda Ritsu is now Brewer, and signs in again under it.");
+  await expect(row).toContainText("Brewer");
+  await noda.reload();
+  await expect(noda).toHaveURL(/\/sign-in$/);
 
   // The last active admin cannot switch themselves off.
   const own = userRow(page, "admin@example.com");
@@ -79,9 +100,9 @@ test("the audit record reads as sentences: events, money, statements and user ch
     ["Polishing run by", /Polishing run by Shirotae Polishing Works: H26-\d{4} \([\d.]+ kg\) → P26-\d{4}/],
     ["Paid Ikeda Farm", /Paid Ikeda Farm ¥[\d,]+/],
     ["Issued statement S-2025-0001", /Issued statement S-2025-0001 to Ikeda Farm for \d{4}-\d\d-\d\d to \d{4}-\d\d-\d\d; balance ¥[\d,]+/],
-    ["Correction by", /Correction by .+ of an earlier record — Polishing run: .+ Reason: .+/],
-    ["Deactivated Nakase", /Deactivated Nakase Emi; their sessions ended/],
-    ["Changed the role", /Changed the role of Hayashi Aoi from Sales to Brewer; their sessions ended/],
+    ["earlier record — Polishing run", /Correction by .+ of an earlier record — Polishing run: .+ Reason: .+/],
+    ["Deactivated Sugi", /Deactivated Sugi Nanami; their sessions ended/],
+    ["Changed the role of Noda", /Changed the role of Noda Ritsu from Sales to Brewer; their sessions ended/],
   ] as const) {
     // Filled again until the table answers: a fill before hydration is not seen by React.
     await expect(async () => {
