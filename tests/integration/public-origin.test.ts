@@ -120,6 +120,6 @@ describe.each(SETTINGS)("links under a forged Host and X-Forwarded-Host, $settin
     const res = await labelPng(jsonRequest(`/api/lots/${lot}/label.png`, { cookie: grower, headers: FORGED }), { params: Promise.resolve({ code: lot }) });
     expect(res.status).toBe(200);
     const png = PNG.sync.read(Buffer.from(await res.arrayBuffer()));
-    expect(jsQR(Uint8ClampedArray.from(png.data), png.width, png.height)?.data).toBe(`${origin}/lots/${lot}`);
+    expect(jsQR(Uint8ClampedArray.from(png.data), png.width, png.height)?.data).toBe(`${origin}/l/${lot}`);
   });
 });
