@@ -58,6 +58,10 @@ test("a grower registers a field and a harvest, prints its label; the miller pol
   await run.getByLabel("Bran out (kg)").fill("385");
   await run.getByLabel("Target polishing ratio (%)").fill("60");
   await run.getByRole("button", { name: "Record polishing run" }).click();
+  // Two varieties in one run: the mill confirms the mix (the polished lot keeps both, with shares).
+  await expect(run.getByRole("alert").filter({ hasText: "different varieties" })).toBeVisible();
+  await run.getByLabel("I confirm polishing these varieties together").check();
+  await run.getByRole("button", { name: "Record polishing run" }).click();
   const result = page.getByTestId("polishing-result");
   await expect(result.getByRole("status")).toContainText(/polished lot P26-\d{4}/);
   const polished = /P26-\d{4}/.exec((await result.getByRole("status").textContent()) ?? "")![0];
