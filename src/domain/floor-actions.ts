@@ -58,7 +58,7 @@ export function portionOf(attributes: Record<string, unknown>): "koji" | "starte
   return attributes.use === "koji" || attributes.use === "starter" ? attributes.use : null;
 }
 
-export type FloorLot = { kind: string; attributes: Record<string, unknown>; party: { id: string; name: string }; inTransitTo?: { id: string; name: string } };
+export type FloorLot = { kind: string; attributes: Record<string, unknown>; party: { id: string; name: string }; inTransitTo?: { id: string; name: string }; hold?: unknown };
 export type FloorOffer = { state: "actions"; actions: FloorAction[] } | { state: "in-transit"; to: string } | { state: "held-elsewhere"; by: string };
 
 /**
@@ -69,7 +69,9 @@ export type FloorOffer = { state: "actions"; actions: FloorAction[] } | { state:
 export function floorOffer(actor: Actor, lot: FloorLot): FloorOffer {
   if (lot.inTransitTo) return { state: "in-transit", to: lot.inTransitTo.name };
   if (!canActOnLot(actor, { partyId: lot.party.id })) return { state: "held-elsewhere", by: lot.party.name };
-  return { state: "actions", actions: actionsFor(lot.kind as LotKind, lot.attributes).filter((a) => mayRecord(actor, STEP_OF_ACTION[a])) };
+  // A lot on hold is drawn, shipped or bottled by no one until released; readings still go on.
+  const allowed = (a: FloorAction) => mayRecord(actor, STEP_OF_ACTION[a]) && (!lot.hold || STEP_OF_ACTION[a] === "measuring");
+  return { state: "actions", actions: actionsFor(lot.kind as LotKind, lot.attributes).filter(allowed) };
 }
 
 export function mayRecord(actor: Actor, step: RecordableStep): boolean {

@@ -41,7 +41,8 @@ test.describe("products", () => {
     await brewer.getByRole("link", { name: "Bottle", exact: true }).first().click();
     const bottling = brewer.getByTestId("floor-form");
     const picker = bottling.getByLabel("Product", { exact: true });
-    expect(await picker.locator("option").allTextContents()).toContain("Asagiri Junmai Ginjo · junmai ginjo · 720 mL");
+    // Awaited: the bottling page may still be loading after the tap.
+    await expect(picker.locator("option").filter({ hasText: "Asagiri Junmai Ginjo · junmai ginjo · 720 mL" })).toHaveCount(1);
     await picker.selectOption({ label: "Asagiri Junmai Ginjo · junmai ginjo · 720 mL" });
     // Picking the product filled its GTIN.
     await expect(bottling.getByLabel("GTIN on the label")).toHaveValue(`0${JUNMAI_GINJO_GTIN}`);
