@@ -97,3 +97,36 @@ test("an answer from the server is shown, never queued; a write refused on resen
   await expect(page.getByTestId("queue-panel")).toHaveCount(0);
   expect(await moistureReadings(page.request, 12.8)).toHaveLength(0);
 });
+
+test("a moisture reading refused on resend opens again in its box, as typed, with the answer; fixed, it is recorded once", async ({ page, context }) => {
+  await signInAndLand(page, "brewer@example.com");
+  await page.goto(`/scan?code=${LOT}`);
+  const card = page.getByTestId("floor-lot-card");
+  // The server's answer to the first resend is a refusal (stood in for here); later ones reach it.
+  const refusal = { error: { code: "invalid", message: "Some fields need correcting.", fields: { "measurements.0.value": ["Check the reading against the meter."] } } };
+  let refused = false;
+  await page.route("**/api/events", async (route) => {
+    if (refused) return route.continue();
+    refused = true;
+    await route.fulfill({ status: 422, json: refusal });
+  });
+
+  await context.setOffline(true);
+  await card.getByLabel("Moisture (%)").fill("13.7");
+  await card.getByRole("button", { name: "Record moisture" }).click();
+  const panel = page.getByTestId("queue-panel");
+  await expect(panel.getByTestId("queue-count")).toHaveText("1 record waiting to be sent");
+  await context.setOffline(false);
+  await expect(panel).toContainText("Not accepted: Some fields need correcting.");
+
+  await panel.getByRole("link", { name: "Open to fix" }).click();
+  const box = page.getByTestId("floor-lot-card").getByTestId("record-moisture");
+  await expect(box.getByLabel("Moisture (%)")).toHaveValue("13.7");
+  await expect(box.getByRole("alert")).toHaveText("Not recorded: Some fields need correcting. Check the reading against the meter.");
+  await box.getByLabel("Moisture (%)").fill("13.6");
+  await box.getByRole("button", { name: "Record moisture" }).click();
+  await expect(box.getByRole("status")).toHaveText(`Moisture 13.6 % recorded for ${LOT}.`);
+  await expect(page.getByTestId("queue-panel")).toHaveCount(0);
+  expect(await moistureReadings(page.request, 13.6)).toHaveLength(1);
+  expect(await moistureReadings(page.request, 13.7)).toHaveLength(0);
+});

@@ -57,7 +57,7 @@ export function FloorLotCard({ lot, actor }: { lot: ApiLot; actor: Actor }) {
           ))}
         </ul>
       </nav>
-      {lot.kind === "polished" && offer.state === "actions" && mayRecord(actor, STEP_OF_ACTION.measure) ? <RecordMoisture key={lot.code} code={lot.code} /> : null}
+      {lot.kind === "polished" && offer.state === "actions" && mayRecord(actor, STEP_OF_ACTION.measure) ? <RecordMoisture key={lot.code} code={lot.code} userId={actor.id} /> : null}
       <p>
         <Link href={`/lots/${encodeURIComponent(lot.code)}`} className="inline-flex min-h-12 items-center text-koji-pale">
           {t("floorScan.card.fullRecord", { code: lot.code })}

@@ -1,8 +1,9 @@
 "use client";
 
 import { useFormatter, useTranslations } from "next-intl";
-import { useState } from "react";
-import { submitFloorWrite } from "@/lib/offline-queue";
+import { useSearchParams } from "next/navigation";
+import { useEffect, useState } from "react";
+import { discardQueuedWrite, keepRefusedWrite, readQueuedWrite, setQueueOwner, submitFloorWrite } from "@/lib/offline-queue";
 
 // Polished rice is soaked at about 13–15 % moisture; 40 % is far beyond any dry rice and
 // catches a soaked weight typed into the wrong box (common practice).
@@ -10,13 +11,31 @@ const MAX_DRY_MOISTURE_PCT = 40;
 
 type Outcome = { tone: "ok" | "queued" | "error" | "invalid"; text: string } | null;
 
+const refusal = (message: string | undefined, fields: Record<string, string[]> | undefined) => [message, ...Object.values(fields ?? {}).flat()].filter(Boolean).join(" ");
+
 /** A moisture reading on a polished lot, as a `measuring` event that draws nothing. */
-export function RecordMoisture({ code }: { code: string }) {
+export function RecordMoisture({ code, userId }: { code: string; userId: string }) {
   const t = useTranslations("floorScan.moisture");
   const format = useFormatter();
   const [value, setValue] = useState("");
   const [busy, setBusy] = useState(false);
   const [outcome, setOutcome] = useState<Outcome>(null);
+  const [queuedId, setQueuedId] = useState<string | null>(null);
+  const form = { href: `/scan?code=${encodeURIComponent(code)}`, values: { moisturePct: value } };
+
+  // A reading the server refused from the queue opens again here ("Open to fix"), as typed, with its answer.
+  const opened = useSearchParams().get("queued");
+  useEffect(() => {
+    const id = opened;
+    if (!id) return;
+    setQueueOwner(userId);
+    void readQueuedWrite(id).then((item) => {
+      if (!item?.form) return;
+      setQueuedId(id);
+      setValue(item.form.values.moisturePct ?? "");
+      setOutcome({ tone: "error", text: t("refused", { message: refusal(item.lastError, item.lastFields) }) });
+    });
+  }, [opened, userId, t]);
 
   const record = async (event: React.FormEvent) => {
     event.preventDefault();
@@ -28,16 +47,21 @@ export function RecordMoisture({ code }: { code: string }) {
     setBusy(true);
     const shown = format.number(pct, { maximumFractionDigits: 1 });
     const body = { step: "measuring", inputs: [{ lot: code, quantity: 0 }], measurements: [{ name: "moisturePct", value: pct, unit: "%" }] };
-    const written = await submitFloorWrite<{ id: number }>("/api/events", body, t("queueLabel", { value: shown, code }));
+    const written = await submitFloorWrite<{ id: number }>("/api/events", body, t("queueLabel", { value: shown, code }), form);
     setBusy(false);
     if (written.state === "queued") setOutcome({ tone: "queued", text: t("queued") });
     else if (written.result.ok) setOutcome({ tone: "ok", text: t("recorded", { value: shown, code }) });
     else {
       const { message, code: reason, fields } = written.result.error;
-      const detail = [message || reason, ...Object.values(fields ?? {}).flat()].join(" ");
-      setOutcome({ tone: "error", text: t("refused", { message: detail }) });
+      setOutcome({ tone: "error", text: t("refused", { message: refusal(message || reason, fields) }) });
+      // Refused again: it stays waiting, as now typed, until it is fixed or discarded.
+      if (queuedId) await keepRefusedWrite(queuedId, form, body, message || reason, fields);
     }
-    if (written.state === "queued" || written.result.ok) setValue("");
+    if (written.state === "queued" || written.result.ok) {
+      if (queuedId) await discardQueuedWrite(queuedId);
+      setQueuedId(null);
+      setValue("");
+    }
   };
 
   return (
