@@ -1,19 +1,10 @@
 import { expect, test } from "@playwright/test";
-import { signInAndLand, signOut } from "./helpers";
+import { registerHarvestOnForm, signInAndLand, signOut } from "./helpers";
 
 test("a receipt the grower never dispatched waits for the grower's word; confirmed, the lot passes to the mill", async ({ page }) => {
   // Grower: a harvest lot, not dispatched.
   await signInAndLand(page, "grower@example.com");
-  const harvest = page.getByTestId("harvest-form");
-  await harvest.getByLabel("Field").selectOption({ index: 0 });
-  await harvest.getByLabel("Variety").selectOption("Yamada Nishiki");
-  await harvest.getByLabel("Brown rice (kg)").fill("300");
-  await harvest.getByLabel("Moisture (%)").fill("14.6");
-  await harvest.getByLabel("Inspection grade").selectOption("2");
-  await harvest.getByLabel("Bags").fill("5");
-  await harvest.getByRole("button", { name: "Register harvest" }).click();
-  await expect(harvest.getByTestId("form-message")).toContainText(/Harvest lot H26-\d{4} registered/);
-  const code = /H26-\d{4}/.exec((await harvest.getByTestId("form-message").textContent()) ?? "")![0];
+  const { code } = await registerHarvestOnForm(page, { field: { index: 0 }, variety: "Yamada Nishiki", brownKg: "300", moisturePct: "14.6", grade: "2", bags: "5" });
   await signOut(page);
 
   // Miller: the bags are in the yard but no slip was recorded; nothing moves.

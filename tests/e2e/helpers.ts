@@ -19,3 +19,21 @@ export async function signOut(page: Page) {
   await page.getByRole("button", { name: "Sign out" }).click();
   await expect(page).toHaveURL(/\/sign-in$/);
 }
+
+export type HarvestTyped = { field: { label: string } | { index: number }; variety: string; brownKg: string; moisturePct: string; grade: string; bags: string; cropYear?: string };
+
+/** Fills the harvest form on the current page and registers it; answers the new lot's code and the form. */
+export async function registerHarvestOnForm(page: Page, h: HarvestTyped) {
+  const form = page.getByTestId("harvest-form");
+  await form.getByLabel("Field").selectOption(h.field);
+  await form.getByLabel("Variety").selectOption(h.variety);
+  if (h.cropYear) await form.getByLabel("Crop year").fill(h.cropYear);
+  await form.getByLabel("Brown rice (kg)").fill(h.brownKg);
+  await form.getByLabel("Moisture (%)").fill(h.moisturePct);
+  await form.getByLabel("Inspection grade").selectOption(h.grade);
+  await form.getByLabel("Bags").fill(h.bags);
+  await form.getByRole("button", { name: "Register harvest" }).click();
+  const saved = form.getByTestId("form-message");
+  await expect(saved).toContainText(/Harvest lot H26-\d{4} registered/);
+  return { code: /H26-\d{4}/.exec((await saved.textContent()) ?? "")![0], form };
+}

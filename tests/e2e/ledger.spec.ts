@@ -1,5 +1,5 @@
 import { expect, test } from "@playwright/test";
-import { signInAndLand, signOut } from "./helpers";
+import { registerHarvestOnForm, signInAndLand, signOut } from "./helpers";
 
 test("a grower registers a field and a harvest, prints its label; the miller polishes it with another lot", async ({ page }) => {
   // Grower: a new paddy, then a harvest lot on it.
@@ -12,17 +12,7 @@ test("a grower registers a field and a harvest, prints its label; the miller pol
   await fieldForm.getByRole("button", { name: "Save field" }).click();
   await expect(page.getByTestId("fields-table")).toContainText("Maple Strip");
 
-  const harvest = page.getByTestId("harvest-form");
-  await harvest.getByLabel("Field").selectOption({ label: "Maple Strip" });
-  await harvest.getByLabel("Variety").selectOption("Yamada Nishiki");
-  await harvest.getByLabel("Brown rice (kg)").fill("480");
-  await harvest.getByLabel("Moisture (%)").fill("14.5");
-  await harvest.getByLabel("Inspection grade").selectOption("1");
-  await harvest.getByLabel("Bags").fill("8");
-  await harvest.getByRole("button", { name: "Register harvest" }).click();
-  const saved = harvest.getByTestId("form-message");
-  await expect(saved).toContainText(/Harvest lot H26-\d{4} registered/);
-  const code = /H26-\d{4}/.exec((await saved.textContent()) ?? "")![0];
+  const { code, form: harvest } = await registerHarvestOnForm(page, { field: { label: "Maple Strip" }, variety: "Yamada Nishiki", brownKg: "480", moisturePct: "14.5", grade: "1", bags: "8" });
 
   await harvest.getByRole("link", { name: "Print bag labels" }).click();
   await expect(page).toHaveURL(new RegExp(`/labels\\?codes=${code}`));

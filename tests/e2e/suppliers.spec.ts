@@ -1,7 +1,7 @@
 import { readFile } from "node:fs/promises";
 import { expect, test } from "@playwright/test";
 import { pdfText } from "../support/pdf-text";
-import { signInAndLand, signOut } from "./helpers";
+import { registerHarvestOnForm, signInAndLand, signOut } from "./helpers";
 
 /*
  * Nakase Family Paddies (grower2) is seeded with 1,436,400 yen owed, all on a statement; no
@@ -14,17 +14,7 @@ test("admin records a receipt and a payment; the grower sees what is owed, the l
   // Admin: a harvest lot of 630 kg on a Nakase field, received at the brewery.
   await signInAndLand(page, "admin@example.com");
   await page.goto("/fields");
-  const harvest = page.getByTestId("harvest-form");
-  await harvest.getByLabel("Field").selectOption({ label: "Nakase Family Paddies — River Flat" });
-  await harvest.getByLabel("Variety").selectOption("Omachi");
-  await harvest.getByLabel("Crop year").fill("2026");
-  await harvest.getByLabel("Brown rice (kg)").fill("630");
-  await harvest.getByLabel("Moisture (%)").fill("14.7");
-  await harvest.getByLabel("Inspection grade").selectOption("1");
-  await harvest.getByLabel("Bags").fill("11");
-  await harvest.getByRole("button", { name: "Register harvest" }).click();
-  await expect(harvest.getByTestId("form-message")).toContainText(/Harvest lot H26-\d{4} registered/);
-  const code = /H26-\d{4}/.exec((await harvest.getByTestId("form-message").textContent()) ?? "")![0];
+  const { code } = await registerHarvestOnForm(page, { field: { label: "Nakase Family Paddies — River Flat" }, variety: "Omachi", cropYear: "2026", brownKg: "630", moisturePct: "14.7", grade: "1", bags: "11" });
 
   // The grower's delivery slip, recorded by the office for the grower, then the receipt.
   await page.goto(`/dispatch?code=${code}`);
