@@ -35,6 +35,8 @@ export const users = sqliteTable(
     // Null until the invited person sets a password through their link.
     passwordHash: text("password_hash"),
     disabledAt: integer("disabled_at", { mode: "timestamp_ms" }),
+    // The person's own language choice (a setting, not a record); null follows the browser.
+    locale: text("locale", { enum: ["ja", "en"] }),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex("users_email_unique").on(t.email)],
