@@ -1,0 +1,45 @@
+import { describe, expect, it } from "vitest";
+import { dayIn, formatDay, formatDayTime, isTimeZone, startOfDayIn } from "./dates";
+
+// Offsets from the IANA tz database: Asia/Tokyo is UTC+9 with no DST; Europe/London is UTC+0
+// in winter and UTC+1 (BST) from the last Sunday of March to the last Sunday of October
+// (2026: 29 March and 25 October); America/New_York UTC−5/−4, DST from 8 March 2026.
+describe("dates in the brewery's time zone", () => {
+  const event = new Date("2026-10-02T22:30:00Z");
+
+  it("an event late on 2 October UTC is 3 October in Tokyo and 2 October in London", () => {
+    expect(formatDay(event, "ja", "Asia/Tokyo")).toBe("2026/10/03");
+    expect(formatDay(event, "ja", "Europe/London")).toBe("2026/10/02");
+    expect(formatDay(event, "en", "Asia/Tokyo")).toBe("Oct 3, 2026");
+    expect(dayIn(event, "Asia/Tokyo")).toBe("2026-10-03");
+    expect(dayIn(event, "Europe/London")).toBe("2026-10-02");
+  });
+
+  it("day and time on a 24-hour clock", () => {
+    const at = new Date("2026-10-03T05:05:00Z");
+    expect(formatDayTime(at, "ja", "Asia/Tokyo")).toBe("2026/10/03 14:05");
+    expect(formatDayTime(at, "en", "Asia/Tokyo")).toBe("Oct 3, 2026, 14:05");
+    expect(formatDayTime(at, "ja", "Europe/London")).toBe("2026/10/03 06:05");
+  });
+
+  it("a bare calendar day is never moved by the zone", () => {
+    expect(formatDay("2026-10-03", "ja", "America/New_York")).toBe("2026/10/03");
+    expect(formatDay("2026-10-03", "en", "Pacific/Kiritimati")).toBe("Oct 3, 2026");
+  });
+
+  it("the start of a day in a zone, DST included", () => {
+    expect(startOfDayIn("2026-10-03", "Asia/Tokyo").toISOString()).toBe("2026-10-02T15:00:00.000Z");
+    expect(startOfDayIn("2026-07-01", "Europe/London").toISOString()).toBe("2026-06-30T23:00:00.000Z");
+    expect(startOfDayIn("2026-12-01", "Europe/London").toISOString()).toBe("2026-12-01T00:00:00.000Z");
+    expect(startOfDayIn("2026-03-08", "America/New_York").toISOString()).toBe("2026-03-08T05:00:00.000Z");
+    expect(startOfDayIn("2026-03-09", "America/New_York").toISOString()).toBe("2026-03-09T04:00:00.000Z");
+  });
+
+  it("zone names are checked against the runtime's IANA list", () => {
+    expect(isTimeZone("Asia/Tokyo")).toBe(true);
+    expect(isTimeZone("Europe/London")).toBe(true);
+    expect(isTimeZone("Asia/Osaka")).toBe(false);
+    expect(isTimeZone("JST")).toBe(false);
+    expect(isTimeZone("")).toBe(false);
+  });
+});
