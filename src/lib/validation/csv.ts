@@ -69,6 +69,11 @@ export type ImportRequest = z.infer<typeof importRequestSchema>;
 
 export const dateRangeSchema = z.object({ from: z.iso.date(), to: z.iso.date() });
 
+/** A CSV download's `?encoding=`: UTF-8 with a BOM by default, or Shift_JIS (CP932) for older spreadsheets. */
+export const CSV_DOWNLOAD_ENCODINGS = ["utf-8", "shift_jis"] as const;
+export type CsvDownloadEncoding = (typeof CSV_DOWNLOAD_ENCODINGS)[number];
+export const csvDownloadQuerySchema = z.object({ encoding: z.enum(CSV_DOWNLOAD_ENCODINGS).default("utf-8") });
+
 /**
  * Dates in the files are calendar days in Japan, where the brewery and its suppliers work
  * (the app's time zone is Asia/Tokyo). A day becomes its noon there, which falls on the same

@@ -1,3 +1,4 @@
+import { csvDownload, csvEncodingOf } from "@/server/csv-download";
 import { handle, requireApiUser } from "@/server/http";
 import { listTransactionRecords, parseDateRange, transactionsCsv } from "@/server/transactions-export";
 
@@ -6,12 +7,7 @@ export const GET = handle(async (request, { t }) => {
   const actor = await requireApiUser(request);
   const query = new URL(request.url).searchParams;
   const range = parseDateRange({ from: query.get("from"), to: query.get("to") }, t);
+  const encoding = csvEncodingOf(request, t);
   const csv = transactionsCsv(listTransactionRecords(actor, range, t), t);
-  return new Response(csv, {
-    headers: {
-      "content-type": "text/csv; charset=utf-8",
-      "content-disposition": `attachment; filename="grainline-transactions-${range.from}-to-${range.to}.csv"`,
-      "cache-control": "no-store",
-    },
-  });
+  return csvDownload(csv, encoding, `grainline-transactions-${range.from}-to-${range.to}.csv`, t);
 });

@@ -1,4 +1,5 @@
 import { normaliseLotCode } from "@/domain/lot-code";
+import { csvDownload, csvEncodingOf } from "@/server/csv-download";
 import { forbidden } from "@/server/errors";
 import { handle, requireApiUser } from "@/server/http";
 import { canReadRecall, loadRecall, recallCsv, recallRows } from "@/server/recall";
@@ -7,13 +8,8 @@ import { canReadRecall, loadRecall, recallCsv, recallRows } from "@/server/recal
 export const GET = handle(async (request, { params, t }) => {
   const actor = await requireApiUser(request);
   if (!canReadRecall(actor)) throw forbidden();
+  const encoding = csvEncodingOf(request, t);
   const code = normaliseLotCode(params.code ?? "");
   const csv = recallCsv(recallRows(loadRecall(actor, code)), t);
-  return new Response(csv, {
-    headers: {
-      "content-type": "text/csv; charset=utf-8",
-      "content-disposition": `attachment; filename="grainline-recall-${encodeURIComponent(code)}.csv"`,
-      "cache-control": "no-store",
-    },
-  });
+  return csvDownload(csv, encoding, `grainline-recall-${encodeURIComponent(code)}.csv`, t);
 });
