@@ -1,4 +1,5 @@
-import { getFormatter, getTranslations } from "next-intl/server";
+import { getFormatter, getLocale, getTranslations } from "next-intl/server";
+import { originStatementIn } from "@/domain/origin";
 import type { Provenance } from "@/server/provenance";
 
 type Show = Partial<Record<"varieties" | "origin" | "growers" | "polishingRatio" | "categories" | "dates" | "koji", boolean>>;
@@ -12,6 +13,7 @@ export async function ProvenanceCard({ p, show = {}, caution = false }: { p: Pro
   const tc = await getTranslations("caution");
   const tp = await getTranslations("products");
   const format = await getFormatter();
+  const locale = (await getLocale()) === "en" ? "en" : "ja";
   const on = (k: keyof Show) => show[k] !== false;
   const pct = (v: number) => format.number(v, { style: "percent", maximumFractionDigits: 1 });
   const date = (iso: string) => format.dateTime(new Date(iso), { dateStyle: "medium" });
@@ -35,7 +37,7 @@ export async function ProvenanceCard({ p, show = {}, caution = false }: { p: Pro
         : null}
       {on("varieties") ? row(t("varieties"), p.varieties.map((v) => `${v.name} ${pct(v.share)}`).join(" · "), "prov-varieties") : null}
       {on("varieties") && p.cropYears.length ? row(t("cropYears"), p.cropYears.join(", "), "prov-crop-years") : null}
-      {on("origin") ? row(t("origin"), <><strong>{p.originStatement}</strong><br /><span className="text-sm text-ink-soft">{t("originHint")}</span></>, "prov-origin") : null}
+      {on("origin") ? row(t("origin"), <><strong>{originStatementIn(p.origins, locale) || "-"}</strong><br /><span className="text-sm text-ink-soft">{t("originHint")}</span></>, "prov-origin") : null}
       {on("growers") ? row(t("growers"), p.growers.map((g) => `${g.name ?? t("unnamedGrower")} ${pct(g.share)}`).join(" · "), "prov-growers") : null}
       {on("polishingRatio") && p.polishingRatiosPct.length ? row(t("polishingRatio"), p.polishingRatiosPct.map((r) => `${format.number(r, { maximumFractionDigits: 1 })} %`).join(", "), "prov-ratio") : null}
       {on("koji") && p.kojiRatioPct !== null ? row(t("kojiRatio"), `${format.number(p.kojiRatioPct, { maximumFractionDigits: 1 })} %`, "prov-koji") : null}

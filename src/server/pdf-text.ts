@@ -1,18 +1,68 @@
 import "server-only";
 import type { PDFFont } from "pdf-lib";
 
-/** The PDF standard fonts cover WinAnsi only; anything else is written as "?" rather than failing. */
-export const ascii = (s: string) => s.replace(/[^\x20-\x7e]/g, "?");
+/**
+ * Line-breaking rules for Japanese (kinsoku shori): characters that may not start a line —
+ * closing brackets, 、。 and other punctuation, small kana, the prolonged sound mark,
+ * iteration marks — and those that may not end one (opening brackets). Source: W3C
+ * "Requirements for Japanese Text Layout" (JLREQ) §3.1.7 and Appendix A (character classes
+ * cl-02, cl-04, cl-05, cl-06, cl-07, cl-09, cl-11 / cl-01), after JIS X 4051. ASCII closing
+ * punctuation is added so that Latin text does not break before "," or ")" either.
+ */
+const NO_START = new Set([..."、。，．・：；？！‼⁇⁈⁉ー―‐゠–〜～）」』】〕〉》〙〗〟］｝’”»ヽヾゝゞ々〻ぁぃぅぇぉっゃゅょゎゕゖァィゥェォッャュョヮヵヶㇰㇱㇲㇳㇴㇵㇶㇷㇸㇹㇺㇻㇼㇽㇾㇿ％,.:;?!)]}%"]);
+const NO_END = new Set([..."（「『【〔〈《〘〖〝［｛‘“«([{"]);
+/** Kana, kanji and full-width forms: a line may break between two words of these with no space. */
+const CJK = /[\p{Script=Han}\p{Script=Hiragana}\p{Script=Katakana}\u3000-\u303f\uff00-\uffef]/u;
 
-/** `text` (made ascii) in rows of whole words, none wider than `width` at this font and size. */
-export function wrapWords(text: string, font: PDFFont, size: number, width: number): string[] {
+const words = new Intl.Segmenter("ja", { granularity: "word" });
+
+const last = (s: string) => [...s].at(-1) ?? "";
+const first = (s: string) => [...s][0] ?? "";
+
+/** May a line break fall between `before` and `after` (two adjacent word segments)? */
+function mayBreak(before: string, after: string): boolean {
+  if (NO_START.has(first(after)) || NO_END.has(last(before.trimEnd()))) return false;
+  if (/\s$/.test(before)) return true;
+  // Latin breaks only at spaces; Japanese between words (ICU's dictionary finds them).
+  return CJK.test(last(before)) || CJK.test(first(after));
+}
+
+/**
+ * `text` cut where a line may break: each piece keeps the spaces after it, so the pieces
+ * joined give the text back.
+ */
+export function breakUnits(text: string): string[] {
+  const units: string[] = [];
+  for (const { segment } of words.segment(text)) {
+    const previous = units.at(-1);
+    if (previous === undefined || (!/^\s+$/.test(segment) && mayBreak(previous, segment))) units.push(segment);
+    else units[units.length - 1] = previous + segment;
+  }
+  return units;
+}
+
+/**
+ * `text` in rows no wider than `width` at this font and size, broken where breakUnits allows;
+ * a piece wider than a whole row is cut by characters. Spaces at the end of a row are dropped.
+ */
+export function wrapText(text: string, font: PDFFont, size: number, width: number): string[] {
+  const fits = (s: string) => font.widthOfTextAtSize(s.trimEnd(), size) <= width;
   const rows: string[] = [];
   let row = "";
-  for (const word of ascii(text).split(" ")) {
-    if (row && font.widthOfTextAtSize(`${row} ${word}`, size) > width) {
-      rows.push(row);
-      row = word;
-    } else row = row ? `${row} ${word}` : word;
+  for (const unit of breakUnits(text)) {
+    if (fits(row + unit)) row += unit;
+    else if (fits(unit)) {
+      if (row) rows.push(row);
+      row = unit;
+    } else {
+      for (const char of unit) {
+        if (row && !fits(row + char)) {
+          rows.push(row);
+          row = "";
+        }
+        row += char;
+      }
+    }
   }
-  return [...rows, row];
+  return [...rows, row].map((r) => r.trimEnd());
 }

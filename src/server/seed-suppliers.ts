@@ -63,5 +63,5 @@ export function seedSupplierAccounts(tx: DbOrTx, admin: SessionUser): string[] {
 export async function mailSeededStatements(db: DbOrTx, numbers: string[]) {
   const origin = publicOrigin();
   // Kept in the outbox only: the demo's parties are invented, their addresses .example.
-  for (const number of numbers) await mailStatement(statementByNumber(db, number), origin, t, db, { deliver: false });
+  for (const number of numbers) await mailStatement(statementByNumber(db, number), origin, db, { deliver: false });
 }

@@ -1,6 +1,6 @@
 import { readFile } from "node:fs/promises";
 import { expect, test } from "@playwright/test";
-import { pdfText } from "../support/pdf-text";
+import { readPdfText } from "../support/pdf-read";
 import { registerHarvestOnForm, signInAndLand, signOut } from "./helpers";
 
 /*
@@ -70,9 +70,9 @@ test("admin records a receipt and a payment; the grower sees what is owed, the l
   await page.getByTestId("statements-table").getByRole("row").filter({ hasText: number }).getByRole("link", { name: "PDF" }).click();
   const file = await (await download).path();
   const bytes = await readFile(file);
-  // The PDF's own header (ISO 32000-1 §7.5.2), then its text read back by inflating the content streams.
+  // The PDF's own header (ISO 32000-1 §7.5.2), then its text read back by pdf.js.
   expect(bytes.subarray(0, 5).toString("latin1")).toBe("%PDF-");
-  const text = pdfText(bytes);
+  const text = await readPdfText(bytes);
   expect(text).toContain(`Statement ${number}`);
   expect(text).toContain("Nakase Family Paddies");
   expect(text).toContain(code);

@@ -3,7 +3,7 @@ import { GET as sheetRoute } from "../../app/api/provenance/[code]/sheet.pdf/rou
 import { getSqlite } from "@/server/db";
 import { provenanceFor, publicProvenance } from "@/server/provenance";
 import { call, jsonRequest, signInAs } from "../support/api";
-import { pdfText } from "../support/pdf-text";
+import { readPdfText } from "../support/pdf-read";
 
 const t = (key: string) => key;
 const sales = { id: "user-sales", role: "sales" as const, partyId: "brewery-kirinoha", email: "", name: "" };
@@ -54,7 +54,7 @@ describe("provenance answer", () => {
     // The seeded blend bottling above: 1,800 of 2,300 kg Omachi (78.3 %), 500 kg Yamada Nishiki (21.7 %).
     const bottled = code("select code from lots where kind = 'bottled' and json_extract(attributes, '$.gtin') = '9506000134376'");
     const res = await sheetRoute(jsonRequest(`/api/provenance/${bottled}/sheet.pdf`, { cookie: await signInAs("sales@example.com") }), { params: Promise.resolve({ code: bottled }) });
-    const text = pdfText(new Uint8Array(await res.arrayBuffer())).split("\n").join(" ");
+    const text = (await readPdfText(new Uint8Array(await res.arrayBuffer()))).split("\n").join(" ");
     expect(text).toContain(`Provenance of ${bottled}`);
     expect(text).toContain("Varieties Omachi 78.3 %, Yamada Nishiki 21.7 %");
     expect(text).toContain("Rice origin Hyogo, Okayama");

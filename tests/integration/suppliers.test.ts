@@ -10,7 +10,7 @@ import { POST as postStatement } from "../../app/api/suppliers/[partyId]/stateme
 import { getSqlite } from "@/server/db";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 import { dispatchAndReceive } from "../support/receipts";
-import { pdfText } from "../support/pdf-text";
+import { readPdfText } from "../support/pdf-read";
 
 let admin: string, grower: string, grower2: string, miller: string, auditor: string, brewer: string;
 
@@ -156,6 +156,8 @@ describe("statements", () => {
     expect((await adjust({ amountYen: 1_234, taxRatePct: 8, reason: "Bag count corrected" })).status).toBe(201);
     expect((await adjust({ amountYen: 2_345, taxRatePct: 8, reason: "=HYPERLINK(\"http://x.invalid\")" })).status).toBe(201);
     const outboxBefore = count("select count(*) as n from outbox");
+    // The mail goes in the supplier's own language (Japanese unless a user of the supplier chose another).
+    getSqlite().prepare("update users set locale = 'en' where email = 'grower2@example.com'").run();
     const res = await call(postStatement, jsonRequest("/api/suppliers/grower-nakase/statements", { cookie: admin, body: { from: today(), to: today(), email: true } }), { partyId: "grower-nakase" });
     expect(res.status).toBe(201);
     // Today's Nakase deliveries from the tests above: 235,000 (10 bags at the mill) + 47,000 (2 bags at the brewery).
@@ -171,7 +173,7 @@ describe("statements", () => {
     const number = res.body.number as string;
     const pdf = await getStatementPdf(jsonRequest(`/api/suppliers/grower-nakase/statements/${number}/statement.pdf`, { cookie: grower2 }), { params: Promise.resolve({ partyId: "grower-nakase", number }) });
     expect(pdf.status).toBe(200);
-    const text = pdfText(new Uint8Array(await pdf.arrayBuffer()));
+    const text = await readPdfText(new Uint8Array(await pdf.arrayBuffer()));
     expect(text).toContain(`Statement ${number}`);
     expect(text).toContain("Nakase Family Paddies");
     expect(text).toMatch(/Subtotal 8 %\*\n285,579 JPY/);

@@ -83,7 +83,7 @@ export async function issueStatementAction(_prev: FormState, formData: FormData)
   const values = formValues(formData);
   return guardAction(values, async (t) => {
     const issued = issueStatement(await requireUser(), values.partyId ?? "", { from: values.from, to: values.to, email: values.email ?? "" }, t);
-    if (issued.email) await mailStatement(statementByNumber(getDb(), issued.number), await actionOrigin(), t);
+    if (issued.email) await mailStatement(statementByNumber(getDb(), issued.number), await actionOrigin());
     done(values.partyId ?? "");
     return { ok: true, message: t(issued.email ? "suppliers.statements.issuedMailed" : "suppliers.statements.issued", { number: issued.number }) };
   });

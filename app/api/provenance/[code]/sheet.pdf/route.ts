@@ -1,14 +1,19 @@
 import { normaliseLotCode } from "@/domain/lot-code";
+import { DEFAULT_TIME_ZONE } from "@/i18n/dates";
+import { documentLocale, documentTranslator } from "@/server/document-locale";
 import { handle, requireApiPermission } from "@/server/http";
 import { getParty } from "@/server/parties";
 import { provenanceFor } from "@/server/provenance";
 import { provenanceSheetPdf } from "@/server/provenance-sheet";
 
-export const GET = handle(async (request, { params, t }) => {
+/** The sheet in the reader's language (their setting, the language cookie, then the browser's). */
+export const GET = handle(async (request, { params }) => {
   const actor = await requireApiPermission(request, "provenance:read");
   const code = normaliseLotCode(params.code ?? "");
+  const locale = documentLocale(request, actor);
+  const t = documentTranslator(locale);
   const answer = provenanceFor(actor, code, t);
-  const bytes = await provenanceSheetPdf(answer, getParty(actor.partyId)?.name ?? "", t);
+  const bytes = await provenanceSheetPdf(answer, getParty(actor.partyId)?.name ?? "", { t, locale, timeZone: DEFAULT_TIME_ZONE });
   return new Response(Buffer.from(bytes), {
     headers: { "content-type": "application/pdf", "content-disposition": `attachment; filename="grainline-provenance-${answer.lot.code}.pdf"`, "cache-control": "private" },
   });

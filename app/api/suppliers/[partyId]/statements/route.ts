@@ -20,6 +20,6 @@ export const POST = handle(async (request, { params, t }) => {
   const partyId = params.partyId ?? "";
   const body = await readJson(request, z.unknown(), t);
   const issued = issueStatement(actor, partyId, body, t);
-  const mailed = issued.email ? await mailStatement(statementByNumber(getDb(), issued.number), publicOrigin(), t) : null;
+  const mailed = issued.email ? await mailStatement(statementByNumber(getDb(), issued.number), publicOrigin()) : null;
   return Response.json({ number: issued.number, totals: issued.totals, balanceYen: issued.balanceYen, mailed, pdf: statementPdfPath(partyId, issued.number) }, { status: 201 });
 });
