@@ -7,6 +7,7 @@ import { FloorNav } from "@/components/floor/floor-nav";
 import { QueuePanel } from "@/components/floor/queue-panel";
 import { UserBar } from "@/components/user-bar";
 import { currentUser } from "@/server/session";
+import { setLanguageAction } from "../(auth)/language/actions";
 import { signOutAction } from "../(auth)/sign-out/actions";
 
 /** Phone first: large type, high contrast, every target at least 48 px for gloved hands. */
@@ -22,7 +23,7 @@ export default async function FloorLayout({ children }: { children: React.ReactN
           <BrandMark className="h-10 w-10" />
           <span className="font-[family-name:var(--font-display)] text-2xl font-bold">{t("nav.scan")}</span>
         </Link>
-        <UserBar user={user} signOut={signOutAction} />
+        <UserBar user={user} signOut={signOutAction} setLanguage={setLanguageAction} />
       </header>
       <FloorNav actor={user} />
       <QueuePanel userId={user.id} />

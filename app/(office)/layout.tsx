@@ -7,6 +7,7 @@ import { navFor } from "@/components/nav-items";
 import { SearchBox } from "@/components/search-box";
 import { UserBar } from "@/components/user-bar";
 import { currentUser } from "@/server/session";
+import { setLanguageAction } from "../(auth)/language/actions";
 import { signOutAction } from "../(auth)/sign-out/actions";
 
 export default async function OfficeLayout({ children }: { children: React.ReactNode }) {
@@ -30,7 +31,7 @@ export default async function OfficeLayout({ children }: { children: React.React
             ))}
           </nav>
           <SearchBox />
-          <UserBar user={user} signOut={signOutAction} />
+          <UserBar user={user} signOut={signOutAction} setLanguage={setLanguageAction} />
         </div>
       </header>
       <main id="content" className="mx-auto max-w-7xl px-4 py-6 print:m-0 print:max-w-none print:p-0">

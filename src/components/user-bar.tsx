@@ -1,12 +1,22 @@
 import { getTranslations } from "next-intl/server";
+import type { FormState } from "@/lib/form-state";
 import type { SessionUser } from "@/server/session";
+import { LanguageSwitch } from "./language-switch";
 
-/** Who is signed in, and the way out; the sign-out action is passed in from app/. */
-export async function UserBar({ user, signOut }: { user: SessionUser; signOut: () => Promise<void> }) {
+type Props = {
+  user: SessionUser;
+  signOut: () => Promise<void>;
+  /** The language switch's action (app/(auth)/language/actions.ts); without it no switch is shown. */
+  setLanguage?: (state: FormState, form: FormData) => Promise<FormState>;
+};
+
+/** Who is signed in, their language, and the way out; the actions are passed in from app/. */
+export async function UserBar({ user, signOut, setLanguage }: Props) {
   const t = await getTranslations();
   return (
-    <div className="flex items-center gap-3 text-sm">
+    <div className="flex flex-wrap items-center gap-3 text-sm">
       <span data-testid="signed-in-as">{t("nav.signedInAs", { name: user.name, role: t(`roles.${user.role}`) })}</span>
+      {setLanguage ? <LanguageSwitch action={setLanguage} /> : null}
       <form action={signOut}>
         <button type="submit" className="btn-quiet min-h-11 px-3 py-1">
           {t("nav.signOut")}

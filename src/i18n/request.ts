@@ -1,9 +1,12 @@
 import { getRequestConfig } from "next-intl/server";
 import { cookies, headers } from "next/headers";
+import { currentUser } from "@/server/session";
 import { LOCALE_COOKIE, pickLocale } from "./locale";
 import { loadMessages } from "./messages";
 
 export default getRequestConfig(async () => {
-  const locale = pickLocale((await cookies()).get(LOCALE_COOKIE)?.value, (await headers()).get("accept-language"));
+  // currentUser is cached per request: the layout's own session read is the one read here.
+  const user = await currentUser();
+  const locale = pickLocale((await cookies()).get(LOCALE_COOKIE)?.value, (await headers()).get("accept-language"), user?.locale);
   return { locale, messages: loadMessages(locale), timeZone: "Asia/Tokyo" };
 });

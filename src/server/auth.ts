@@ -1,6 +1,7 @@
 import "server-only";
 import { Lucia, TimeSpan } from "lucia";
 import type { Role } from "@/domain/roles";
+import type { Locale } from "@/i18n/locale";
 import { getDb } from "./db";
 import { PreparedSessionAdapter } from "./session-adapter";
 
@@ -24,6 +25,7 @@ function createLucia() {
       role: row.role,
       partyId: row.partyId,
       disabledAt: row.disabledAt,
+      locale: row.locale,
     }),
   });
 }
@@ -48,6 +50,7 @@ declare module "lucia" {
       role: Role;
       partyId: string;
       disabledAt: Date | null;
+      locale: Locale | null;
     };
   }
 }

@@ -1,6 +1,6 @@
 import "server-only";
 import { z } from "zod";
-import { pickLocale, type Locale } from "@/i18n/locale";
+import { LOCALE_COOKIE, pickLocale, type Locale } from "@/i18n/locale";
 import { translator } from "@/i18n/messages";
 import { fieldErrorsFrom, type Translate } from "@/lib/validation/field-errors";
 import { clientAddress } from "./client-address";
@@ -26,23 +26,28 @@ export type ApiRequest = {
 export type JsonReply = { status: number; body: unknown };
 export const reply = (body: unknown, status = 200): JsonReply => ({ status, body });
 
-/** Translators by Accept-Language value: a site sees a handful, and every API request needs one. */
+/** Translators by locale cookie and Accept-Language value: a site sees a handful, and every API request needs one. */
 const apiTranslators = new Map<string, Translate>();
 const byLocale = new Map<Locale, Translate>();
 const MAX_REMEMBERED_HEADERS = 100;
+// Only the language cookie is wanted here, so a pattern rather than parsing every cookie on the fast path.
+const LOCALE_COOKIE_PATTERN = new RegExp(`(?:^|;)\\s*${LOCALE_COOKIE}=([a-z]{2})(?:;|\\s|$)`);
 
+/** The API's language: the language switch's cookie, then Accept-Language, then Japanese (no session read: it must stay cheap). */
 export function translatorFor(request: Pick<ApiRequest, "headers">): Translate {
+  const cookie = LOCALE_COOKIE_PATTERN.exec(request.headers.get("cookie") ?? "")?.[1];
   const header = request.headers.get("accept-language") ?? "";
-  let translate = apiTranslators.get(header);
+  const rememberAs = `${cookie ?? ""}|${header}`;
+  let translate = apiTranslators.get(rememberAs);
   if (translate) return translate;
-  const locale = pickLocale(undefined, header);
+  const locale = pickLocale(cookie, header);
   translate = byLocale.get(locale);
   if (!translate) {
     const t = translator(locale);
     byLocale.set(locale, (translate = (key, values) => t(key as never, values as never)));
   }
   // Bounded: a client sending a new header each time must not grow the map.
-  if (apiTranslators.size < MAX_REMEMBERED_HEADERS) apiTranslators.set(header, translate);
+  if (apiTranslators.size < MAX_REMEMBERED_HEADERS) apiTranslators.set(rememberAs, translate);
   return translate;
 }
 

@@ -4,10 +4,17 @@ import { desc, eq } from "drizzle-orm";
 import { randomUUID } from "node:crypto";
 import type { DbOrTx } from "@/db/client";
 import { outbox } from "@/db/schema";
+import { DEFAULT_LOCALE, type Locale } from "@/i18n/locale";
+import { translator } from "@/i18n/messages";
 import { getDb } from "./db";
 
 // Attachments go to the transport (the JSON transport keeps them, base64); the outbox row keeps the text only.
 export type OutgoingMail = { to: string; subject: string; text: string; html?: string; attachments?: { filename: string; content: Buffer; contentType: string }[] };
+
+/** A mail is worded in its reader's own language setting, else Japanese — never the sender's screen language. */
+export function mailTranslator(readerSetting: Locale | null | undefined) {
+  return translator(readerSetting ?? DEFAULT_LOCALE);
+}
 
 const FROM = () => process.env.GRAINLINE_MAIL_FROM || "Grainline <no-reply@grainline.invalid>";
 

@@ -26,6 +26,7 @@ export class PreparedSessionAdapter extends DrizzleSQLiteAdapter {
         role: users.role,
         partyId: users.partyId,
         disabledAt: users.disabledAt,
+        locale: users.locale,
       })
       .from(sessions)
       .innerJoin(users, eq(users.id, sessions.userId))

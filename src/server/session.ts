@@ -4,13 +4,15 @@ import { cookies, headers } from "next/headers";
 import { cache } from "react";
 import type { Session } from "lucia";
 import type { Role } from "@/domain/roles";
+import type { Locale } from "@/i18n/locale";
 import { can, type Actor, type Permission } from "@/domain/permissions";
 import { lucia } from "./auth";
 import { forbidden, unauthenticated } from "./errors";
 import { publicOriginIsHttps } from "./public-origin";
 import { outlivedSession, sessionIdFor } from "./session-token";
 
-export type SessionUser = Actor & { email: string; name: string };
+/** `locale` is the person's own language setting (null: follow the browser), read with the session at no extra cost. */
+export type SessionUser = Actor & { email: string; name: string; locale?: Locale | null };
 
 type Validated = { user: SessionUser; session: Session } | null;
 
@@ -24,7 +26,7 @@ async function validate(token: string | null): Promise<Validated & { fresh?: boo
     return null;
   }
   return {
-    user: { id: user.id, email: user.email, name: user.name, role: user.role as Role, partyId: user.partyId },
+    user: { id: user.id, email: user.email, name: user.name, role: user.role as Role, partyId: user.partyId, locale: user.locale },
     session,
     fresh: session.fresh,
   };

@@ -5,13 +5,14 @@ import type { DbOrTx } from "@/db/client";
 import { parties, passwordTokens, users } from "@/db/schema";
 import { PARTY_KIND_FOR_ROLE } from "@/domain/roles";
 import { canManageUsers } from "@/domain/permissions";
+import type { Locale } from "@/i18n/locale";
 import type { InviteInput } from "@/lib/validation/people";
 import type { Translate } from "@/lib/validation/field-errors";
 import { recordAudit } from "./audit";
 import { lucia } from "./auth";
 import { getDb } from "./db";
 import { AppError, forbidden, invalid } from "./errors";
-import { sendMail } from "./mail";
+import { mailTranslator, sendMail } from "./mail";
 import { burnPasswordCheck, hashPassword, verifyPassword } from "./passwords";
 import type { SessionUser } from "./session";
 import { openSession } from "./session-token";
@@ -44,7 +45,13 @@ export async function signIn(email: string, password: string, client: string) {
   clearSignInFailures(email, client);
   const { token } = await openSession(row.id);
   recordAudit(getDb(), { userId: row.id, action: "user.signed-in", subject: row.id });
-  return { user: toPublic(row), sessionToken: token };
+  // The person's language setting rides back so the sign-in can set the language cookie the API reads.
+  return { user: toPublic(row), sessionToken: token, locale: row.locale };
+}
+
+/** A person's own language setting (null: follow the browser); only ever their own row. A setting, not a record: no audit line. */
+export function setOwnLocale(actor: SessionUser, locale: Locale | null): void {
+  getDb().update(users).set({ locale }).where(eq(users.id, actor.id)).run();
 }
 
 export async function signOut(sessionId: string, userId: string) {
@@ -82,10 +89,12 @@ export async function inviteUser(actor: SessionUser, input: InviteInput, origin:
     recordAudit(tx, { userId: actor.id, action: "user.invited", subject: id, detail: { email: input.email, role: input.role } });
   });
   const link = `${origin}/set-password/${token}`;
+  // The invited person has no language setting yet: the mail is in Japanese, the default (not the inviter's language).
+  const mail = mailTranslator(null);
   await sendMail({
     to: input.email,
-    subject: t("mail.invite.subject"),
-    text: t("mail.invite.body", { name: input.name, inviter: actor.name, link, days: 7 }),
+    subject: mail("mail.invite.subject"),
+    text: mail("mail.invite.body", { name: input.name, inviter: actor.name, link, days: 7 }),
   });
   return { id };
 }
@@ -110,7 +119,8 @@ export async function requestPasswordReset(email: string, client: string, origin
     tx.insert(passwordTokens).values({ id: generateIdFromEntropySize(10), userId: row.id, tokenHash: hash, purpose: "reset", expiresAt: new Date(Date.now() + RESET_TTL_MS), createdAt: new Date() }).run();
     recordAudit(tx, { userId: null, action: "user.reset-requested", subject: row.id });
   });
-  await sendMail({ to: row.email, subject: t("mail.reset.subject"), text: t("mail.reset.body", { name: row.name, link: `${origin}/set-password/${token}`, minutes: 60 }) });
+  const mail = mailTranslator(row.locale);
+  await sendMail({ to: row.email, subject: mail("mail.reset.subject"), text: mail("mail.reset.body", { name: row.name, link: `${origin}/set-password/${token}`, minutes: 60 }) });
 }
 
 /** Who a still-valid link belongs to, for the set-password page; null if used or expired. */

@@ -58,6 +58,8 @@ function nextProbeGtin(): string {
 /** `mayChange`: tables a refusal may still write (a failed sign-in is counted, to throttle the next). */
 type Case = { file: string; name: string; who: Who; base: () => Record<string, string>; mayChange?: string[] };
 const CASES: Case[] = [
+  // Signed in, so that the stored setting is what the corruptions meet (a visitor's choice stores nothing).
+  { file: "app/(auth)/language/actions.ts", name: "setLanguageAction", who: "grower", base: () => ({ locale: "en" }) },
   { file: "app/(auth)/sign-in/actions.ts", name: "signInAction", who: "anonymous", base: () => ({ email: "grower2@example.com", password: "grainline-demo" }), mayChange: ["sign_in_throttle"] },
   { file: "app/(auth)/forgot-password/actions.ts", name: "forgotPasswordAction", who: "anonymous", base: () => ({ email: "nobody@example.org" }), mayChange: ["sign_in_throttle"] },
   { file: "app/(auth)/set-password/[token]/actions.ts", name: "setPasswordAction", who: "anonymous", base: () => ({ token: prepared.token, password: "a long probe password", confirm: "a long probe password" }), mayChange: ["sign_in_throttle"] },

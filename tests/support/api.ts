@@ -4,7 +4,8 @@ type Handler = (request: Request, context?: { params?: Promise<Record<string, st
 export const ORIGIN = "http://localhost:3000";
 
 export function jsonRequest(path: string, init: { method?: string; body?: unknown; rawBody?: string; cookie?: string; headers?: Record<string, string> } = {}) {
-  const headers: Record<string, string> = { host: "localhost:3000", ...(init.headers ?? {}) };
+  // English unless a test says otherwise: the suites compare messages with the English catalogue (the app's default is Japanese).
+  const headers: Record<string, string> = { host: "localhost:3000", "accept-language": "en", ...(init.headers ?? {}) };
   if (init.body !== undefined || init.rawBody !== undefined) headers["content-type"] = "application/json";
   if (init.cookie) headers.cookie = init.cookie;
   return new Request(ORIGIN + path, {

@@ -9,6 +9,7 @@ import { signInSchema } from "@/lib/validation/auth";
 import { actionClientKey, guardAction } from "@/server/action";
 import { lucia } from "@/server/auth";
 import { AppError } from "@/server/errors";
+import { rememberLocale } from "@/server/locale-cookie";
 import { requestIsHttps } from "@/server/session";
 import { signIn } from "@/server/users";
 
@@ -19,9 +20,11 @@ export async function signInAction(_prev: FormState, formData: FormData): Promis
   const state = await guardAction({ email: values.email ?? "" }, async (t) => {
     const input = signInSchema.parse(values);
     try {
-      const { user, sessionToken } = await signIn(input.email, input.password, await actionClientKey());
+      const { user, sessionToken, locale } = await signIn(input.email, input.password, await actionClientKey());
       const cookie = lucia().createSessionCookie(sessionToken);
       (await cookies()).set(cookie.name, cookie.value, { ...cookie.attributes, secure: await requestIsHttps() });
+      // The phone's API calls carry no session read for the language: the cookie tells them.
+      if (locale) await rememberLocale(locale);
       // Back where a link (a label's QR code) was going, if it is a path on this site; else home.
       home = safeNextPath(next) ?? HOME_FOR_ROLE[user.role];
     } catch (error) {

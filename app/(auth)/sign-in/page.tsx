@@ -4,6 +4,8 @@ import { getTranslations } from "next-intl/server";
 import { HOME_FOR_ROLE } from "@/domain/permissions";
 import { safeNextPath } from "@/domain/safe-next";
 import { currentUser } from "@/server/session";
+import { LanguageSwitch } from "@/components/language-switch";
+import { setLanguageAction } from "../language/actions";
 import { SignInForm } from "./components";
 
 export async function generateMetadata() {
@@ -26,6 +28,9 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
       <p className="mt-5 text-sm">
         <Link href="/forgot-password">{t("forgot")}</Link>
       </p>
+      <div className="mt-5 flex justify-end">
+        <LanguageSwitch action={setLanguageAction} />
+      </div>
     </>
   );
 }

@@ -1,10 +1,14 @@
 import { signInSchema } from "@/lib/validation/auth";
 import { clientKey, handle, readJson } from "@/server/http";
 import { isHttps, sessionCookieHeader } from "@/server/session";
+import { localeCookieHeader } from "@/server/locale-cookie";
 import { signIn } from "@/server/users";
 
 export const POST = handle(async (request, { t }) => {
   const input = await readJson(request, signInSchema, t);
-  const { user, sessionToken } = await signIn(input.email, input.password, clientKey(request));
-  return Response.json({ user }, { headers: { "Set-Cookie": sessionCookieHeader(sessionToken, isHttps(request)) } });
+  const { user, sessionToken, locale } = await signIn(input.email, input.password, clientKey(request));
+  const headers = new Headers({ "Set-Cookie": sessionCookieHeader(sessionToken, isHttps(request)) });
+  // A phone signing in through the API answers in the person's own language from then on.
+  if (locale) headers.append("Set-Cookie", localeCookieHeader(locale, isHttps(request)));
+  return Response.json({ user }, { headers });
 });

@@ -1,12 +1,14 @@
 import { notFound } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { ProvenanceCard } from "@/components/provenance-card";
+import { LanguageSwitch } from "@/components/language-switch";
 import { AppError } from "@/server/errors";
 import { actionTranslator } from "@/server/action";
 import { getDb } from "@/server/db";
 import { listParties } from "@/server/parties";
 import { publicProvenance } from "@/server/provenance";
 import { readSetting } from "@/server/settings";
+import { setLanguageAction } from "../../../../../(auth)/language/actions";
 
 type Params = { gtin: string; lot: string };
 
@@ -35,6 +37,9 @@ export default async function BottlePage({ params }: { params: Promise<Params> }
   const brewery = listParties("brewery")[0]?.name ?? "";
   return (
     <article className="space-y-5" data-testid="public-bottle">
+      <div className="flex justify-end">
+        <LanguageSwitch action={setLanguageAction} />
+      </div>
       <header>
         <p className="text-sm font-semibold text-cedar">{t("by", { brewery })}</p>
         <h1 className="text-3xl font-bold">{t("publicTitle")}</h1>
