@@ -2,6 +2,7 @@ import "server-only";
 import { receiptOutcomes, EVENT_STEPS, SUPPLIER_CONTRACT_KINDS, SUPPLIER_ENTRY_KINDS } from "@/db/schema";
 import { auditLogItems } from "./audit-log-items";
 import { loadAuditNames } from "./audit-names";
+import { figureName, quantityText } from "@/lib/quantity";
 import { contractItems, entryItems, eventItems, receiptItems, statementItems, type AuditItem, type AuditValue } from "./audit-sources";
 
 /** A translator that can also say whether it has a key (next-intl's and use-intl's both can). */
@@ -48,7 +49,9 @@ export function renderAudit(items: AuditItem[], t: AuditTranslate, locale = "en"
     if (typeof v === "number") return String(v);
     if ("yen" in v) return yen.format(v.yen);
     if ("label" in v) return t.has(v.label) ? t(v.label) : "—";
-    const label = t.has(`audit.fields.${v.field}`) ? t(`audit.fields.${v.field}`) : v.field;
+    if ("lots" in v) return v.lots.map((l) => (l.quantity === null ? l.code : `${l.code} (${quantityText(t, locale, l.quantity, l.unit, 2)})`)).join(", ");
+    // A field the audit catalogue does not name reads as a figure's name, never as its key.
+    const label = t.has(`audit.fields.${v.field}`) ? t(`audit.fields.${v.field}`) : figureName(t, v.field);
     const change = [v.change, v.word && t.has(v.word) ? t(v.word) : ""].filter(Boolean).join(" ");
     return change ? `${label}: ${change}` : label;
   };

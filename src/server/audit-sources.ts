@@ -17,11 +17,15 @@ export type AuditValue =
   | { label: string }
   /** A changed field, named by audit.fields.<field> where the catalogue has it. */
   | { field: string; change: string; word?: string }
+  /** Lots with their amounts, worded by the reader's catalogue ("P26-0002 (800 bottles)"). */
+  | { lots: LotAmount[] }
   | AuditValue[];
 export type AuditItem = { id: string; at: Date; userName: string; summary: { key: string; values: Record<string, AuditValue> } };
 
+export type LotAmount = { code: string; quantity: number | null; unit: string };
+
 const db = () => getDb();
-const quantity = (q: number, unit: string) => `${Math.round(q * 100) / 100} ${unit}`;
+const listed = (lots: LotAmount[]): AuditValue => (lots.length ? { lots } : "—");
 
 /** Every event, with the lots it drew from and made (codes and quantities). */
 export function eventItems(names: AuditNames, limit: number): AuditItem[] {
@@ -35,8 +39,8 @@ export function eventItems(names: AuditNames, limit: number): AuditItem[] {
     const values: Record<string, AuditValue> = {
       party: names.party(e.partyId),
       step: { label: `steps.${e.step}` },
-      inputs: lines.inputs.join(", ") || "—",
-      outputs: lines.outputs.join(", ") || "—",
+      inputs: listed(lines.inputs),
+      outputs: listed(lines.outputs),
       counterparty: e.counterpartyId ? names.party(e.counterpartyId) : "—",
     };
     if (e.step === "correcting") {
@@ -44,7 +48,7 @@ export function eventItems(names: AuditNames, limit: number): AuditItem[] {
       values.corrected = old ? { label: `steps.${old.step}` } : "—";
       values.reason = e.reason || "—";
       const was = e.corrects != null ? lotsOf.get(e.corrects) : undefined;
-      values.lots = was ? [...was.inputs, ...was.outputs].join(", ") || "—" : "—";
+      values.lots = was ? listed([...was.inputs, ...was.outputs]) : "—";
     }
     const key = `summaries.${e.step === "correcting" ? "correcting" : e.step === "shipping" || e.step === "receiving" ? "handOver" : "event"}`;
     return { id: `event-${e.id}`, at: e.recordedAt, userName: names.user(e.userId), summary: { key, values } };
@@ -52,13 +56,13 @@ export function eventItems(names: AuditNames, limit: number): AuditItem[] {
 }
 
 function lotLines(eventIds: number[]) {
-  const out = new Map<number, { inputs: string[]; outputs: string[] }>();
+  const out = new Map<number, { inputs: LotAmount[]; outputs: LotAmount[] }>();
   if (!eventIds.length) return out;
   const of = (id: number) => out.get(id) ?? (out.set(id, { inputs: [], outputs: [] }), out.get(id)!);
   const ins = db().select({ eventId: eventInputs.eventId, code: lots.code, unit: lots.unit, q: eventInputs.quantity, use: eventInputs.use }).from(eventInputs).innerJoin(lots, eq(lots.id, eventInputs.lotId)).where(inArray(eventInputs.eventId, eventIds)).all();
-  for (const r of ins) if (r.use !== "loss") of(r.eventId).inputs.push(r.q ? `${r.code} (${quantity(Math.abs(r.q), r.unit)})` : r.code);
+  for (const r of ins) if (r.use !== "loss") of(r.eventId).inputs.push({ code: r.code, quantity: r.q ? Math.abs(r.q) : null, unit: r.unit });
   const outs = db().select({ eventId: eventOutputs.eventId, code: lots.code, unit: lots.unit, q: eventOutputs.quantity }).from(eventOutputs).innerJoin(lots, eq(lots.id, eventOutputs.lotId)).where(inArray(eventOutputs.eventId, eventIds)).all();
-  for (const r of outs) of(r.eventId).outputs.push(`${r.code} (${quantity(Math.abs(r.q), r.unit)})`);
+  for (const r of outs) of(r.eventId).outputs.push({ code: r.code, quantity: Math.abs(r.q), unit: r.unit });
   return out;
 }
 

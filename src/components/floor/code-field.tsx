@@ -67,7 +67,7 @@ export function CodeField({ id, name, label, value, onChange, onAppend, taken = 
         <input
           id={id}
           name={name}
-          className={`${look.input} font-[family-name:var(--font-code)] uppercase`}
+          className={`${look.input} font-[family-name:var(--font-code)] uppercase placeholder:normal-case`}
           autoCapitalize="characters"
           autoComplete="off"
           spellCheck={false}

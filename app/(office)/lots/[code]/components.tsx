@@ -1,5 +1,8 @@
 import Link from "next/link";
-import { getFormatter, getTranslations } from "next-intl/server";
+import { getFormatter, getLocale, getTranslations } from "next-intl/server";
+import { attributeLines } from "@/lib/event-figures";
+import { figureText, quantityText } from "@/lib/quantity";
+import type { Translate } from "@/lib/validation/field-errors";
 import type { Neighbour } from "@/server/lineage";
 import type { ShownLotEvent } from "@/server/lot-events";
 
@@ -36,10 +39,15 @@ export async function LineageList({ title, empty, items, direction, testId }: { 
 export async function EventTimeline({ events, lotCode }: { events: ShownLotEvent[]; lotCode: string }) {
   const t = await getTranslations();
   const format = await getFormatter();
-  const qty = (q: number, unit: string) => `${format.number(q, { maximumFractionDigits: 3 })} ${unit}`;
+  const locale = await getLocale();
+  const tr = t as unknown as Translate;
+  const qty = (q: number, unit: string) => quantityText(tr, locale, q, unit, 3);
+  const when = (d: Date) => format.dateTime(d, { dateStyle: "medium", timeStyle: "short" });
   return (
     <ol className="relative space-y-4 border-l-4 border-husk pl-6" data-testid="event-timeline">
-      {events.map((e) => (
+      {events.map((e) => {
+        const figures = attributeLines(e.attributes, tr, locale, when);
+        return (
         <li key={e.id} id={`event-${e.id}`} className={`panel relative ${e.correctedBy ? "opacity-70" : ""}`}>
           <span className={`absolute top-5 -left-[34px] h-4 w-4 rotate-45 ${e.step === "correcting" ? "bg-persimmon" : "bg-cedar"}`} aria-hidden="true" />
           <div className="flex flex-wrap items-baseline gap-x-4 gap-y-1">
@@ -68,10 +76,16 @@ export async function EventTimeline({ events, lotCode }: { events: ShownLotEvent
             {e.measurements.length ? (
               <div>
                 <p className="font-semibold">{t("lotPage.measurements")}</p>
-                <ul>{e.measurements.map((m, n) => <li key={n}>{m.name}: {format.number(m.value, { maximumFractionDigits: 3 })} {m.unit}</li>)}</ul>
+                <ul>{e.measurements.map((m, n) => <li key={n}>{figureText(tr, locale, m.name, m.value, m.unit)}</li>)}</ul>
               </div>
             ) : null}
           </div>
+          {figures.length ? (
+            <div className="mt-3 text-sm" data-testid="event-figures">
+              <p className="font-semibold">{t("lotPage.figuresTitle")}</p>
+              <ul className="flex flex-wrap gap-x-4">{figures.map((line, n) => <li key={n}>{line}</li>)}</ul>
+            </div>
+          ) : null}
           <ReceiptFigures event={e} qty={qty} />
           {e.referenceDoc || e.place || e.note ? (
             <p className="mt-2 text-sm text-ink-soft">
@@ -79,7 +93,8 @@ export async function EventTimeline({ events, lotCode }: { events: ShownLotEvent
             </p>
           ) : null}
         </li>
-      ))}
+        );
+      })}
     </ol>
   );
 }
