@@ -26,6 +26,7 @@ import ledgerJa from "./messages/ja/ledger.json";
 import recallJa from "./messages/ja/recall.json";
 import registersJa from "./messages/ja/registers.json";
 import suppliersJa from "./messages/ja/suppliers.json";
+import { DATE_FORMATS } from "./dates";
 import type { Locale } from "./locale";
 
 /**
@@ -49,6 +50,6 @@ const translators = new Map<Locale, ReturnType<typeof createTranslator<Messages>
 /** A translator usable outside React (route handlers, e-mail, the seed); one per locale, reused. */
 export function translator(locale: Locale) {
   let found = translators.get(locale);
-  if (!found) translators.set(locale, (found = createTranslator({ locale, messages: loadMessages(locale) })));
+  if (!found) translators.set(locale, (found = createTranslator({ locale, messages: loadMessages(locale), formats: { dateTime: DATE_FORMATS[locale] } })));
   return found;
 }

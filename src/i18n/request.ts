@@ -1,6 +1,8 @@
 import { getRequestConfig } from "next-intl/server";
 import { cookies, headers } from "next/headers";
 import { currentUser } from "@/server/session";
+import { breweryTimeZone } from "@/server/settings";
+import { DATE_FORMATS } from "./dates";
 import { LOCALE_COOKIE, pickLocale } from "./locale";
 import { loadMessages } from "./messages";
 
@@ -8,5 +10,6 @@ export default getRequestConfig(async () => {
   // currentUser is cached per request: the layout's own session read is the one read here.
   const user = await currentUser();
   const locale = pickLocale((await cookies()).get(LOCALE_COOKIE)?.value, (await headers()).get("accept-language"), user?.locale);
-  return { locale, messages: loadMessages(locale), timeZone: "Asia/Tokyo" };
+  // Named date formats (`format.dateTime(d, "day")`) and the brewery's clock, shared with PDFs and CSV (./dates.ts).
+  return { locale, messages: loadMessages(locale), timeZone: breweryTimeZone(), formats: { dateTime: DATE_FORMATS[locale] } };
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { checkOffline, errorsByField, fieldPaths, requiredFields, type FormValues } from "./floor-form-check";
+import { checkOffline, errorsByField, fieldPaths, requiredFields, unreadNumbers, type FormValues } from "./floor-form-check";
 
 // Stand-ins shaped like the floor's soak and starter forms (app/(floor)/floor/[action]/components.tsx):
 // the body is the event of ../shared/api.md, which the server parses with eventSchema.
@@ -50,5 +50,14 @@ describe("a floor form's fields and the event they build", () => {
 
   it("judges the body as the server receives it: JSON drops undefined attributes instead of refusing them", () => {
     expect(checkOffline({ step: "mash-addition", inputs: [{ lot: "K26-0001", quantity: 5 }], outputs: [{ kind: "tank", quantity: 5, tankName: undefined }] }, t)).toBeNull();
+  });
+
+  it("names a number field whose text is no number people write (\"1,26\"), beside that field; full-width and grouped figures pass", () => {
+    const owners = fieldPaths(starter, {}, starterFields);
+    // Groups of three after the first (common practice); full width folded by NFKC (Unicode UAX #15).
+    const slips = unreadNumbers(starterFields, { kojiCode: "K26-0001", kojiKg: "1,26", waterL: "abc" }, owners, t);
+    expect(slips).toEqual({ "inputs.0.quantity": ["validation.number"], waterL: ["validation.number"] });
+    expect(errorsByField(slips!, owners)).toEqual({ kojiKg: ["validation.number"], _: ["validation.number"] });
+    expect(unreadNumbers(starterFields, { kojiCode: "K26-0001", kojiKg: "１，２６０", waterL: "１３．５" }, owners, t)).toBeNull();
   });
 });

@@ -1,4 +1,5 @@
 import type { z } from "zod";
+import { parseTypedNumber } from "@/domain/typed-input";
 import { eventSchema } from "@/lib/validation/events";
 import { fieldErrorsFrom, type Translate } from "@/lib/validation/field-errors";
 
@@ -85,6 +86,22 @@ export function errorsByField(errors: Record<string, string[]>, owners: Map<stri
     out[key] = [...(out[key] ?? []), ...messages];
   }
   return out;
+}
+
+/**
+ * Number fields whose text is no number as people write it ("1,26", "abc"), keyed by the body
+ * path the field feeds. Checked before the schema: a field that does not parse is sent as null,
+ * which the schema could only call missing.
+ */
+export function unreadNumbers(fields: readonly FormField[], values: FormValues, owners: Map<string, string[]>, t: Translate): Record<string, string[]> | null {
+  const out: Record<string, string[]> = {};
+  for (const f of fields) {
+    const text = values[f.name] ?? "";
+    if (f.type !== "number" || text.trim() === "" || parseTypedNumber(text) !== null) continue;
+    const path = [...owners].find(([, names]) => names.length === 1 && names[0] === f.name)?.[0] ?? f.name;
+    out[path] = [t("validation.number")];
+  }
+  return Object.keys(out).length ? out : null;
 }
 
 /** The same check the server makes first, done on the phone: field errors, or null when the body parses. */

@@ -2,6 +2,7 @@ import "server-only";
 import QRCode from "qrcode";
 import { readableMask } from "./qr-readable";
 import { labelUrl, MAX_LABEL_CODES } from "@/domain/label-url";
+import { parseTypedNumber } from "@/domain/typed-input";
 import { eq } from "drizzle-orm";
 import { lots, parties } from "@/db/schema";
 import { getDb } from "./db";
@@ -61,10 +62,8 @@ export function parseLabelLayout(raw: string | string[] | undefined): LabelLayou
 
 /** The copies field: empty (or anything but a whole number from 1 to MAX_COPIES) means one label per bag. */
 export function parseCopies(raw: string | string[] | undefined): number | null {
-  const text = (Array.isArray(raw) ? raw[0] : raw)?.trim() ?? "";
-  if (!/^\d{1,3}$/.test(text)) return null;
-  const n = Number(text);
-  return n >= 1 && n <= MAX_COPIES ? n : null;
+  const n = parseTypedNumber((Array.isArray(raw) ? raw[0] : raw) ?? "");
+  return n !== null && Number.isInteger(n) && n >= 1 && n <= MAX_COPIES ? n : null;
 }
 
 /** One label per bag: a harvest's bags as the grower registered them; a polished lot's as the mill recorded them, else one per 30 kg. */

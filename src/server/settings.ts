@@ -5,6 +5,7 @@ import type { DbOrTx } from "@/db/client";
 import { settings, users } from "@/db/schema";
 import { DEFAULT_ABSORPTION_BANDS, DEFAULT_KOJI_BANDS, DEFAULT_STEAM_GAIN_BANDS } from "@/domain/brewing";
 import { can } from "@/domain/permissions";
+import { DEFAULT_TIME_ZONE, isTimeZone } from "@/i18n/dates";
 import { fieldErrorsFrom, type Translate } from "@/lib/validation/field-errors";
 import { settingsSchema } from "@/lib/validation/settings";
 import { recordAudit } from "./audit";
@@ -20,6 +21,8 @@ export const SETTING_DEFAULTS = {
   absorptionBands: DEFAULT_ABSORPTION_BANDS,
   steamGainBands: DEFAULT_STEAM_GAIN_BANDS,
   kojiBands: DEFAULT_KOJI_BANDS,
+  // The brewery's clock; Japan keeps one zone, UTC+9 with no DST (IANA tz database).
+  timeZone: DEFAULT_TIME_ZONE as string,
   // What the public bottle page may show; prices and contact details never appear there.
   publicProvenance: { varieties: true, origin: true, growers: true, polishingRatio: true, categories: true, dates: true } as Record<
     "varieties" | "origin" | "growers" | "polishingRatio" | "categories" | "dates",
@@ -36,6 +39,12 @@ export function readSetting<K extends SettingKey>(db: DbOrTx, key: K): (typeof S
 export function writeSetting<K extends SettingKey>(db: DbOrTx, key: K, value: (typeof SETTING_DEFAULTS)[K], userId: string) {
   const row = { key, value: JSON.stringify(value), updatedAt: new Date(), updatedBy: userId };
   db.insert(settings).values(row).onConflictDoUpdate({ target: settings.key, set: row }).run();
+}
+
+/** The brewery's clock for screens, exports and PDFs; a zone the runtime has since dropped falls back to the default. */
+export function breweryTimeZone(db: DbOrTx = getDb()): string {
+  const zone = readSetting(db, "timeZone");
+  return isTimeZone(zone) ? zone : DEFAULT_TIME_ZONE;
 }
 
 export const SETTING_KEYS = Object.keys(SETTING_DEFAULTS) as SettingKey[];

@@ -37,7 +37,7 @@ const prepared = { growerLot: "", eventId: "", token: "", paymentId: "", dispatc
 
 /** The settings form as the page fills it: every band's two bounds and the public-page boxes. */
 function settingsForm(): Record<string, string> {
-  const form: Record<string, string> = { polishingMarginPts: String(SETTING_DEFAULTS.polishingMarginPts) };
+  const form: Record<string, string> = { polishingMarginPts: String(SETTING_DEFAULTS.polishingMarginPts), timeZone: SETTING_DEFAULTS.timeZone };
   for (const group of ["absorptionBands", "steamGainBands", "kojiBands"] as const) {
     for (const [key, band] of Object.entries(SETTING_DEFAULTS[group] as Record<string, { min: number; max: number }>)) {
       form[`${group}.${key}.min`] = String(band.min);

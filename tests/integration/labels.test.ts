@@ -140,6 +140,8 @@ describe("label sheet", () => {
     const three = await buildLabelSheet(brewery, [polished.code, own], "sheet", "https://g.example", 3);
     expect(three.status === "ok" && three.labels.map((l) => l.copies)).toEqual([3, 3]);
     expect(parseCopies("3")).toBe(3);
+    // Typed on a Japanese keyboard: full-width digits fold to ASCII under NFKC (Unicode UAX #15).
+    expect(parseCopies("３")).toBe(3);
     for (const bad of ["0", "-1", "2.5", "201", "1e3", "", "x"]) expect(parseCopies(bad), bad).toBeNull();
   });
 

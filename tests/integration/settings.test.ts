@@ -18,7 +18,7 @@ let brewer: string;
 
 /** The settings page's form, field by field, as the browser posts it. */
 function formOf(settings: ReturnType<typeof readSettings>, changes: Record<string, string> = {}): Record<string, string> {
-  const values: Record<string, string> = { polishingMarginPts: String(settings.polishingMarginPts) };
+  const values: Record<string, string> = { polishingMarginPts: String(settings.polishingMarginPts), timeZone: settings.timeZone };
   for (const [group, keys] of [["absorptionBands", RICE_USES], ["steamGainBands", RICE_USES], ["kojiBands", KOJI_CHECKPOINTS]] as const) {
     for (const k of keys) {
       const band = (settings[group] as Record<string, { min: number; max: number }>)[k]!;
@@ -77,10 +77,10 @@ describe("brewery settings", () => {
     expect(error?.status).toBe(422);
     expect(error?.fields).toEqual({
       "absorptionBands.mash.max": ["The upper edge must be above the lower edge."],
-      "steamGainBands.koji.max": ["This must be at most 100."],
+      "steamGainBands.koji.max": [t("validation.tooBig", { maximum: 100 })],
       "kojiBands.bringingIn.min": ["This is required."],
-      "kojiBands.finish.max": ["This must be at most 60."],
-      polishingMarginPts: ["This must be at most 10."],
+      "kojiBands.finish.max": [t("validation.tooBig", { maximum: 60 })],
+      polishingMarginPts: [t("validation.tooBig", { maximum: 10 })],
     });
     // Equal edges are no band either.
     expect(() => saveSettings(actor("user-admin"), settingsFromForm(formOf(readSettings(), { "kojiBands.mounding.min": "36", "kojiBands.mounding.max": "36" })), t)).toThrow(
@@ -122,5 +122,26 @@ describe("brewery settings", () => {
     expect(audits).toHaveLength(2);
     expect(JSON.parse(audits[1]!.detail)).toMatchObject({ restoredDefaults: true, changed: ["absorptionBands"], before: { absorptionBands: { mash: { min: 28, max: 34 } } } });
     expect(restoreSettingDefaults(actor("user-admin")).changed).toEqual([]);
+  });
+});
+
+describe("the brewery's time zone", () => {
+  it("refuses a zone the IANA list lacks with a field message, and saves nothing", async () => {
+    const before = await tableDigests();
+    for (const zone of ["Asia/Osaka", "JST", ""]) {
+      expect(() => saveSettings(actor("user-admin"), settingsFromForm(formOf(readSettings(), { timeZone: zone })), t)).toThrow(
+        expect.objectContaining({ status: 422, fields: { timeZone: ["Choose a time zone from the list (e.g. Asia/Tokyo)."] } }),
+      );
+    }
+    expect(await tableDigests()).toEqual(before);
+  });
+
+  it("saves a zone of the list (Intl.supportedValuesOf, ECMA-402) and audits it; figures may be typed full width", () => {
+    const saved = saveSettings(actor("user-admin"), settingsFromForm(formOf(readSettings(), { timeZone: "Europe/London", polishingMarginPts: "１.５" })), t);
+    expect(saved.changed).toEqual(["polishingMarginPts", "timeZone"]);
+    expect(readSetting(getDb(), "timeZone")).toBe("Europe/London");
+    expect(JSON.parse(auditRows().at(-1)!.detail)).toMatchObject({ before: { timeZone: "Asia/Tokyo" }, after: { timeZone: "Europe/London" } });
+    restoreSettingDefaults(actor("user-admin"));
+    expect(readSetting(getDb(), "timeZone")).toBe("Asia/Tokyo");
   });
 });

@@ -2,6 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
+import { typedNumber } from "@/lib/validation/typed";
 import { formValues, type FormState } from "@/lib/form-state";
 import { harvestSchema } from "@/lib/validation/events";
 import { fieldSchema } from "@/lib/validation/fields";
@@ -26,11 +27,12 @@ export async function createFieldAction(_prev: FormState, formData: FormData): P
 const harvestForm = z.object({
   fieldId: z.string().min(1).max(64),
   variety: z.string(),
-  cropYear: z.coerce.number(),
-  brownKg: z.coerce.number(),
-  moisturePct: z.coerce.number(),
+  // Read as typed ("1,260", "１４.８"); harvestSchema holds the bounds.
+  cropYear: typedNumber(-Infinity, Infinity),
+  brownKg: typedNumber(-Infinity, Infinity),
+  moisturePct: typedNumber(-Infinity, Infinity),
   grade: z.string(),
-  bags: z.coerce.number(),
+  bags: typedNumber(-Infinity, Infinity),
 });
 
 export async function registerHarvestAction(_prev: FormState, formData: FormData): Promise<FormState> {

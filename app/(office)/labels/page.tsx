@@ -66,7 +66,7 @@ export default async function LabelsPage({ searchParams }: Props) {
           </div>
           <div>
             <label htmlFor="copies" className="field-label">{t("labels.copies")}</label>
-            <input id="copies" name="copies" type="number" min={1} max={MAX_COPIES} step={1} inputMode="numeric" className="field-input w-32" defaultValue={copies ?? ""} aria-describedby="copies-hint" />
+            <input id="copies" name="copies" inputMode="numeric" className="field-input w-32" defaultValue={copies ?? ""} aria-describedby="copies-hint" />
             <p id="copies-hint" className="mt-1 max-w-sm text-sm text-ink-soft">{t("labels.copiesHint", { max: MAX_COPIES })}</p>
           </div>
           <button type="submit" className="btn-quiet">{t("labels.show")}</button>

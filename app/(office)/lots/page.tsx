@@ -1,5 +1,6 @@
 import { getTranslations } from "next-intl/server";
 import { z } from "zod";
+import { optionalTypedNumber } from "@/lib/validation/typed";
 import { GRADES } from "@/domain/grades";
 import { LOT_KIND_LIST } from "@/domain/steps";
 import { LOT_SORTS, listLots } from "@/server/lots";
@@ -19,7 +20,7 @@ const searchSchema = z.object({
   kind: z.preprocess(blank, z.enum(LOT_KIND_LIST).optional()).catch(undefined),
   grade: z.preprocess(blank, z.enum(GRADES).optional()).catch(undefined),
   variety: z.preprocess(blank, z.string().max(60).optional()).catch(undefined),
-  cropYear: z.preprocess(blank, z.coerce.number().int().min(2000).max(2100).optional()).catch(undefined),
+  cropYear: optionalTypedNumber(2000, 2100, { int: true }).catch(undefined),
   q: z.preprocess(blank, z.string().max(20).optional()).catch(undefined),
   partyId: z.preprocess(blank, z.string().max(64).optional()).catch(undefined),
   sort: z.enum(LOT_SORTS).optional().catch(undefined),

@@ -6,11 +6,13 @@ import { useState } from "react";
 import { useTranslations } from "next-intl";
 import { CodeField } from "@/components/floor/code-field";
 import { postJson } from "@/lib/api-client";
+import { parseTypedNumber } from "@/domain/typed-input";
 
 type Row = { lot: string; quantity: string };
 type Result = { id: number; outputs: { code: string; kind: string; quantity: number; unit: string }[]; warnings: string[] };
 
-const num = (v: string) => (v.trim() === "" ? undefined : Number(v.replace(",", ".")));
+// Read as people type ("1,260", "１３.５"); text that is no number goes as NaN (null), which the schema refuses.
+const num = (v: string) => (v.trim() === "" ? undefined : (parseTypedNumber(v) ?? NaN));
 
 /** A polishing run typed at the mill: harvest lots by code with the brown weight drawn from each. */
 export function PolishingRunForm() {

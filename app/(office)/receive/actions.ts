@@ -2,6 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
+import { typedNumber } from "@/lib/validation/typed";
 import { normaliseLotCode } from "@/domain/lot-code";
 import { formValues, type FormState } from "@/lib/form-state";
 import { eventSchema } from "@/lib/validation/events";
@@ -13,7 +14,7 @@ import { requireUser } from "@/server/session";
 
 const receiptForm = z.object({
   code: z.string().trim().min(1).max(20),
-  quantity: z.coerce.number().finite().positive().max(10_000_000),
+  quantity: typedNumber(0, 10_000_000, { positive: true }),
   referenceDoc: z.string().trim().max(100).default(""),
   place: z.string().trim().max(200).default(""),
   date: z.iso.date().optional().or(z.literal("").transform(() => undefined)),

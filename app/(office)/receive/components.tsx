@@ -16,7 +16,7 @@ export function ReceiveForm({ receivers }: { receivers: { id: string; name: stri
     <form action={action} className="grid gap-4 sm:grid-cols-2" noValidate key={state.ok ? `ok-${state.message}` : "form"}>
       <div className="sm:col-span-2"><FormMessage state={state} /></div>
       <ScanCodeInput id="code" name="code" label={t("code")} required defaultValue={v("code")} errors={state.fields?.code ?? state.fields?.["inputs.0.lot"]} />
-      <FormField label={t("arrivalKg")} name="quantity" type="number" step="0.1" min="0" required defaultValue={v("quantity")} errors={state.fields?.quantity ?? state.fields?.["inputs.0.quantity"]} />
+      <FormField label={t("arrivalKg")} name="quantity" inputMode="decimal" required defaultValue={v("quantity")} errors={state.fields?.quantity ?? state.fields?.["inputs.0.quantity"]} />
       <FormField label={t("slip")} name="referenceDoc" defaultValue={v("referenceDoc")} errors={state.fields?.referenceDoc} />
       <FormField label={t("place")} name="place" defaultValue={v("place")} errors={state.fields?.place} />
       <FormField label={t("at")} name="date" type="date" defaultValue={v("date")} errors={state.fields?.date ?? state.fields?.at} />

@@ -3,6 +3,7 @@
 import { useFormatter, useTranslations } from "next-intl";
 import { useSearchParams } from "next/navigation";
 import { useEffect, useState } from "react";
+import { parseTypedNumber } from "@/domain/typed-input";
 import { discardQueuedWrite, keepRefusedWrite, readQueuedWrite, setQueueOwner, submitFloorWrite } from "@/lib/offline-queue";
 
 // Polished rice is soaked at about 13–15 % moisture; 40 % is far beyond any dry rice and
@@ -39,7 +40,7 @@ export function RecordMoisture({ code, userId }: { code: string; userId: string 
 
   const record = async (event: React.FormEvent) => {
     event.preventDefault();
-    const pct = Number(value.replace(",", "."));
+    const pct = parseTypedNumber(value) ?? NaN;
     if (!value.trim() || !Number.isFinite(pct) || pct <= 0 || pct > MAX_DRY_MOISTURE_PCT) {
       setOutcome({ tone: "invalid", text: t("invalid") });
       return;

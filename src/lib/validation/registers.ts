@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { VARIETY_KINDS } from "@/domain/varieties";
+import { typedNumber } from "./typed";
 
 const blankToUndefined = (v: unknown) => (v === "" || v === null ? undefined : v);
 
@@ -8,7 +9,7 @@ export const tankEntrySchema = z.object({
   id: z.preprocess(blankToUndefined, z.string().regex(/^tank-[a-z0-9]{1,24}$/).optional()),
   name: z.string().trim().min(1).max(40),
   // Capacity in litres; a sake tank rarely exceeds a few tens of kL (common practice).
-  capacityL: z.preprocess(blankToUndefined, z.coerce.number().finite().positive().max(200_000)),
+  capacityL: typedNumber(0, 200_000, { positive: true }),
   location: z.string().trim().max(80).default(""),
   // A checkbox: "on" when ticked, absent when not.
   active: z.preprocess((v) => v === "on" || v === true || v === "true", z.boolean()),

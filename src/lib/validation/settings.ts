@@ -1,13 +1,17 @@
 import { z } from "zod";
 import { KOJI_CHECKPOINTS, RICE_USES } from "@/domain/brewing";
+import { isTimeZone } from "@/i18n/dates";
+import { typedNumber } from "./typed";
 
 /**
  * The brewery's bands and margin. Percentages are of dry weight (0–100 %), koji room
  * temperatures in °C (0–60), the polishing margin in points (0–10). A band's lower edge
  * must sit below its upper edge; the message is keyed to the upper field.
  */
-const figure = (min: number, max: number) =>
-  z.preprocess((v) => (typeof v === "string" ? (v.trim() === "" ? undefined : Number(v.trim())) : v), z.number().finite().min(min).max(max));
+const figure = (min: number, max: number) => typedNumber(min, max);
+
+/** An IANA zone name the runtime knows (the brewery's clock: day boundaries of screens, exports and PDFs). */
+const timeZone = z.string().trim().refine(isTimeZone, { message: "validation.timeZone" });
 
 const band = (min: number, max: number) =>
   z
@@ -26,6 +30,7 @@ export const settingsSchema = z
     absorptionBands: perKey(RICE_USES, band(0, 100)),
     steamGainBands: perKey(RICE_USES, band(0, 100)),
     kojiBands: perKey(KOJI_CHECKPOINTS, band(0, 60)),
+    timeZone,
     publicProvenance: z.object(Object.fromEntries(PUBLIC_FIELDS.map((k) => [k, z.boolean()])) as Record<(typeof PUBLIC_FIELDS)[number], z.ZodBoolean>).strict(),
   })
   .strict();
@@ -40,6 +45,7 @@ export function settingsFromForm(values: Record<string, string | undefined>): Re
     absorptionBands: bands("absorptionBands", RICE_USES),
     steamGainBands: bands("steamGainBands", RICE_USES),
     kojiBands: bands("kojiBands", KOJI_CHECKPOINTS),
+    timeZone: values.timeZone,
     publicProvenance: Object.fromEntries(PUBLIC_FIELDS.map((k) => [k, values[`publicProvenance.${k}`] === "on"])),
   };
 }

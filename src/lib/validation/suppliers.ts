@@ -5,13 +5,12 @@ import { isInvoiceNumber, normaliseInvoiceNumber } from "@/domain/invoice-number
 import { ROUNDINGS } from "@/domain/money";
 import { ENTRY_RATES } from "@/domain/tax";
 import { fieldErrorsFrom, type Translate } from "./field-errors";
+import { typedNumber } from "./typed";
 
-/** Whole yen; forms send strings, the API numbers. Commas people type as separators are dropped. */
-const yen = (min: number, max = 1_000_000_000) =>
-  z.preprocess((v) => (typeof v === "string" ? (v.trim() === "" ? undefined : Number(v.replace(/[,\s]/g, ""))) : v), z.number().int().min(min).max(max));
+/** Whole yen; forms send strings as people type them ("1,260", full width), the API numbers. */
+const yen = (min: number, max = 1_000_000_000) => typedNumber(min, max, { int: true });
 const optionalYen = (min: number) => z.preprocess((v) => (v === "" ? undefined : v), yen(min).optional());
-const figure = (min: number, max: number) =>
-  z.preprocess((v) => (typeof v === "string" ? (v.trim() === "" ? undefined : Number(v.trim())) : v), z.number().finite().min(min).max(max));
+const figure = (min: number, max: number) => typedNumber(min, max);
 const text = (max: number) => z.string().trim().max(max);
 const day = z.iso.date();
 

@@ -37,3 +37,12 @@ describe("typed zod helpers", () => {
     expect(optionalTypedDate().parse("")).toBeUndefined();
   });
 });
+
+describe("bounds keep zod's own issue codes", () => {
+  it("too big and too small are worded by field-errors, not as 'enter a number'", () => {
+    const pct = typedNumber(0, 60);
+    const issue = pct.safeParse("61").error?.issues[0];
+    expect(issue).toMatchObject({ code: "too_big", maximum: 60 });
+    expect(pct.safeParse("-1").error?.issues[0]).toMatchObject({ code: "too_small", minimum: 0 });
+  });
+});

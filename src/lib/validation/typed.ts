@@ -22,7 +22,8 @@ type NumberOptions = { int?: boolean; positive?: boolean };
 
 function numberSchema(min: number, max: number, { int = false, positive = false }: NumberOptions) {
   const kind = int ? "validation.wholeNumber" : "validation.number";
-  let n = z.number({ error: (issue) => (issue.input === undefined ? "validation.required" : kind) }).finite().min(min).max(max);
+  // Only the type issue is worded here; bounds keep zod's own codes, which field-errors words.
+  let n = z.number({ error: (issue) => (issue.code !== "invalid_type" ? undefined : issue.input === undefined ? "validation.required" : kind) }).finite().min(min).max(max);
   if (positive) n = n.positive();
   return int ? n.int({ message: "validation.wholeNumber" }) : n;
 }
@@ -47,7 +48,7 @@ function toDay(v: unknown, ctx: z.RefinementCtx): unknown {
   return day;
 }
 
-const daySchema = z.string({ error: (issue) => (issue.input === undefined ? "validation.required" : "validation.date") }).regex(/^\d{4}-\d{2}-\d{2}$/, { message: "validation.date" });
+const daySchema = z.string({ error: (issue) => (issue.code !== "invalid_type" ? undefined : issue.input === undefined ? "validation.required" : "validation.date") }).regex(/^\d{4}-\d{2}-\d{2}$/, { message: "validation.date" });
 
 /** A required calendar day typed as 2026/10/03, 2026-10-03 or 2026年10月3日, read as "YYYY-MM-DD". */
 export function typedDate() {

@@ -10,7 +10,8 @@ import { roundPct } from "@/domain/polishing";
 import { BOTTLE_SIZES_ML } from "@/domain/steps";
 import { CodeField, RequiredMark } from "@/components/floor/code-field";
 import { appendBag, bagCodes, moreBagFields, moreBags, MoreBags } from "@/components/floor/more-bags";
-import { checkOffline, errorsByField, fieldPaths, requiredFields } from "@/lib/floor-form-check";
+import { checkOffline, errorsByField, fieldPaths, requiredFields, unreadNumbers } from "@/lib/floor-form-check";
+import { parseTypedNumber } from "@/domain/typed-input";
 import { discardQueuedWrite, keepRefusedWrite, readQueuedWrite, setQueueOwner, submitFloorWrite } from "@/lib/offline-queue";
 import type { Translate } from "@/lib/validation/field-errors";
 import type { ApiLot } from "@/server/lots";
@@ -23,7 +24,8 @@ type V = Record<string, string>;
 type Field = { name: string; type: "number" | "text" | "code" | "select" | "datetime" | "checkbox"; options?: readonly string[]; show?: (v: V) => boolean; bags?: string };
 type Result = { id: number; outputs: { code: string; kind: string; quantity: number; unit: string }[]; warnings: string[] };
 
-const n = (s: string | undefined) => (s && s.trim() !== "" ? Number(s.replace(",", ".")) : NaN);
+// Read as people type ("1,260", "１３.５"); what is not a number is NaN, sent as null and refused.
+const n = (s: string | undefined) => parseTypedNumber(s ?? "") ?? NaN;
 const nowLocal = () => new Date(Date.now() - new Date().getTimezoneOffset() * 60000).toISOString().slice(0, 16);
 const iso = (local: string) => (local ? new Date(local).toISOString() : undefined);
 const ms = (name: string, value: number, unit: string) => (Number.isFinite(value) ? [{ name, value, unit }] : []);
@@ -178,7 +180,7 @@ export function FloorActionForm({ action, lot, bands, userId, queuedId, tanks = 
     e.preventDefault();
     const body = def.build(values, lot);
     // The server's own schema, on the phone: a slip is shown now, not after the queue sends it.
-    const slips = checkOffline(body, translate as unknown as Translate);
+    const slips = unreadNumbers(checked, values, owners, translate as unknown as Translate) ?? checkOffline(body, translate as unknown as Translate);
     if (slips) return setProblem({ message: t("fixFields"), fields: slips });
     setPending(true);
     // The queue gives the write its Idempotency-Key and keeps it when the network is down.

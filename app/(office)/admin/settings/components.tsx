@@ -12,7 +12,7 @@ import { restoreDefaultsAction, saveSettingsAction } from "./actions";
 
 type BandGroup = "absorptionBands" | "steamGainBands" | "kojiBands";
 
-export function SettingsForm({ current, defaults }: { current: BrewerySettings; defaults: BrewerySettings }) {
+export function SettingsForm({ current, defaults, zones }: { current: BrewerySettings; defaults: BrewerySettings; zones: string[] }) {
   const t = useTranslations("settingsPage");
   const [state, action, pending] = useActionState(saveSettingsAction, initialFormState);
   // After a refusal the form shows what was typed; otherwise what is saved.
@@ -40,8 +40,17 @@ export function SettingsForm({ current, defaults }: { current: BrewerySettings; 
         <legend className="px-1 text-lg font-bold">{t("margin.title")}</legend>
         <p className="text-sm text-ink-soft">{t("margin.intro")}</p>
         <div className="max-w-xs">
-          <FormField label={t("margin.label")} name="polishingMarginPts" type="number" inputMode="decimal" step="0.1" defaultValue={value("polishingMarginPts", current.polishingMarginPts)} errors={state.fields?.polishingMarginPts} />
+          <FormField label={t("margin.label")} name="polishingMarginPts" inputMode="decimal" defaultValue={value("polishingMarginPts", current.polishingMarginPts)} errors={state.fields?.polishingMarginPts} />
           <p className="mt-1 text-xs text-ink-soft">{t("defaultIs", { value: `${defaults.polishingMarginPts} ${t("margin.unit")}` })}</p>
+        </div>
+      </fieldset>
+      <fieldset className="panel space-y-3">
+        <legend className="px-1 text-lg font-bold">{t("timeZone.title")}</legend>
+        <p className="text-sm text-ink-soft">{t("timeZone.intro")}</p>
+        <div className="max-w-xs">
+          <FormField label={t("timeZone.label")} name="timeZone" list="time-zones" autoComplete="off" defaultValue={(state.ok ? undefined : state.values?.timeZone) ?? current.timeZone} errors={state.fields?.timeZone} />
+          <datalist id="time-zones">{zones.map((z) => <option key={z} value={z} />)}</datalist>
+          <p className="mt-1 text-xs text-ink-soft">{t("defaultIs", { value: defaults.timeZone })}</p>
         </div>
       </fieldset>
       <fieldset className="panel space-y-3" data-testid="public-fields">
@@ -65,8 +74,8 @@ function BandFields({ name, legend, unit, saved, fallback, value, state }: { nam
     <fieldset className="grid gap-3 sm:grid-cols-[10rem_1fr_1fr] sm:items-start">
       <legend className="sr-only">{legend}</legend>
       <p aria-hidden="true" className="pt-7 font-semibold">{legend}</p>
-      <FormField label={t("from", { unit })} name={`${name}.min`} type="number" inputMode="decimal" step="0.1" defaultValue={value(`${name}.min`, saved.min)} errors={state.fields?.[`${name}.min`]} />
-      <FormField label={t("to", { unit })} name={`${name}.max`} type="number" inputMode="decimal" step="0.1" defaultValue={value(`${name}.max`, saved.max)} errors={state.fields?.[`${name}.max`]} />
+      <FormField label={t("from", { unit })} name={`${name}.min`} inputMode="decimal" defaultValue={value(`${name}.min`, saved.min)} errors={state.fields?.[`${name}.min`]} />
+      <FormField label={t("to", { unit })} name={`${name}.max`} inputMode="decimal" defaultValue={value(`${name}.max`, saved.max)} errors={state.fields?.[`${name}.max`]} />
       {/* A band moved off its default says so, so the brewery sees what it has set itself. */}
       <p className={`text-xs sm:col-start-2 sm:col-span-2 ${saved.min !== fallback.min || saved.max !== fallback.max ? "font-semibold text-cedar-deep" : "text-ink-soft"}`}>{t("defaultIs", { value: `${fallback.min}–${fallback.max} ${unit}` })}</p>
     </fieldset>

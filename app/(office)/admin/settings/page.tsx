@@ -29,7 +29,7 @@ export default async function SettingsPage() {
           {last ? t("lastChange", { at: format.dateTime(last.at, { dateStyle: "medium", timeStyle: "short" }), by: last.by }) : t("allDefaults")}
         </p>
       </PageHeader>
-      <SettingsForm current={current} defaults={SETTING_DEFAULTS} />
+      <SettingsForm current={current} defaults={SETTING_DEFAULTS} zones={Intl.supportedValuesOf("timeZone")} />
       <TankRegister tanks={tankRegisterWithContents()} />
       <VarietyList varieties={readVarietyList()} />
       <section className="panel max-w-2xl space-y-3">

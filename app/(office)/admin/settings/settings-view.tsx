@@ -51,6 +51,10 @@ export async function SettingsView({ current }: { current: BrewerySettings }) {
         <p className="text-sm">{`${t("margin.label")}: ${current.polishingMarginPts} ${t("margin.unit")}`}</p>
       </section>
       <section className="panel space-y-2">
+        <h2 className="text-lg font-bold">{t("timeZone.title")}</h2>
+        <p className="text-sm">{`${t("timeZone.label")}: ${current.timeZone}`}</p>
+      </section>
+      <section className="panel space-y-2">
         <h2 className="text-lg font-bold">{t("public.title")}</h2>
         <ul className="text-sm">
           {PUBLIC_FIELDS.map((k) => (

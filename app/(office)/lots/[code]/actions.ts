@@ -2,6 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
+import { typedNumber } from "@/lib/validation/typed";
 import { normaliseLotCode } from "@/domain/lot-code";
 import { can, canSeeLot } from "@/domain/permissions";
 import { formValues, type FormState } from "@/lib/form-state";
@@ -29,7 +30,7 @@ const shipmentForm = z.object({
   code: z.string().trim().min(1).max(20),
   counterpartyId: z.string().trim().min(1).max(64),
   date: z.iso.date(),
-  quantity: z.coerce.number().finite().positive().max(10_000_000),
+  quantity: typedNumber(0, 10_000_000, { positive: true }),
   referenceDoc: z.string().trim().min(1).max(100),
 });
 

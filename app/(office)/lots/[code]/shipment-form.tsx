@@ -27,7 +27,7 @@ export function ShipmentForm({ code, unit, onHand, buyers, today }: Props) {
         {f.counterpartyId ? <p className="field-error">{f.counterpartyId.join(" ")}</p> : null}
       </div>
       <FormField id="ship-date" label={t("date")} name="date" type="date" required defaultValue={v("date", today)} errors={f.date ?? f.at} />
-      <FormField id="ship-quantity" label={t("quantity", { unit })} name="quantity" type="number" inputMode="decimal" min={0} max={onHand} step="any" required defaultValue={v("quantity")} errors={f.quantity ?? f["inputs.0.quantity"] ?? f["inputs.0.lot"] ?? f.code} />
+      <FormField id="ship-quantity" label={t("quantity", { unit })} name="quantity" inputMode="decimal" required defaultValue={v("quantity")} errors={f.quantity ?? f["inputs.0.quantity"] ?? f["inputs.0.lot"] ?? f.code} />
       <FormField id="ship-slip" label={t("slip")} name="referenceDoc" required maxLength={100} defaultValue={v("referenceDoc")} errors={f.referenceDoc} />
       <div className="sm:col-span-2"><button type="submit" className="btn" disabled={pending || buyers.length === 0}>{t("record")}</button></div>
     </form>

@@ -4,15 +4,13 @@ import { useState } from "react";
 import { useTranslations } from "next-intl";
 import { useYen } from "@/components/supplier-account";
 import { FormField } from "@/components/ui/form-field";
+import { parseTypedNumber } from "@/domain/typed-input";
 import { PAYMENT_METHODS } from "@/lib/validation/suppliers";
 import { recordPaymentAction, reversePaymentAction } from "./actions";
 import { Select, SupplierForm, useSupplierForm } from "./components";
 
-/** What the form reads as yen: whole numbers, with the separators people type. */
-const typedYen = (v: string) => {
-  const n = Number(v.replace(/[,\s]/g, ""));
-  return v.trim() !== "" && Number.isFinite(n) ? n : null;
-};
+/** What the form reads as yen: as people type it ("1,260", full width), the server's own rule. */
+const typedYen = (v: string) => parseTypedNumber(v);
 
 /**
  * A payment. Above the balance owed the form warns at once, with the balance, and asks for the
