@@ -4,6 +4,7 @@ import { useFormatter, useTranslations } from "next-intl";
 import type { ColumnDef } from "@tanstack/react-table";
 import { AGEING_BUCKETS, type Ageing } from "@/domain/ageing";
 import type { AccountRow } from "@/server/supplier-describe";
+import { CsvDownloadLinks } from "./csv-download-links";
 import { DataTable } from "./data-table";
 
 export function useYen() {
@@ -72,7 +73,7 @@ export function StatementsTable({ partyId, rows }: { partyId: string; rows: Stat
       cell: (c) => (
         <span className="flex gap-3">
           <a href={`${base(c.row.original.number)}/statement.pdf`} download>{t("statements.pdf")}</a>
-          <a href={`${base(c.row.original.number)}/statement.csv`} download>{t("statements.csv")}</a>
+          <CsvDownloadLinks href={`${base(c.row.original.number)}/statement.csv`} label={t("statements.csv")} />
         </span>
       ),
     },

@@ -4,15 +4,16 @@ import Link from "next/link";
 import Papa from "papaparse";
 import { useRef, useState } from "react";
 import { useTranslations } from "next-intl";
+import { decodeCsvBytes, type CsvEncoding, type DecodedCsv } from "@/lib/csv-encoding";
 import { createLineCollector, csvText, IMPORT_COLUMNS, MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, saveCsvFile, TEMPLATE_EXAMPLES, type CsvLine, type ImportKind } from "@/lib/validation/csv";
 import type { ImportReport, RowProblem } from "@/server/csv-import";
 
-type ParsedFile = { name: string; header: string[]; rows: CsvLine[]; parseErrors: Map<number, string[]> };
+type ParsedFile = { name: string; encoding: CsvEncoding; header: string[]; rows: CsvLine[]; parseErrors: Map<number, string[]> };
 type Phase = "idle" | "reading" | "checking" | "checked" | "committing" | "done";
 type Answer = { ok: boolean; status: number; body: Partial<ImportReport> & { error?: { message: string; fields?: Record<string, string[]> } } };
 
-// The file is read in chunks; between chunks the page repaints the progress bar.
-const CHUNK_BYTES = 128 * 1024;
+// The decoded text is parsed in chunks; between chunks the page repaints the progress bar.
+const CHUNK_CHARS = 64 * 1024;
 const SHOWN_ROWS = 500;
 
 async function send(url: string, body: unknown, idempotencyKey?: string): Promise<Answer> {
@@ -59,24 +60,37 @@ export function ImportWorkbench({ kinds }: { kinds: ImportKind[] }) {
     setPhase("checked");
   }
 
-  function read(chosen: File) {
+  const refusal = (decoded: Exclude<DecodedCsv, { ok: true }>) =>
+    decoded.reason === "undecodable" ? t("undecodable") : t(decoded.reason === "replacement" ? "replacementChar" : "controlChar", { line: decoded.line });
+
+  async function read(chosen: File) {
     setFile(null);
     setReport(null);
     setFailure([]);
     if (chosen.size > MAX_IMPORT_BYTES) return setFailure([t("tooLarge")]);
+    setPhase("reading");
+    setProgress(0);
+    // Decoded whole before parsing: papaparse reading a File slices it by bytes, which can cut a character in two.
+    const decoded = decodeCsvBytes(new Uint8Array(await chosen.arrayBuffer()));
+    if (!decoded.ok) {
+      setFailure([refusal(decoded)]);
+      return setPhase("idle");
+    }
+    parse(chosen.name, decoded.encoding, decoded.text);
+  }
+
+  function parse(name: string, encoding: CsvEncoding, text: string) {
     const collector = createLineCollector();
     const parseErrors = new Map<number, string[]>();
     let chunks = 0;
     let tooMany = false;
     let finished = false;
-    setPhase("reading");
-    setProgress(0);
-    Papa.parse<string[]>(chosen, {
+    Papa.parse<string[]>(text, {
       worker: false,
       header: false,
       skipEmptyLines: false,
-      chunkSize: CHUNK_BYTES,
-      chunk(results, parser) {
+      chunkSize: CHUNK_CHARS,
+      chunk(results: Papa.ParseResult<string[]>, parser: Papa.Parser) {
         const lines = collector.add(results.data, results.meta.linebreak);
         for (const e of results.errors) {
           if (e.type === "Delimiter") continue;
@@ -84,11 +98,14 @@ export function ImportWorkbench({ kinds }: { kinds: ImportKind[] }) {
           parseErrors.set(line, [...(parseErrors.get(line) ?? []), e.message]);
         }
         chunks += 1;
-        setProgress(Math.min(1, (chunks * CHUNK_BYTES) / Math.max(chosen.size, 1)));
+        setProgress(Math.min(1, (chunks * CHUNK_CHARS) / Math.max(text.length, 1)));
         if (collector.rows.length > MAX_IMPORT_ROWS) {
           tooMany = true;
-          parser.abort();
+          return parser.abort();
         }
+        // A string is parsed in one go unless paused: resuming on a timer lets the bar repaint.
+        parser.pause();
+        setTimeout(() => parser.resume(), 0);
       },
       complete() {
         if (finished) return;
@@ -99,7 +116,7 @@ export function ImportWorkbench({ kinds }: { kinds: ImportKind[] }) {
           setFailure([failed]);
           return setPhase("idle");
         }
-        const parsed = { name: chosen.name, header: collector.header!, rows: collector.rows, parseErrors };
+        const parsed = { name, encoding, header: collector.header!, rows: collector.rows, parseErrors };
         setFile(parsed);
         void check(parsed, kind);
       },
@@ -151,7 +168,7 @@ export function ImportWorkbench({ kinds }: { kinds: ImportKind[] }) {
         </fieldset>
         <div>
           <label htmlFor="csv-file" className="field-label">{t("file")}</label>
-          <input key={inputKey} id="csv-file" type="file" accept=".csv,text/csv" className="field-input" disabled={busy || phase === "done"} onChange={(e) => e.target.files?.[0] && read(e.target.files[0])} />
+          <input key={inputKey} id="csv-file" type="file" accept=".csv,text/csv" className="field-input" disabled={busy || phase === "done"} onChange={(e) => e.target.files?.[0] && void read(e.target.files[0])} />
           <p className="mt-1 text-sm text-ink-soft">{t("fileHint")}</p>
         </div>
         <TemplateButtons kinds={kinds} />
@@ -201,6 +218,7 @@ function Preview({ file, report, busy, onCommit }: { file: ParsedFile; report: I
   return (
     <section className="space-y-3" aria-labelledby="preview-title">
       <h2 id="preview-title" className="text-xl font-bold">{t("summary", { rows: file.rows.length, file: file.name })}</h2>
+      <p className="text-sm" data-testid="import-encoding">{t("encoding", { encoding: file.encoding })}</p>
       <p className={failures ? "notice-warn" : "notice"} data-testid="import-summary">{t("problems", { count: failures })}</p>
       {failures ? (
         <label className="flex items-center gap-2 text-sm">

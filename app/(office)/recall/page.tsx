@@ -10,6 +10,7 @@ import { canHoldLots } from "@/domain/permissions";
 import { HoldPanel } from "./hold-panel";
 import { ReachedLotsTable, type ReachedLot } from "./components";
 import { PageHeader } from "@/components/page-header";
+import { CsvDownloadLinks } from "@/components/csv-download-links";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("recall"))("title") };
@@ -70,7 +71,7 @@ export default async function RecallPage({ searchParams }: { searchParams: Promi
           <section className="panel space-y-3">
             <h3 className="text-xl font-bold">{t("recall.downloadsTitle")}</h3>
             <p>
-              <a href={`${api}/recall.csv`} download className="btn" data-testid="recall-csv">{t("recall.downloadCsv")}</a>
+              <CsvDownloadLinks href={`${api}/recall.csv`} label={t("recall.downloadCsv")} className="btn" testId="recall-csv" />
               <span className="ml-3 text-sm text-ink-soft">{t("recall.downloadCsvHint")}</span>
             </p>
             <p>

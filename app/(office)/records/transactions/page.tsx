@@ -8,6 +8,7 @@ import { requirePageUser } from "@/server/page-guard";
 import { listTransactionRecords, parseDateRange, type TransactionRecord } from "@/server/transactions-export";
 import { TransactionsTable } from "./components";
 import { PageHeader } from "@/components/page-header";
+import { CsvDownloadLinks } from "@/components/csv-download-links";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("csv.records"))("title") };
@@ -43,7 +44,7 @@ export default async function TransactionsPage({ searchParams }: { searchParams:
         <FormField label={t("from")} name="from" type="date" required defaultValue={from} errors={errors.from} />
         <FormField label={t("to")} name="to" type="date" required defaultValue={to} errors={errors.to} />
         <button type="submit" className="btn">{t("show")}</button>
-        {records ? <a href={download} download className="btn-quiet" data-testid="transactions-download">{t("download")}</a> : null}
+        {records ? <CsvDownloadLinks href={download} label={t("download")} className="btn-quiet" testId="transactions-download" /> : null}
       </form>
       {records ? <TransactionsTable rows={records} exportName={`grainline-transactions-${from}-to-${to}`} /> : null}
     </div>
