@@ -22,7 +22,8 @@ export default defineConfig({
     trace: "retain-on-failure",
     launchOptions: { executablePath: process.env.CHROMIUM_PATH || "/usr/bin/chromium", args: CHROMIUM_ARGS },
   },
-  projects: [{ name: "chromium", use: { ...devices["Desktop Chrome"], channel: undefined } }],
+  // English unless a spec says otherwise (`test.use({ locale: "ja-JP" })`): the app itself defaults to Japanese.
+  projects: [{ name: "chromium", use: { ...devices["Desktop Chrome"], channel: undefined, locale: "en-US" } }],
   webServer: {
     // The production server, started the way `npm start` starts it, on a fresh database.
     command: "npx tsx --conditions=react-server src/cli/start.ts",

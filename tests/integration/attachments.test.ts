@@ -52,7 +52,7 @@ function uploadRequest(cookie: string, code: string, parts: Parts, headers: Reco
   if (parts.file) form.append("file", new File([new Uint8Array(parts.file.bytes)], parts.file.name, { type: parts.file.type ?? "application/octet-stream" }));
   if (parts.title !== undefined) form.append("title", parts.title);
   if (parts.eventId !== undefined) form.append("eventId", parts.eventId);
-  return new Request(`${ORIGIN}/api/lots/${code}/attachments`, { method: "POST", body: form, headers: { host: "localhost:3000", cookie, ...headers } });
+  return new Request(`${ORIGIN}/api/lots/${code}/attachments`, { method: "POST", body: form, headers: { host: "localhost:3000", "accept-language": "en", cookie, ...headers } });
 }
 
 async function upload(cookie: string, code: string, parts: Parts, headers: Record<string, string> = {}) {

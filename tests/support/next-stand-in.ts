@@ -51,7 +51,8 @@ export type RawAnswer = { status: number; headers: http.IncomingHttpHeaders; bod
  */
 export function sendRaw(port: number, init: { method?: string; path: string; headers?: Record<string, string>; body?: Buffer; chunks?: Buffer[]; declared?: number; expectContinue?: boolean }): Promise<RawAnswer> {
   return new Promise((resolve, reject) => {
-    const headers: Record<string, string> = { host: "localhost:3000", ...init.headers };
+    // English unless a test says otherwise, as tests/support/api.ts: the tests compare with the English catalogue.
+    const headers: Record<string, string> = { host: "localhost:3000", "accept-language": "en", ...init.headers };
     if (init.body) headers["content-length"] = String(init.body.length);
     if (init.declared !== undefined) headers["content-length"] = String(init.declared);
     if (init.chunks) headers["transfer-encoding"] = "chunked";
