@@ -2,6 +2,7 @@ import Papa from "papaparse";
 import { z } from "zod";
 import { csvSafeCell, csvSafeText } from "@/domain/csv-safe";
 import { GRADES } from "@/domain/grades";
+import { parseTypedDate, parseTypedNumber } from "@/domain/typed-input";
 import { eventInputSchema, eventSchema, harvestSchema, lotCode } from "./events";
 
 /** CSV in and out, shared by the browser (reading files, writing downloads) and the server. */
@@ -23,12 +24,19 @@ export const TEMPLATE_EXAMPLES: Record<ImportKind, string[]> = {
   receipts: ["H26-0001", "grower-ikeda", "600", "2026-10-02", "DS-1042", "Shirotae Polishing Works, Mill Road 5"],
 };
 
-// Plain decimals only: Number() alone would also take "0x10" and "1e3".
-const NUMBER = /^[+-]?(\d+(\.\d*)?|\.\d+)$/;
-const numeric = z.string().trim().min(1).regex(NUMBER, { message: "csv.import.number" }).transform(Number);
-const day = z.iso.date({ message: "csv.import.date" });
-const requiredDay = z.string().trim().min(1).pipe(day);
-const optionalDay = z.string().optional().transform((v) => v?.trim() || undefined).pipe(day.optional());
+/**
+ * Cells as spreadsheets write them: 1,260 (quoted, RFC 4180: unquoted, its comma splits the
+ * cell), １２６０, 2026/10/03 or 2026-10-03 — the parsers forms use (src/domain/typed-input.ts).
+ * Never Number() alone, which would also take "0x10" and "1e3".
+ */
+const numeric = z
+  .string()
+  .trim()
+  .min(1)
+  .transform((cell, ctx) => parseTypedNumber(cell) ?? (ctx.addIssue({ code: "custom", message: "csv.import.number" }), z.NEVER));
+const toDay = (cell: string, ctx: z.RefinementCtx) => parseTypedDate(cell) ?? (ctx.addIssue({ code: "custom", message: "csv.import.date" }), z.NEVER);
+const requiredDay = z.string().trim().min(1).transform(toDay);
+const optionalDay = z.string().optional().transform((v) => v?.trim() || undefined).pipe(z.string().transform(toDay).optional());
 const optionalText = (max: number) => z.string().trim().max(max).default("");
 
 /** A harvest line as read from the file: every cell checked at once, against the harvest's own rules. */
