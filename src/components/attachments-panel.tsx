@@ -50,7 +50,7 @@ export function AttachmentsPanel({ code, canUpload, items }: { code: string; can
                   <td className="py-2 pr-4">{t(`types.${a.kind ?? "other"}`)}</td>
                   <td className="py-2 pr-4 whitespace-nowrap">{size(a.size)}</td>
                   <td className="py-2 pr-4">{a.userName}</td>
-                  <td className="py-2 pr-4 whitespace-nowrap">{format.dateTime(new Date(a.createdAt), { dateStyle: "medium", timeStyle: "short" })}</td>
+                  <td className="py-2 pr-4 whitespace-nowrap">{format.dateTime(new Date(a.createdAt), "dayTime")}</td>
                   <td className="py-2">
                     <a href={a.href} download={a.fileName} className="font-semibold text-cedar underline" aria-label={t("downloadFile", { name: a.fileName })}>
                       {t("download")}

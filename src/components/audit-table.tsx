@@ -11,7 +11,7 @@ export function AuditTable({ rows, pageSize }: { rows: AuditRow[]; pageSize?: nu
   const t = useTranslations("audit");
   const format = useFormatter();
   const columns: ColumnDef<AuditRow, any>[] = [
-    { accessorKey: "at", header: t("at"), cell: (c) => format.dateTime(c.getValue(), { dateStyle: "medium", timeStyle: "medium" }) },
+    { accessorKey: "at", header: t("at"), cell: (c) => format.dateTime(c.getValue(), "dayTime") },
     { accessorKey: "userName", header: t("user") },
     { accessorKey: "summary", header: t("summary"), enableSorting: false },
   ];

@@ -19,7 +19,7 @@ export function LotsTable({ rows }: { rows: ApiLot[] }) {
     { accessorKey: "onHand", header: t("onHand"), cell: (c) => `${format.number(c.getValue(), { maximumFractionDigits: 1 })} ${c.row.original.unit}` },
     { id: "holder", accessorFn: (r) => r.party.name, header: t("holder") },
     { id: "region", accessorFn: (r) => r.field?.region ?? "", header: t("region") },
-    { accessorKey: "createdAt", header: t("received"), cell: (c) => format.dateTime(new Date(c.getValue()), { dateStyle: "medium" }) },
+    { accessorKey: "createdAt", header: t("received"), cell: (c) => format.dateTime(new Date(c.getValue()), "day") },
   ];
   return <DataTable data={rows} columns={columns} label={t("code")} testId="lots-table" />;
 }

@@ -16,7 +16,7 @@ export async function ProvenanceCard({ p, show = {}, caution = false }: { p: Pro
   const locale = (await getLocale()) === "en" ? "en" : "ja";
   const on = (k: keyof Show) => show[k] !== false;
   const pct = (v: number) => format.number(v, { style: "percent", maximumFractionDigits: 1 });
-  const date = (iso: string) => format.dateTime(new Date(iso), { dateStyle: "medium" });
+  const date = (iso: string) => format.dateTime(new Date(iso), "day");
   const row = (label: string, value: React.ReactNode, testId: string) => (
     <div className="grid gap-1 border-t border-paper-deep py-3 sm:grid-cols-[12rem_1fr]" data-testid={testId}>
       <dt className="font-semibold text-ink-soft">{label}</dt>

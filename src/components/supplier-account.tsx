@@ -44,7 +44,7 @@ export function AccountTable({ rows, testId = "account-table", exportName = "gra
   const format = useFormatter();
   const yen = useYen();
   const columns: ColumnDef<AccountRow, any>[] = [
-    { accessorKey: "at", header: t("columns.date"), cell: (c) => format.dateTime(c.getValue(), { dateStyle: "medium" }) },
+    { accessorKey: "at", header: t("columns.date"), cell: (c) => format.dateTime(c.getValue(), "day") },
     { accessorKey: "kind", header: t("columns.entry"), cell: (c) => t(`kinds.${c.getValue()}`) },
     { accessorKey: "description", header: t("columns.description") },
     { accessorKey: "taxRatePct", header: t("columns.rate"), cell: (c) => t(`rates.${c.getValue()}`) },
@@ -64,7 +64,7 @@ export function StatementsTable({ partyId, rows }: { partyId: string; rows: Stat
   const columns: ColumnDef<StatementRow, any>[] = [
     { accessorKey: "number", header: t("columns.statement") },
     { id: "period", accessorFn: (r) => `${r.from} – ${r.to}`, header: t("columns.period") },
-    { accessorKey: "issuedAt", header: t("columns.issued"), cell: (c) => format.dateTime(c.getValue(), { dateStyle: "medium" }) },
+    { accessorKey: "issuedAt", header: t("columns.issued"), cell: (c) => format.dateTime(c.getValue(), "day") },
     { accessorKey: "grossYen", header: t("columns.total"), cell: (c) => yen(c.getValue()) },
     { accessorKey: "balanceYen", header: t("columns.balance"), cell: (c) => yen(c.getValue()) },
     {

@@ -16,7 +16,7 @@ export function DeliveriesTable({ rows, testId = "deliveries-table", linkLots = 
   const format = useFormatter();
   const yen = useYen();
   const columns: ColumnDef<Delivery, any>[] = [
-    { accessorKey: "at", header: t("columns.date"), cell: (c) => format.dateTime(c.getValue(), { dateStyle: "medium" }) },
+    { accessorKey: "at", header: t("columns.date"), cell: (c) => format.dateTime(c.getValue(), "day") },
     { accessorKey: "code", header: t("columns.lot"), cell: (c) => lotLink(c.getValue(), linkLots) },
     { accessorKey: "variety", header: t("columns.variety") },
     { accessorKey: "cropYear", header: t("columns.cropYear") },
@@ -36,7 +36,7 @@ export function RunsTable({ rows, testId = "runs-table" }: { rows: Run[]; testId
   const yen = useYen();
   const pct = (v: number | null) => (v === null ? "" : `${format.number(v, { maximumFractionDigits: 1 })} %`);
   const columns: ColumnDef<Run, any>[] = [
-    { accessorKey: "at", header: t("columns.date"), cell: (c) => format.dateTime(c.getValue(), { dateStyle: "medium" }) },
+    { accessorKey: "at", header: t("columns.date"), cell: (c) => format.dateTime(c.getValue(), "day") },
     { accessorKey: "polished", header: t("columns.polished"), cell: (c) => lotLink(c.getValue(), true) },
     { accessorKey: "brownKg", header: t("columns.brownKg"), cell: (c) => format.number(c.getValue() ?? 0, { maximumFractionDigits: 1 }) },
     { accessorKey: "targetPct", header: t("columns.target"), cell: (c) => pct(c.getValue()) },
@@ -52,7 +52,7 @@ export function ReceiptsTable({ rows }: { rows: Receipt[] }) {
   const tl = useTranslations("lot");
   const format = useFormatter();
   const columns: ColumnDef<Receipt, any>[] = [
-    { accessorKey: "at", header: t("columns.date"), cell: (c) => format.dateTime(c.getValue(), { dateStyle: "medium" }) },
+    { accessorKey: "at", header: t("columns.date"), cell: (c) => format.dateTime(c.getValue(), "day") },
     { accessorKey: "code", header: t("columns.lot"), cell: (c) => lotLink(c.getValue(), true) },
     { accessorKey: "kind", header: tl("kind"), cell: (c) => tl(`kinds.${c.getValue()}`) },
     { accessorKey: "variety", header: t("columns.variety") },

@@ -1,3 +1,4 @@
+import type { DateTimeFormatOptions } from "use-intl/core";
 import type { Locale } from "./locale";
 
 /**
@@ -11,7 +12,8 @@ export const DEFAULT_TIME_ZONE = "Asia/Tokyo";
 
 export type DateFormatName = "day" | "dayTime";
 
-export const DATE_FORMATS: Record<Locale, Record<DateFormatName, Intl.DateTimeFormatOptions>> = {
+// use-intl's option type: next-intl's `formats` takes it (a narrower Intl.DateTimeFormatOptions).
+export const DATE_FORMATS: Record<Locale, Record<DateFormatName, DateTimeFormatOptions>> = {
   ja: {
     day: { year: "numeric", month: "2-digit", day: "2-digit" },
     dayTime: { year: "numeric", month: "2-digit", day: "2-digit", hour: "2-digit", minute: "2-digit", hourCycle: "h23" },

@@ -3,9 +3,11 @@ import { and, asc, eq, gte, inArray, isNull, lt, or, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
 import { eventInputs, events, lots, parties, users } from "@/db/schema";
 import { can } from "@/domain/permissions";
-import { csvText, dateRangeSchema, dayInJapan, startOfDayInJapan } from "@/lib/validation/csv";
+import { dayIn, startOfDayIn } from "@/i18n/dates";
+import { csvText, dateRangeSchema } from "@/lib/validation/csv";
 import { fieldErrorsFrom, type Translate } from "@/lib/validation/field-errors";
 import { getDb } from "./db";
+import { breweryTimeZone } from "./settings";
 import { invalid } from "./errors";
 import type { SessionUser } from "./session";
 
@@ -40,6 +42,9 @@ export type TransactionRecord = {
   shortfall: number | null;
 };
 
+/** The calendar day after a YYYY-MM-DD day (proleptic Gregorian, as ECMA-262 Date counts). */
+const nextDay = (day: string) => new Date(Date.parse(`${day}T00:00:00Z`) + 86_400_000).toISOString().slice(0, 10);
+
 const original = alias(events, "original");
 const holder = alias(parties, "holder");
 const other = alias(parties, "other");
@@ -55,6 +60,8 @@ export function listTransactionRecords(actor: SessionUser, range: DateRange, t: 
   // A reversal belongs to the parties of the event it reverses, and lists that event's lots.
   const source = sql`coalesce(${original.id}, ${events.id})`;
   const party = sql`coalesce(${original.partyId}, ${events.partyId})`;
+  // Days are the brewery's calendar days (its time zone setting), from the start of `from` to the end of `to`.
+  const zone = breweryTimeZone();
   const own = can(actor, "records:read-all") ? undefined : or(sql`${party} = ${actor.partyId}`, eq(events.counterpartyId, actor.partyId));
   const rows = getDb()
     .select({
@@ -87,8 +94,8 @@ export function listTransactionRecords(actor: SessionUser, range: DateRange, t: 
     .where(
       and(
         or(and(inArray(events.step, MOVES), isNull(events.corrects)), and(eq(events.step, "correcting"), inArray(original.step, MOVES))),
-        gte(events.at, startOfDayInJapan(range.from)),
-        lt(events.at, new Date(startOfDayInJapan(range.to).getTime() + 86_400_000)),
+        gte(events.at, startOfDayIn(range.from, zone)),
+        lt(events.at, startOfDayIn(nextDay(range.to), zone)),
         own,
       ),
     )
@@ -102,7 +109,7 @@ export function listTransactionRecords(actor: SessionUser, range: DateRange, t: 
     const { slipQuantity, shortfall } = JSON.parse(r.attributes) as { slipQuantity?: number; shortfall?: number };
     const sign = reversal ? -1 : 1;
     return {
-      date: dayInJapan(r.at),
+      date: dayIn(r.at, zone),
       direction: (reversal ? r.originalStep : r.step) === "receiving" ? "receipt" : "shipment",
       reversal,
       product: r.variety ? t("csv.records.product", { kind, variety: r.variety }) : kind,

@@ -4,7 +4,8 @@ import { POST as postEvent } from "../../app/api/events/route";
 import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as getTransactions } from "../../app/api/records/transactions.csv/route";
 import { csvText } from "@/lib/validation/csv";
-import { getSqlite } from "@/server/db";
+import { getDb, getSqlite } from "@/server/db";
+import { writeSetting } from "@/server/settings";
 import { call, jsonRequest, signInAs } from "../support/api";
 
 let grower: string, grower2: string, miller: string, admin: string;
@@ -117,5 +118,22 @@ describe("GET /api/records/transactions.csv", () => {
     const missing = await download(admin, "");
     expect(Object.keys(JSON.parse(missing.text).error.fields).sort()).toEqual(["from", "to"]);
     expect((await download(undefined, "?from=2025-10-01&to=2025-10-31")).response.status).toBe(401);
+  });
+});
+
+describe("the record's days follow the brewery's time zone", () => {
+  // IANA tz database: Asia/Tokyo is UTC+9 all year; Europe/London is UTC+1 (BST) until 26 October 2025.
+  // h1's receipt is 00:10 on 1 October in Tokyo, 16:10 on 30 September in London.
+  it("a receipt moves to the day before, and into a range ending then, when the brewery keeps London time", async () => {
+    const rows = async (query: string) => (await records(admin, query)).data.filter((r) => r["Lot code"] === h1 && r.Direction === "receipt").map((r) => r.Date);
+    expect(await rows("?from=2025-10-01&to=2025-10-01")).toEqual(["2025-10-01"]);
+    expect(await rows("?from=2025-09-30&to=2025-09-30")).toEqual([]);
+    writeSetting(getDb(), "timeZone", "Europe/London", "user-admin");
+    try {
+      expect(await rows("?from=2025-09-30&to=2025-09-30")).toEqual(["2025-09-30"]);
+      expect(await rows("?from=2025-10-01&to=2025-10-01")).toEqual([]);
+    } finally {
+      getSqlite().prepare("delete from settings where key = 'timeZone'").run();
+    }
   });
 });

@@ -70,7 +70,7 @@ export function ScanScreen({ userId, actor, initial, typed }: { userId: string; 
     <div className="space-y-6">
       {/* The answer comes first: after a scan it is what the brewer looks at, without scrolling. */}
       <div aria-live="polite" data-testid="scan-result" ref={resultRef} className="scroll-mt-4 empty:hidden">
-        <ScanResult view={view} actor={actor} asOf={view.state === "lot" && view.asOf ? format.dateTime(new Date(view.asOf), { dateStyle: "short", timeStyle: "short" }) : ""} />
+        <ScanResult view={view} actor={actor} asOf={view.state === "lot" && view.asOf ? format.dateTime(new Date(view.asOf), "dayTime") : ""} />
       </div>
       <div className="grid gap-5 sm:grid-cols-2">
         <Scanner onText={read} />

@@ -42,7 +42,7 @@ export function HarvestTrails({ rows }: { rows: HarvestTrail[] }) {
                   <span className="rounded bg-koji-pale px-2 text-xs font-semibold">{t(`destinationKinds.${d.kind}`)}</span>
                   <span className="code-chip">{d.code}</span>
                   {d.name ? <span>{d.name}</span> : null}
-                  <span className="text-ink-soft">{format.dateTime(d.at, { dateStyle: "medium" })}</span>
+                  <span className="text-ink-soft">{format.dateTime(d.at, "day")}</span>
                   <strong>{t("share", { share: pct(d.fraction), code: d.code })}</strong>
                 </li>
               ))}

@@ -33,7 +33,7 @@ export default async function DispatchPage({ searchParams }: { searchParams: Pro
         <ul className="space-y-4">
           {requests.map((r) => (
             <li key={r.id} className="border-t border-husk pt-3">
-              <p>{t("request", { receiver: r.receiver, code: r.code, quantity: format.number(r.quantity, { maximumFractionDigits: 3 }), unit: r.unit ?? "", slip: r.referenceDoc || "—", date: format.dateTime(r.at, { dateStyle: "medium" }) })}</p>
+              <p>{t("request", { receiver: r.receiver, code: r.code, quantity: format.number(r.quantity, { maximumFractionDigits: 3 }), unit: r.unit ?? "", slip: r.referenceDoc || "—", date: format.dateTime(r.at, "day") })}</p>
               <AnswerRequest id={r.id} />
             </li>
           ))}

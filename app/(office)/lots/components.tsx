@@ -32,7 +32,7 @@ export function LedgerLotsTable({ rows, total, pageSize, query, holders }: { row
     { id: "grade", accessorKey: "grade", header: t("lot.grade"), cell: (c) => (c.getValue() ? t(`lot.grades.${c.getValue()}`) : "") },
     { id: "onHand", accessorKey: "onHand", header: t("lot.onHand"), cell: (c) => `${format.number(c.getValue(), { maximumFractionDigits: 1 })} ${c.row.original.unit}` },
     { id: "holder", accessorFn: (r) => r.party.name, header: t("lot.holder"), enableSorting: false },
-    { id: "createdAt", accessorKey: "createdAt", header: t("lot.received"), cell: (c) => format.dateTime(new Date(c.getValue()), { dateStyle: "medium" }) },
+    { id: "createdAt", accessorKey: "createdAt", header: t("lot.received"), cell: (c) => format.dateTime(new Date(c.getValue()), "day") },
   ];
   const table = useReactTable({
     data: rows,

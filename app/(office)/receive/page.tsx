@@ -29,7 +29,7 @@ export default async function ReceivePage() {
           <ul className="space-y-2">
             {requests.map((r) => (
               <li key={r.id}>
-                {t("requestLine", { code: r.code, quantity: format.number(r.quantity, { maximumFractionDigits: 3 }), slip: r.referenceDoc || "—", date: format.dateTime(r.at, { dateStyle: "medium" }) })}{" "}
+                {t("requestLine", { code: r.code, quantity: format.number(r.quantity, { maximumFractionDigits: 3 }), slip: r.referenceDoc || "—", date: format.dateTime(r.at, "day") })}{" "}
                 <strong>{t(`states.${r.outcome}`)}</strong>
                 {r.reason ? ` — ${r.reason}` : ""}
               </li>

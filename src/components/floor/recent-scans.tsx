@@ -66,7 +66,7 @@ export function RecentScans({ userId, onOpen }: { userId: string; onOpen: (code:
             >
               <span className="whitespace-nowrap font-[family-name:var(--font-code)] text-xl font-bold">{scan.code}</span>
               <span className="text-right text-base opacity-80">
-                {t(`lot.kinds.${scan.kind}`)} · {format.dateTime(new Date(scan.at), { month: "short", day: "numeric", hour: "2-digit", minute: "2-digit" })}
+                {t(`lot.kinds.${scan.kind}`)} · {format.dateTime(new Date(scan.at), "dayTime")}
               </span>
             </a>
           </li>

@@ -11,7 +11,7 @@ export function OutboxTable({ rows }: { rows: OutboxRow[] }) {
   const t = useTranslations("outbox");
   const format = useFormatter();
   const columns: ColumnDef<OutboxRow, any>[] = [
-    { accessorKey: "createdAt", header: t("sentAt"), cell: (c) => format.dateTime(c.getValue(), { dateStyle: "medium", timeStyle: "short" }) },
+    { accessorKey: "createdAt", header: t("sentAt"), cell: (c) => format.dateTime(c.getValue(), "dayTime") },
     { accessorKey: "to", header: t("to") },
     { accessorKey: "subject", header: t("subject"), cell: (c) => <Link href={`/admin/outbox/${c.row.original.id}`}>{c.getValue()}</Link> },
     { accessorKey: "transport", header: t("transport"), cell: (c) => t(`transports.${c.getValue()}`) },

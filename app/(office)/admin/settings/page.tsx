@@ -26,7 +26,7 @@ export default async function SettingsPage() {
       <PageHeader title={t("title")} intro={t("intro")} className="space-y-2">
         <p className="notice-warn" data-testid="defaults-source">{t("defaultsSource")}</p>
         <p className="text-sm text-ink-soft">
-          {last ? t("lastChange", { at: format.dateTime(last.at, { dateStyle: "medium", timeStyle: "short" }), by: last.by }) : t("allDefaults")}
+          {last ? t("lastChange", { at: format.dateTime(last.at, "dayTime"), by: last.by }) : t("allDefaults")}
         </p>
       </PageHeader>
       <SettingsForm current={current} defaults={SETTING_DEFAULTS} zones={Intl.supportedValuesOf("timeZone")} />

@@ -18,7 +18,7 @@ export async function ReadOnlySettings() {
       <PageHeader title={t("settingsPage.title")} intro={t("settingsPage.intro")} className="space-y-2">
         <p className="notice text-sm">{t("users.readOnly")}</p>
         <p className="text-sm text-ink-soft">
-          {last ? t("settingsPage.lastChange", { at: format.dateTime(last.at, { dateStyle: "medium", timeStyle: "short" }), by: last.by }) : t("settingsPage.allDefaults")}
+          {last ? t("settingsPage.lastChange", { at: format.dateTime(last.at, "dayTime"), by: last.by }) : t("settingsPage.allDefaults")}
         </p>
       </PageHeader>
       <SettingsView current={readSettings()} />

@@ -42,7 +42,7 @@ export async function EventTimeline({ events, lotCode }: { events: ShownLotEvent
   const locale = await getLocale();
   const tr = t as unknown as Translate;
   const qty = (q: number, unit: string) => quantityText(tr, locale, q, unit, 3);
-  const when = (d: Date) => format.dateTime(d, { dateStyle: "medium", timeStyle: "short" });
+  const when = (d: Date) => format.dateTime(d, "dayTime");
   return (
     <ol className="relative space-y-4 border-l-4 border-husk pl-6" data-testid="event-timeline">
       {events.map((e) => {
@@ -52,7 +52,7 @@ export async function EventTimeline({ events, lotCode }: { events: ShownLotEvent
           <span className={`absolute top-5 -left-[34px] h-4 w-4 rotate-45 ${e.step === "correcting" ? "bg-persimmon" : "bg-cedar"}`} aria-hidden="true" />
           <div className="flex flex-wrap items-baseline gap-x-4 gap-y-1">
             <h3 className="text-lg font-bold">{t(`steps.${e.step}`)} <span className="text-sm font-normal text-ink-soft">#{e.id}</span></h3>
-            <time dateTime={e.at} className="text-sm">{format.dateTime(new Date(e.at), { dateStyle: "medium", timeStyle: "short" })}</time>
+            <time dateTime={e.at} className="text-sm">{format.dateTime(new Date(e.at), "dayTime")}</time>
             <span className="text-sm text-ink-soft">
               {t("lotPage.by", { user: e.user.name, party: e.party.name })}
               {e.counterparty ? ` · ${t("lotPage.to", { counterparty: e.counterparty.name })}` : ""}

@@ -18,7 +18,7 @@ export function CorrectionForm({ code, events }: { code: string; events: { id: n
         <label htmlFor="corrects" className="field-label">{t("lotPage.event")}</label>
         <select id="corrects" name="corrects" className="field-input">
           {events.map((e) => (
-            <option key={e.id} value={e.id}>{`#${e.id} ${t(`steps.${e.step}`)} — ${format.dateTime(new Date(e.at), { dateStyle: "medium" })}`}</option>
+            <option key={e.id} value={e.id}>{`#${e.id} ${t(`steps.${e.step}`)} — ${format.dateTime(new Date(e.at), "day")}`}</option>
           ))}
         </select>
         {state.fields?.corrects ? <p className="field-error">{state.fields.corrects.join(" ")}</p> : null}

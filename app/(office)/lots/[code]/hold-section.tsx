@@ -8,7 +8,7 @@ export async function HoldSection({ code, hold, history, mayRelease }: { code: s
   if (!hold && history.length === 0) return null;
   const t = await getTranslations("holds");
   const format = await getFormatter();
-  const date = (iso: string) => format.dateTime(new Date(iso), { dateStyle: "medium", timeStyle: "short" });
+  const date = (iso: string) => format.dateTime(new Date(iso), "dayTime");
   return (
     <section className="panel max-w-2xl space-y-3" aria-labelledby="lot-holds" data-testid="lot-holds">
       {hold ? (

@@ -30,7 +30,7 @@ export function ContractsTable({ rows }: { rows: ContractRow[] }) {
     { accessorKey: "version", header: t("columns.version"), cell: (c) => `v${c.getValue()} · ${c.row.original.superseded ? t("detail.superseded") : t("detail.inForce")}` },
     { id: "terms", accessorFn: termsText, header: t("columns.terms") },
     { accessorKey: "note", header: t("growerContract.note") },
-    { accessorKey: "createdAt", header: t("columns.date"), cell: (c) => format.dateTime(c.getValue(), { dateStyle: "medium" }) },
+    { accessorKey: "createdAt", header: t("columns.date"), cell: (c) => format.dateTime(c.getValue(), "day") },
     { accessorKey: "by", header: t("columns.recordedBy") },
   ];
   return <DataTable data={rows} columns={columns} label={t("detail.contracts")} testId="contracts-table" exportName="grainline-contracts" />;

@@ -20,7 +20,7 @@ export default async function OutboxMessagePage({ params }: { params: Promise<{ 
         <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
           <dt className="font-semibold">{t("from")}</dt><dd>{message.fromAddress}</dd>
           <dt className="font-semibold">{t("to")}</dt><dd>{message.toAddress}</dd>
-          <dt className="font-semibold">{t("sentAt")}</dt><dd>{format.dateTime(message.createdAt, { dateStyle: "medium", timeStyle: "short" })}</dd>
+          <dt className="font-semibold">{t("sentAt")}</dt><dd>{format.dateTime(message.createdAt, "dayTime")}</dd>
           <dt className="font-semibold">{t("transport")}</dt><dd>{t(`transports.${message.transport}`)}</dd>
         </dl>
         <pre className="whitespace-pre-wrap font-[family-name:var(--font-body)] text-base">
