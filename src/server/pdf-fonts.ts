@@ -23,11 +23,25 @@ function fontBytes(weight: Weight): Uint8Array {
   return found;
 }
 
+/**
+ * fontkit with its parsed fonts kept: parsing a 4.5 MB face costs more than the rest of a PDF,
+ * and pdf-lib asks for it anew on every embed. Each PDF still makes its own subset of it.
+ */
+const parsed = new WeakMap<Uint8Array, ReturnType<typeof fontkit.create>>();
+const keepingFontkit: typeof fontkit = {
+  ...fontkit,
+  create(data, postscriptName) {
+    let font = parsed.get(data);
+    if (!font) parsed.set(data, (font = fontkit.create(data, postscriptName)));
+    return font;
+  },
+};
+
 export type DocumentFonts = { regular: PDFFont; bold: PDFFont };
 
 /** Embeds both weights, subset: the PDF carries only the glyphs it draws. */
 export async function embedDocumentFonts(pdf: PDFDocument): Promise<DocumentFonts> {
-  pdf.registerFontkit(fontkit);
+  pdf.registerFontkit(keepingFontkit);
   const [regular, bold] = await Promise.all([
     pdf.embedFont(fontBytes("regular"), { subset: true }),
     pdf.embedFont(fontBytes("bold"), { subset: true }),

@@ -42,25 +42,51 @@ export function breakUnits(text: string): string[] {
 }
 
 /**
+ * Widths of the pieces lines are made of, per font and size. Laying text out (fontkit shapes it
+ * with the font's tables) is the slow part of a PDF with a Japanese face; a row's width is
+ * taken as the sum of its pieces' (kerning between two pieces is ignored). Bounded per font.
+ */
+const widths = new WeakMap<PDFFont, Map<string, number>>();
+function widthOf(font: PDFFont, size: number, s: string): number {
+  let known = widths.get(font);
+  if (!known) widths.set(font, (known = new Map()));
+  const key = `${size}|${s}`;
+  let w = known.get(key);
+  if (w === undefined) {
+    if (known.size > 10_000) known.clear();
+    known.set(key, (w = font.widthOfTextAtSize(s, size)));
+  }
+  return w;
+}
+
+/**
  * `text` in rows no wider than `width` at this font and size, broken where breakUnits allows;
  * a piece wider than a whole row is cut by characters. Spaces at the end of a row are dropped.
  */
 export function wrapText(text: string, font: PDFFont, size: number, width: number): string[] {
-  const fits = (s: string) => font.widthOfTextAtSize(s.trimEnd(), size) <= width;
   const rows: string[] = [];
   let row = "";
+  let rowWidth = 0;
+  const add = (piece: string) => {
+    row += piece;
+    rowWidth += widthOf(font, size, piece);
+  };
+  const startRow = () => {
+    if (row) rows.push(row);
+    row = "";
+    rowWidth = 0;
+  };
+  // Trailing spaces do not count against the width: they are dropped at the break.
+  const fits = (piece: string) => rowWidth + widthOf(font, size, piece.trimEnd()) <= width;
   for (const unit of breakUnits(text)) {
-    if (fits(row + unit)) row += unit;
-    else if (fits(unit)) {
-      if (row) rows.push(row);
-      row = unit;
+    if (fits(unit)) add(unit);
+    else if (widthOf(font, size, unit.trimEnd()) <= width) {
+      startRow();
+      add(unit);
     } else {
       for (const char of unit) {
-        if (row && !fits(row + char)) {
-          rows.push(row);
-          row = "";
-        }
-        row += char;
+        if (row && !fits(char)) startRow();
+        add(char);
       }
     }
   }
