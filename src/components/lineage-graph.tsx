@@ -5,6 +5,7 @@ import Link from "next/link";
 import { createContext, useContext, useMemo, useState, useSyncExternalStore, type ReactNode } from "react";
 import { Background, Controls, Handle, MarkerType, MiniMap, Position, ReactFlow, type Edge, type Node, type NodeProps } from "@xyflow/react";
 import { useFormatter, useTranslations } from "next-intl";
+import { useQuantity } from "@/lib/use-quantity";
 import { collapseStages, defaultCollapsed, layoutStages, STAGE_ORDER, type LineageGraph, type PlacedNode, type StageKind } from "@/domain/lineage-layout";
 
 type StageFlowNode = Node<{ node: PlacedNode }, StageKind>;
@@ -44,7 +45,7 @@ function Silhouette({ kind, paint, className = "" }: { kind: StageKind; paint: s
 
 function StageNode({ data: { node } }: NodeProps<StageFlowNode>) {
   const t = useTranslations("graph");
-  const format = useFormatter();
+  const amount = useQuantity();
   const expand = useContext(ExpandContext);
   const shape = SHAPES[node.kind];
   const folded = node.id.startsWith("group:");
@@ -55,7 +56,7 @@ function StageNode({ data: { node } }: NodeProps<StageFlowNode>) {
       <span className="text-[10px] font-semibold tracking-wide uppercase">{t(`kinds.${node.kind}`)}</span>
       <span className={`text-xs font-bold ${node.code ? "font-[family-name:var(--font-code)]" : ""}`}>{title}</span>
       {node.detail ? <span className="text-[10px]">{node.detail}</span> : null}
-      {node.quantity !== null && node.unit ? <span className="text-[10px]">{t("quantity", { quantity: format.number(node.quantity, { maximumFractionDigits: 1 }), unit: node.unit })}</span> : null}
+      {node.quantity !== null && node.unit ? <span className="text-[10px]">{amount(node.quantity, node.unit)}</span> : null}
     </span>
   );
   return (
@@ -92,6 +93,7 @@ function useWideScreen(): boolean {
 export function LineageGraphView({ graph, code }: { graph: LineageGraph; code: string }) {
   const t = useTranslations("graph");
   const format = useFormatter();
+  const amount = useQuantity();
   const wide = useWideScreen();
   const [collapsed, setCollapsed] = useState<Set<StageKind>>(() => defaultCollapsed(graph.nodes.length));
   const counts = useMemo(() => STAGE_ORDER.map((kind) => [kind, graph.nodes.filter((n) => n.kind === kind).length] as const).filter(([, n]) => n > 0), [graph]);
@@ -106,7 +108,7 @@ export function LineageGraphView({ graph, code }: { graph: LineageGraph; code: s
     const field = e.source.startsWith("field-");
     const parts = [
       e.share !== null && !field ? format.number(e.share, { style: "percent", maximumFractionDigits: 1 }) : null,
-      e.quantity !== null && e.unit ? t("quantity", { quantity: format.number(e.quantity, { maximumFractionDigits: 1 }), unit: e.unit }) : null,
+      e.quantity !== null && e.unit ? amount(e.quantity, e.unit) : null,
     ].filter(Boolean);
     const muted = hiddenIds.has(e.source) || hiddenIds.has(e.target);
     return {

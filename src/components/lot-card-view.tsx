@@ -1,12 +1,14 @@
 import { getFormatter, getTranslations } from "next-intl/server";
+import { getQuantity } from "@/lib/get-quantity";
 import type { ApiLot } from "@/server/lots";
 
 export async function LotCardView({ lot, dark }: { lot: ApiLot; dark?: boolean }) {
   const t = await getTranslations("lot");
   const format = await getFormatter();
+  const amount = await getQuantity();
   const rows: [string, string | null][] = [
     [t("kind"), t(`kinds.${lot.kind}`)],
-    [t("onHand"), `${format.number(lot.onHand, { maximumFractionDigits: 1 })} ${lot.unit}`],
+    [t("onHand"), amount(lot.onHand, lot.unit, 1)],
     [t("variety"), lot.variety ?? null],
     // A polished mix keeps each variety with its share of the rice.
     [t("varieties"), varietiesOf(lot, (n) => format.number(n, { style: "percent", maximumFractionDigits: 1 }))],
@@ -16,7 +18,7 @@ export async function LotCardView({ lot, dark }: { lot: ApiLot; dark?: boolean }
     [t("polishingRatio"), lot.polishingRatioPct != null ? `${format.number(lot.polishingRatioPct, { maximumFractionDigits: 1 })} %` : null],
     [t("holder"), lot.party.name],
     [t("field"), lot.field ? `${lot.field.name} (${lot.field.region})` : null],
-    [t("received"), format.dateTime(new Date(lot.createdAt), { dateStyle: "medium" })],
+    [t("received"), format.dateTime(new Date(lot.createdAt), "day")],
   ];
   return (
     <article data-testid="lot-card" className={`rounded-xl border-4 p-5 ${dark ? "border-koji bg-cedar-deep text-paper" : "border-husk bg-white"}`}>

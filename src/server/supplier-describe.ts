@@ -20,6 +20,8 @@ export function describeEntry(e: Pick<EntryRow, "kind" | "detail" | "lotCode" | 
         lot: e.lotCode ?? "",
         kg: n(d.kg, 1),
         bags: n(d.bags, 2),
+        // The number the reader sees picks the plural: 1.004 bags shows "1" and reads "1 bag".
+        bagCount: Math.round(d.bags * 100) / 100,
         price: n(d.pricePerBagYen),
       });
       return d.moistureSteps > 0 ? `${base} ${t("suppliers.describe.moisture", { moisture: n(d.moisturePct ?? 0, 1), deduction: n(d.deductionPerBagYen) })}` : base;

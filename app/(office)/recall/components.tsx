@@ -3,6 +3,7 @@
 import Link from "next/link";
 import { useState } from "react";
 import { useFormatter, useTranslations } from "next-intl";
+import { useQuantity } from "@/lib/use-quantity";
 
 export type ReachedLot = { code: string; kind: string; unit: string; fraction: number; onHand: number; holder: string; recalled: boolean; shippedToBuyer: boolean; hold: string | null };
 
@@ -10,6 +11,7 @@ export type ReachedLot = { code: string; kind: string; unit: string; fraction: n
 export function ReachedLotsTable({ lots }: { lots: ReachedLot[] }) {
   const t = useTranslations();
   const format = useFormatter();
+  const amount = useQuantity();
   const [onlyShipped, setOnlyShipped] = useState(false);
   const shown = onlyShipped ? lots.filter((l) => l.shippedToBuyer) : lots;
   return (
@@ -40,7 +42,7 @@ export function ReachedLotsTable({ lots }: { lots: ReachedLot[] }) {
                 </td>
                 <td className="px-3 py-2">{t(`lot.kinds.${lot.kind}`)}</td>
                 <td className="px-3 py-2 text-right tabular-nums">{format.number(lot.fraction, { style: "percent", maximumFractionDigits: 1 })}</td>
-                <td className="px-3 py-2 text-right tabular-nums">{`${format.number(lot.onHand, { maximumFractionDigits: 1 })} ${lot.unit}`}</td>
+                <td className="px-3 py-2 text-right tabular-nums">{amount(lot.onHand, lot.unit)}</td>
                 <td className="px-3 py-2">{lot.holder}</td>
                 <td className="px-3 py-2" data-testid="recall-hold">{lot.hold ? <span className="font-semibold text-persimmon">{t("holds.onHold", { reason: lot.hold })}</span> : <span className="text-ink-soft">{t("holds.notHeld")}</span>}</td>
               </tr>

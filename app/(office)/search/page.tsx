@@ -1,5 +1,6 @@
 import Link from "next/link";
 import { getTranslations } from "next-intl/server";
+import { getQuantity } from "@/lib/get-quantity";
 import { PageHeader } from "@/components/page-header";
 import { can } from "@/domain/permissions";
 import { requirePageUser } from "@/server/page-guard";
@@ -14,10 +15,11 @@ export async function generateMetadata() {
 export default async function SearchPage({ searchParams }: { searchParams: Promise<{ q?: string | string[] }> }) {
   const user = await requirePageUser();
   const t = await getTranslations();
+  const amount = await getQuantity();
   const raw = (await searchParams).q;
   const r = searchEverything(user, typeof raw === "string" ? raw : "");
   const lot = (l: { code: string; kind: string; onHand: number; unit: string; product: string | null }) => (
-    <><Link href={`/lots/${l.code}`} className="code-chip">{l.code}</Link> {t(`lot.kinds.${l.kind}`)}{l.product ? ` · ${l.product}` : ""} · {l.onHand} {l.unit}</>
+    <><Link href={`/lots/${l.code}`} className="code-chip">{l.code}</Link> {t(`lot.kinds.${l.kind}`)}{l.product ? ` · ${l.product}` : ""} · {amount(l.onHand, l.unit)}</>
   );
   const none = [r.lots, r.bottlings, r.products, r.tanks, r.tankRegister, r.growers, r.fields].every((x) => x.length === 0);
   return (

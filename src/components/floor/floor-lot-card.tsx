@@ -2,6 +2,7 @@
 
 import Link from "next/link";
 import { useFormatter, useTranslations } from "next-intl";
+import { useQuantity } from "@/lib/use-quantity";
 import { daysSince, floorOffer, mayRecord, portionOf, STEP_OF_ACTION } from "@/domain/floor-actions";
 import type { Actor } from "@/domain/permissions";
 import type { ApiLot } from "@/server/lots";
@@ -11,13 +12,14 @@ import { RecordMoisture } from "./record-moisture";
 export function FloorLotCard({ lot, actor }: { lot: ApiLot; actor: Actor }) {
   const t = useTranslations();
   const format = useFormatter();
+  const amount = useQuantity();
   const portion = ["soaked", "steamed"].includes(lot.kind) ? portionOf(lot.attributes) : null;
   const rested = lot.polishedAt ? Math.max(0, daysSince(lot.polishedAt)) : null;
   const rows: [string, string, string][] = [
     ["kind", t("floorScan.card.kind"), t(`lot.kinds.${lot.kind}`)],
     ["portion", t("floorScan.card.portion"), portion ? t(`floorForms.purpose.${portion}`) : ""],
     ["variety", t("floorScan.card.variety"), lot.variety ?? ""],
-    ["on-hand", t("floorScan.card.onHand"), `${format.number(lot.onHand, { maximumFractionDigits: 1 })} ${lot.unit}`],
+    ["on-hand", t("floorScan.card.onHand"), amount(lot.onHand, lot.unit)],
     ["polishing-ratio", t("floorScan.card.polishingRatio"), lot.polishingRatioPct != null ? `${format.number(lot.polishingRatioPct, { maximumFractionDigits: 1 })} %` : ""],
     ["rested", t("floorScan.card.rested"), rested !== null ? t("floorScan.card.restedDays", { days: rested }) : ""],
   ];

@@ -2,6 +2,7 @@
 
 import Link from "next/link";
 import { useTranslations } from "next-intl";
+import { useQuantity } from "@/lib/use-quantity";
 import { actionsFor, portionOf } from "@/domain/floor-actions";
 import type { LotKind } from "@/domain/steps";
 
@@ -17,6 +18,7 @@ export type SentOutput = { kind?: string; use?: unknown; addition?: unknown };
 export function FloorResult({ result, sent, carried }: { result: FloorWriteResult; sent: SentOutput[]; carried: Record<string, unknown> }) {
   const t = useTranslations("floorForms");
   const tActions = useTranslations("floorScan.actions");
+  const amount = useQuantity();
   return (
     <div className="space-y-4" data-testid="floor-result">
       <p role="status" className="notice text-ink">{t("recorded")}</p>
@@ -31,7 +33,7 @@ export function FloorResult({ result, sent, carried }: { result: FloorWriteResul
             <li key={o.code} className="space-y-2 rounded-lg border-2 border-cedar p-3" data-testid="floor-output">
               <p className="flex flex-wrap items-center gap-3">
                 <span className="code-chip text-xl">{o.code}</span>
-                <span>{o.quantity} {o.unit}</span>
+                <span>{amount(o.quantity, o.unit, 3)}</span>
                 {purpose ? <strong data-testid="output-purpose">{t(`purpose.${purpose}`)}</strong> : null}
               </p>
               <p className="flex flex-wrap gap-3">

@@ -1,16 +1,18 @@
 import { getFormatter, getTranslations } from "next-intl/server";
+import { getQuantity } from "@/lib/get-quantity";
 import type { TankSummary } from "@/server/tanks";
 
 /** A tank at a glance: rice, koji and water on the dry basis, and its additions in order. */
 export async function TankPanel({ tank }: { tank: TankSummary }) {
   const t = await getTranslations("tank");
   const format = await getFormatter();
-  const kg = (v: number) => `${format.number(v, { maximumFractionDigits: 1 })} kg`;
+  const amount = await getQuantity();
+  const kg = (v: number) => amount(v, "kg", 1);
   const figures: [string, string][] = [
     [t("totalRice"), kg(tank.totalRiceKg)],
     [t("kojiRice"), kg(tank.kojiRiceKg)],
     [t("kojiRatio"), tank.kojiRatioPct === null ? "—" : `${tank.kojiRatioPct} %`],
-    [t("water"), `${format.number(tank.waterL, { maximumFractionDigits: 1 })} L`],
+    [t("water"), amount(tank.waterL, "L", 1)],
     [t("waterRatio"), tank.waterRatioPct === null ? "—" : `${tank.waterRatioPct} %`],
     // The labelling standard weighs added alcohol converted to 95 %; the panel shows both weights.
     [t("addedAlcohol"), tank.addedAlcoholKg > 0 ? `${kg(tank.addedAlcoholKg)} · ${t("at95", { kg: format.number(tank.addedAlcohol95Kg, { maximumFractionDigits: 1 }) })}` : kg(0)],
@@ -34,7 +36,7 @@ export async function TankPanel({ tank }: { tank: TankSummary }) {
             <span className="text-sm">
               <strong>{t(`additions.${a.addition}`)}</strong>
               <br />
-              {format.dateTime(new Date(a.at), { dateStyle: "medium" })}
+              {format.dateTime(new Date(a.at), "day")}
             </span>
             <span>
               <span className="block h-4 rounded bg-cedar" style={{ width: `${(a.riceKg / max) * 100}%` }} aria-hidden="true" />

@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getFormatter, getTranslations } from "next-intl/server";
+import { getQuantity } from "@/lib/get-quantity";
 import { LineageGraphView } from "@/components/lineage-graph";
 import { readingOrder, type LineageEdge, type LineageNode } from "@/domain/lineage-layout";
 import { normaliseLotCode } from "@/domain/lot-code";
@@ -40,7 +41,8 @@ export default async function LotGraphPage({ params }: { params: Promise<{ code:
 async function LineageText({ items }: { items: ReturnType<typeof readingOrder> }) {
   const t = await getTranslations("graph");
   const format = await getFormatter();
-  const amount = (q: number | null, unit: string | null) => (q !== null && unit ? t("quantity", { quantity: format.number(q, { maximumFractionDigits: 1 }), unit }) : null);
+  const quantity = await getQuantity();
+  const amount = (q: number | null, unit: string | null) => (q !== null && unit ? quantity(q, unit) : null);
   const name = (n: LineageNode) => (n.visible ? (n.label ?? n.code ?? "") : t("hiddenLot"));
   const via = (e: LineageEdge) => [e.share !== null ? format.number(e.share, { style: "percent", maximumFractionDigits: 1 }) : null, amount(e.quantity, e.unit)].filter(Boolean).join(" · ");
   return (
