@@ -2,11 +2,11 @@ import "server-only";
 import { and, asc, eq, isNotNull } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { users } from "@/db/schema";
-import { DEFAULT_TIME_ZONE } from "@/i18n/dates";
 import { DEFAULT_LOCALE, type Locale } from "@/i18n/locale";
 import { documentTranslator } from "./document-locale";
 import { getDb } from "./db";
 import { sendMail } from "./mail";
+import { breweryTimeZone } from "./settings";
 import { statementPdf } from "./supplier-statement-files";
 import type { StatementView } from "./supplier-statements";
 
@@ -27,10 +27,10 @@ export function supplierLocale(db: DbOrTx, partyId: string, email: string | null
  * language. The PDF goes along as an attachment (nodemailer's JSON transport keeps it); the
  * outbox stores only the text, so the text also links to the PDF in the supplier's account.
  */
-export async function mailStatement(view: StatementView, origin: string, db: DbOrTx = getDb(), options?: { deliver?: boolean; timeZone?: string }): Promise<string> {
+export async function mailStatement(view: StatementView, origin: string, db: DbOrTx = getDb(), options?: { deliver?: boolean }): Promise<string> {
   const locale = supplierLocale(db, view.supplier.id, view.supplier.email);
   const t = documentTranslator(locale);
-  const pdf = await statementPdf(view, { t, locale, timeZone: options?.timeZone ?? DEFAULT_TIME_ZONE });
+  const pdf = await statementPdf(view, { t, locale, timeZone: breweryTimeZone(db) });
   const yen = new Intl.NumberFormat(locale);
   const fileName = `${view.number}.pdf`;
   return sendMail({

@@ -1,10 +1,10 @@
 import { normaliseLotCode } from "@/domain/lot-code";
-import { DEFAULT_TIME_ZONE } from "@/i18n/dates";
 import { documentLocale, documentTranslator } from "@/server/document-locale";
 import { handle, requireApiPermission } from "@/server/http";
 import { getParty } from "@/server/parties";
 import { provenanceFor } from "@/server/provenance";
 import { provenanceSheetPdf } from "@/server/provenance-sheet";
+import { breweryTimeZone } from "@/server/settings";
 
 /** The sheet in the reader's language (their setting, the language cookie, then the browser's). */
 export const GET = handle(async (request, { params }) => {
@@ -13,7 +13,7 @@ export const GET = handle(async (request, { params }) => {
   const locale = documentLocale(request, actor);
   const t = documentTranslator(locale);
   const answer = provenanceFor(actor, code, t);
-  const bytes = await provenanceSheetPdf(answer, getParty(actor.partyId)?.name ?? "", { t, locale, timeZone: DEFAULT_TIME_ZONE });
+  const bytes = await provenanceSheetPdf(answer, getParty(actor.partyId)?.name ?? "", { t, locale, timeZone: breweryTimeZone() });
   return new Response(Buffer.from(bytes), {
     headers: { "content-type": "application/pdf", "content-disposition": `attachment; filename="grainline-provenance-${answer.lot.code}.pdf"`, "cache-control": "private" },
   });
