@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { dayIn, formatDay, formatDayTime, isTimeZone, startOfDayIn } from "./dates";
+import { dayIn, formatDay, formatDayTime, hourOfDayIn, isTimeZone, nextDay, startOfDayIn } from "./dates";
 
 // Offsets from the IANA tz database: Asia/Tokyo is UTC+9 with no DST; Europe/London is UTC+0
 // in winter and UTC+1 (BST) from the last Sunday of March to the last Sunday of October
@@ -41,5 +41,16 @@ describe("dates in the brewery's time zone", () => {
     expect(isTimeZone("Asia/Osaka")).toBe(false);
     expect(isTimeZone("JST")).toBe(false);
     expect(isTimeZone("")).toBe(false);
+  });
+});
+
+describe("an hour of a typed day on the brewery's clock", () => {
+  // IANA offsets: Tokyo UTC+9; New York UTC−4 (EDT) in October 2026.
+  it("stays on that day in its own zone", () => {
+    expect(hourOfDayIn("2026-10-03", 12, "Asia/Tokyo")).toBe("2026-10-03T03:00:00.000Z");
+    expect(hourOfDayIn("2026-10-03", 12, "America/New_York")).toBe("2026-10-03T16:00:00.000Z");
+    expect(dayIn(new Date(hourOfDayIn("2026-10-03", 9, "America/New_York")), "America/New_York")).toBe("2026-10-03");
+    expect(nextDay("2026-12-31")).toBe("2027-01-01");
+    expect(nextDay("2028-02-28")).toBe("2028-02-29");
   });
 });

@@ -49,12 +49,31 @@ export function formatDate(at: Date | string, locale: Locale, timeZone: string, 
 export const formatDay = (at: Date | string, locale: Locale, timeZone: string) => formatDate(at, locale, timeZone, "day");
 export const formatDayTime = (at: Date | string, locale: Locale, timeZone: string) => formatDate(at, locale, timeZone, "dayTime");
 
+// A formatter costs far more to build than to use; lists of events reuse one per zone.
+const dayFormatters = new Map<string, Intl.DateTimeFormat>();
+function dayFormatter(timeZone: string): Intl.DateTimeFormat {
+  let found = dayFormatters.get(timeZone);
+  if (!found) dayFormatters.set(timeZone, (found = new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" })));
+  return found;
+}
+
 /** The calendar day ("YYYY-MM-DD") an instant falls on in a zone: the day boundary of exports. */
 export function dayIn(at: Date, timeZone: string): string {
-  const parts = new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).formatToParts(at);
+  const parts = dayFormatter(timeZone).formatToParts(at);
   const get = (type: string) => parts.find((p) => p.type === type)!.value;
   return `${get("year")}-${get("month")}-${get("day")}`;
 }
+
+/**
+ * An hour of a calendar day on a zone's clock, as an ISO instant: a day typed on a form
+ * (a receipt's date) recorded at a time that stays on that day wherever the brewery is.
+ */
+export function hourOfDayIn(day: string, hour: number, timeZone: string): string {
+  return new Date(startOfDayIn(day, timeZone).getTime() + hour * 3_600_000).toISOString();
+}
+
+/** The calendar day after a YYYY-MM-DD day (proleptic Gregorian, as ECMA-262 Date counts). */
+export const nextDay = (day: string) => new Date(Date.parse(`${day}T00:00:00Z`) + 86_400_000).toISOString().slice(0, 10);
 
 /** Milliseconds the zone's clock is ahead of UTC at an instant. */
 function offsetAt(at: number, timeZone: string): number {

@@ -3,19 +3,17 @@ import { and, asc, desc, eq, gte, inArray, lt, or, sql } from "drizzle-orm";
 import { events, lots } from "@/db/schema";
 import { KOJI_CHECKPOINTS, RICE_USES, type Band, type BandCheck, type KojiCheckpoint, type RiceUse } from "@/domain/brewing";
 import { can } from "@/domain/permissions";
+import { dayIn, nextDay, startOfDayIn } from "@/i18n/dates";
 import { getDb } from "./db";
 import { forbidden, notFound } from "./errors";
 import { describeEvents, type LotEvent } from "./lot-events";
 import type { SessionUser } from "./session";
+import { breweryTimeZone } from "./settings";
 
 /** The steps of the brew floor that make a brew day, in the order the rice goes. */
 export const BREW_DAY_STEPS = ["soaking", "steaming", "splitting", "koji-making", "starter", "mash-addition"] as const;
 export type BrewDayStep = (typeof BREW_DAY_STEPS)[number];
 
-// Japan Standard Time is UTC+9 all year (no daylight saving since 1951), so a fixed
-// offset is the Asia/Tokyo calendar day.
-const TOKYO_OFFSET_MS = 9 * 3600_000;
-const DAY_MS = 24 * 3600_000;
 
 /** A real calendar date written YYYY-MM-DD (2026-02-30 is not one). */
 export function isCalendarDate(date: string): boolean {
@@ -25,14 +23,10 @@ export function isCalendarDate(date: string): boolean {
   return d.toISOString().slice(0, 10) === date;
 }
 
-/** The instants [start, end) of a calendar day in Asia/Tokyo. */
-export function tokyoDayRange(date: string): { start: Date; end: Date } {
-  const start = Date.parse(`${date}T00:00:00Z`) - TOKYO_OFFSET_MS;
-  return { start: new Date(start), end: new Date(start + DAY_MS) };
+/** The instants [start, end) of a calendar day on the brewery's clock (its time zone setting). */
+export function brewDayRange(date: string, zone = breweryTimeZone()): { start: Date; end: Date } {
+  return { start: startOfDayIn(date, zone), end: startOfDayIn(nextDay(date), zone) };
 }
-
-/** The Asia/Tokyo calendar day (YYYY-MM-DD) an instant falls on. */
-export const tokyoDateOf = (at: Date) => new Date(at.getTime() + TOKYO_OFFSET_MS).toISOString().slice(0, 10);
 
 const notCorrected = sql`not exists (select 1 from events c where c.corrects = ${events.id})`;
 const isKojiCheck = and(eq(events.step, "measuring"), sql`json_extract(${events.attributes}, '$.kojiChecks') is not null`);
@@ -47,14 +41,15 @@ export type BrewDayListing = { date: string; counts: Record<BrewDayStep, number>
 /** Days with brew-floor events (corrected ones left out), newest first, with counts per step. */
 export function listBrewDays(actor: SessionUser): BrewDayListing[] {
   requireRecords(actor);
-  const day = sql<string>`date(${events.at} / 1000, 'unixepoch', '+9 hours')`;
+  // Grouped here, not in SQL: a zone with daylight saving has no one offset to add there.
+  const zone = breweryTimeZone();
   const rows = getDb()
-    .select({ day, step: events.step, n: sql<number>`count(*)` })
+    .select({ at: events.at, step: events.step })
     .from(events)
     .where(and(onTheFloor, notCorrected))
-    .groupBy(day, events.step)
-    .orderBy(desc(day))
-    .all();
+    .orderBy(desc(events.at))
+    .all()
+    .map((r) => ({ day: dayIn(r.at, zone), step: r.step, n: 1 }));
   const byDay = new Map<string, BrewDayListing>();
   for (const r of rows) {
     const entry = byDay.get(r.day) ?? { date: r.day, counts: Object.fromEntries(BREW_DAY_STEPS.map((s) => [s, 0])) as Record<BrewDayStep, number>, kojiChecks: 0, total: 0 };
@@ -86,7 +81,7 @@ const measured = (e: LotEvent, name: string) => e.measurements.find((m) => m.nam
 export function brewDaySummary(actor: SessionUser, date: string) {
   requireRecords(actor);
   if (!isCalendarDate(date)) throw notFound({ key: "errors.brewDayNotFound", values: { date } });
-  const { start, end } = tokyoDayRange(date);
+  const { start, end } = brewDayRange(date);
   const db = getDb();
   const ids = db
     .select({ id: events.id })

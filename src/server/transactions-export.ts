@@ -3,7 +3,7 @@ import { and, asc, eq, gte, inArray, isNull, lt, or, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
 import { eventInputs, events, lots, parties, users } from "@/db/schema";
 import { can } from "@/domain/permissions";
-import { dayIn, startOfDayIn } from "@/i18n/dates";
+import { dayIn, nextDay, startOfDayIn } from "@/i18n/dates";
 import { csvText, dateRangeSchema } from "@/lib/validation/csv";
 import { fieldErrorsFrom, type Translate } from "@/lib/validation/field-errors";
 import { getDb } from "./db";
@@ -41,9 +41,6 @@ export type TransactionRecord = {
   slipQuantity: number | null;
   shortfall: number | null;
 };
-
-/** The calendar day after a YYYY-MM-DD day (proleptic Gregorian, as ECMA-262 Date counts). */
-const nextDay = (day: string) => new Date(Date.parse(`${day}T00:00:00Z`) + 86_400_000).toISOString().slice(0, 10);
 
 const original = alias(events, "original");
 const holder = alias(parties, "holder");

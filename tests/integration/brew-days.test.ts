@@ -1,8 +1,10 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { POST as postEvent } from "../../app/api/events/route";
 import { DEMO_USERS } from "@/server/seed";
-import { brewDaySummary, listBrewDays, neighbourBrewDays, tokyoDateOf } from "@/server/brew-days";
+import { brewDayRange, brewDaySummary, listBrewDays, neighbourBrewDays } from "@/server/brew-days";
+import { getDb, getSqlite } from "@/server/db";
 import type { SessionUser } from "@/server/session";
+import { writeSetting } from "@/server/settings";
 import { call, jsonRequest, signInAs } from "../support/api";
 
 // Absorption and steaming gain on the dry basis: Nada brewers' research association glossary,
@@ -78,8 +80,8 @@ describe("a brew day's summary", () => {
   });
 
   it("groups days by the calendar in Asia/Tokyo", () => {
-    expect(tokyoDateOf(new Date("2026-12-01T23:30:00+09:00"))).toBe("2026-12-01");
-    expect(tokyoDateOf(new Date("2026-12-01T00:10:00+09:00"))).toBe("2026-12-01");
+    // IANA tz database: Asia/Tokyo is UTC+9 all year.
+    expect(brewDayRange("2026-12-01")).toEqual({ start: new Date("2026-11-30T15:00:00Z"), end: new Date("2026-12-01T15:00:00Z") });
     const next = brewDaySummary(actor("user-brewer"), "2026-12-02");
     expect(next.soaks.map((s) => [s.lot, s.absorptionPct, s.bandCheck])).toEqual([["P26-0001", 30, "within"]]); // on the band's lower edge
     expect(brewDaySummary(actor("user-brewer"), "2026-11-30").soaks).toEqual([]);
@@ -94,6 +96,19 @@ describe("a brew day's summary", () => {
     const around = neighbourBrewDays(actor("user-brewer"), "2026-12-01");
     expect(around.next).toBe("2026-12-02");
     expect(around.previous === null || around.previous < "2026-11-01").toBe(true);
+  });
+
+  it("follows the brewery's clock when it keeps another zone", () => {
+    // IANA tz database: Europe/London is UTC+0 in December. 07:30 on 2 December in Tokyo is
+    // 22:30 on 1 December in London, so that soak joins the 1st.
+    writeSetting(getDb(), "timeZone", "Europe/London", "user-admin");
+    try {
+      expect(brewDaySummary(actor("user-brewer"), "2026-12-02").soaks).toEqual([]);
+      expect(brewDaySummary(actor("user-brewer"), "2026-12-01").soaks.map((s) => s.lot)).toContain("P26-0001");
+      expect(listBrewDays(actor("user-auditor")).map((d) => d.date)).not.toContain("2026-12-02");
+    } finally {
+      getSqlite().prepare("delete from settings where key = 'timeZone'").run();
+    }
   });
 
   it("refuses dates that are not calendar days with 404, and roles without records:read-all with 403", () => {

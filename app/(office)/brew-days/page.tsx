@@ -35,7 +35,7 @@ export default async function BrewDaysPage() {
                 <tr key={d.date} className="border-t border-paper-deep">
                   <th scope="row" className="px-3 py-2 text-left font-semibold">
                     {/* Noon in Tokyo names the calendar day whatever the viewer's clock says. */}
-                    <Link href={`/brew-days/${d.date}`}>{format.dateTime(new Date(`${d.date}T12:00:00+09:00`), { dateStyle: "full" })}</Link>
+                    <Link href={`/brew-days/${d.date}`}>{format.dateTime(new Date(`${d.date}T12:00:00Z`), { dateStyle: "full", timeZone: "UTC" })}</Link>
                   </th>
                   {BREW_DAY_STEPS.map((s) => <td key={s} className="px-3 py-2 text-right tabular-nums">{d.counts[s] || "—"}</td>)}
                   <td className="px-3 py-2 text-right tabular-nums">{d.kojiChecks || "—"}</td>

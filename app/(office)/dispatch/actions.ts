@@ -12,6 +12,8 @@ import { getDb } from "@/server/db";
 import { invalid } from "@/server/errors";
 import { answerSchema, confirmReceiptRequest, declineReceiptRequest, declineSchema } from "@/server/receipt-requests";
 import { requireUser } from "@/server/session";
+import { breweryTimeZone } from "@/server/settings";
+import { hourOfDayIn } from "@/i18n/dates";
 import { requireAny } from "@/server/event-rows";
 import { STEP_RULES } from "@/domain/steps";
 
@@ -42,7 +44,8 @@ export async function dispatchLotAction(_prev: FormState, formData: FormData): P
       counterpartyId: form.counterpartyId,
       referenceDoc: form.referenceDoc,
       place: form.place || undefined,
-      at: form.date ? `${form.date}T09:00:00+09:00` : undefined,
+      // 09:00 of the typed day on the brewery's clock: the record shows that day in its zone.
+      at: form.date ? hourOfDayIn(form.date, 9, breweryTimeZone()) : undefined,
       partyId: lot.partyId === actor.partyId ? undefined : lot.partyId,
     });
     recordEvent(actor, input, t);

@@ -3,6 +3,8 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { typedNumber } from "@/lib/validation/typed";
+import { hourOfDayIn } from "@/i18n/dates";
+import { breweryTimeZone } from "@/server/settings";
 import { normaliseLotCode } from "@/domain/lot-code";
 import { formValues, type FormState } from "@/lib/form-state";
 import { eventSchema } from "@/lib/validation/events";
@@ -37,7 +39,8 @@ export async function receiveLotAction(_prev: FormState, formData: FormData): Pr
       inputs: [{ lot: code, quantity: form.quantity }],
       referenceDoc: form.referenceDoc || undefined,
       place: form.place || undefined,
-      at: form.date ? `${form.date}T12:00:00+09:00` : undefined,
+      // Noon of the typed day on the brewery's clock: the record shows that day in its zone.
+      at: form.date ? hourOfDayIn(form.date, 12, breweryTimeZone()) : undefined,
       partyId: form.partyId || undefined,
     });
     const { status } = recordEvent(actor, input, t);

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { getFormatter, getTranslations } from "next-intl/server";
+import { getFormatter, getTimeZone, getTranslations } from "next-intl/server";
 import { brewDaySummary, isCalendarDate, neighbourBrewDays } from "@/server/brew-days";
 import { requirePagePermission } from "@/server/page-guard";
 import { AbsorptionChart, DrawnTable, GainChart, KojiChart, KojiTable, LaterTable, SoakTable, SplitTable, SteamTable } from "./components";
@@ -30,8 +30,8 @@ export default async function BrewDayPage({ params }: Params) {
           {around.previous ? <Link href={`/brew-days/${around.previous}`} rel="prev">← {around.previous}</Link> : null}
           {around.next ? <Link href={`/brew-days/${around.next}`} rel="next">{around.next} →</Link> : null}
         </nav>
-        <h1 className="text-3xl font-bold">{format.dateTime(new Date(`${date}T12:00:00+09:00`), { dateStyle: "full" })}</h1>
-        <p className="text-ink-soft">{t("timeZoneNote")}</p>
+        <h1 className="text-3xl font-bold">{format.dateTime(new Date(`${date}T12:00:00Z`), { dateStyle: "full", timeZone: "UTC" })}</h1>
+        <p className="text-ink-soft">{t("timeZoneNote", { zone: await getTimeZone() })}</p>
         {anyCorrected ? <p className="notice text-sm">{t("correctedNote")}</p> : null}
       </header>
       {empty ? <p className="notice">{t("nothing")}</p> : null}
