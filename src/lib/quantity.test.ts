@@ -53,4 +53,12 @@ describe("counts with their nouns (ICU plural, CLDR plural rules)", () => {
     expect(en("validation.tooShort", { count: 1 })).toBe("Use at least 1 character.");
     expect(en("validation.tooShort", { count: 8 })).toBe("Use at least 8 characters.");
   });
+
+  it("on-hand errors count bottles and keep weights as written", () => {
+    expect(en("validation.overdraw", { onHand: 1, unit: "bottle" })).toBe("Only 1 bottle on hand.");
+    expect(en("errors.overdraw", { code: "B26-0001", onHand: "800", unit: "bottle" })).toBe("Lot B26-0001 has only 800 bottles on hand.");
+    expect(en("validation.overdraw", { onHand: 13, unit: "kg" })).toBe("Only 13 kg on hand.");
+    expect(ja("validation.overdraw", { onHand: 800, unit: "bottle" })).toBe("在庫は 800本 だけです。");
+    expect(en("shipments.recorded", { amount: quantityText(en, "en", 24, "bottle"), buyer: "Minato" })).toBe("Shipment of 24 bottles to Minato recorded.");
+  });
 });

@@ -18,7 +18,7 @@ const shown = (value: number, digits: number) => Math.abs(Math.round(value * 10 
  * "1 bag"; in Japanese 「800本」「1袋」. `t` is a translator of the whole catalogue.
  */
 export function quantityText(t: Translate, locale: string, value: number, unit: string, maximumFractionDigits = 1): string {
-  return t("lot.amount", { amount: formatAmount(locale, value, maximumFractionDigits), count: shown(value, maximumFractionDigits), unit });
+  return t("lot.amount", { amount: formatAmount(locale, value, maximumFractionDigits), count: shown(value, maximumFractionDigits), unit }).trim();
 }
 
 /** A figure's name: its catalogue label, or its key spelt out if the catalogue has none. */

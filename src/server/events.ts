@@ -60,7 +60,7 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
   if (input.inputs.length < rule.minInputs) fail("inputs", t("validation.needsInputs", { count: rule.minInputs }));
 
   // A transformation draws something from every input; 0 kg is a typing slip, refused up front.
-  if (rule.content !== "none") input.inputs.forEach((i, n) => i.quantity > 0 || fail(`inputs.${n}.quantity`, t("validation.tooSmall", { minimum: 0 })));
+  if (rule.content !== "none") input.inputs.forEach((i, n) => i.quantity > 0 || fail(`inputs.${n}.quantity`, t("validation.moreThan", { minimum: 0 })));
   const eventParty = resolveEventParty(tx, actor, input, t);
   const inputKinds: readonly LotKind[] | "any" = rule.inputKinds;
   // A lot this user cannot see answers as unknown, as GET /api/lots/{code} does: no one learns
@@ -137,7 +137,7 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
       if (Math.abs(quantity - lot.onHand) > EPS) throw invalid({ [`inputs.${n}.quantity`]: [t("validation.wholeLotOnly", { onHand: lot.onHand, unit: lot.unit })] });
       return { lot, quantity, content: 0, use: "dispatch" as const };
     }
-    if (!(quantity > 0)) throw invalid({ [`inputs.${n}.quantity`]: [t("validation.tooSmall", { minimum: 0 })] });
+    if (!(quantity > 0)) throw invalid({ [`inputs.${n}.quantity`]: [t("validation.moreThan", { minimum: 0 })] });
     return { lot, quantity, content: contentOfDraw(quantity, lot), use: "draw" as const };
   });
   drawFromOnHand(tx, draws, t);

@@ -59,7 +59,7 @@ export function applyReceipt(tx: DbOrTx, actor: SessionUser, input: EventInput, 
   if (input.outputs.length) fail("outputs", t("validation.notForStep"));
   if (input.inputs.length !== 1) fail("inputs", t("validation.oneLotPerReceipt"));
   const named = input.inputs[0];
-  if (named && !(named.quantity > 0)) fail("inputs.0.quantity", t("validation.tooSmall", { minimum: 0 }));
+  if (named && !(named.quantity > 0)) fail("inputs.0.quantity", t("validation.moreThan", { minimum: 0 }));
   // A request is kept as typed, so what it names must at least be written as a lot code.
   if (named && !isValidLotCode(named.lot)) fail("inputs.0.lot", t("validation.notALotCode"));
   input.measurements.forEach((m, n) => m.lot && m.lot !== named?.lot && fail(`measurements.${n}.lot`, t("validation.unknownLot")));

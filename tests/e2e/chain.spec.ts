@@ -41,11 +41,11 @@ test("the office ships bottles to a buyer; the recall lists it; a return is a co
   await expect(form.locator("#ship-slip")).toHaveAttribute("aria-invalid", "true");
   await form.getByLabel("Delivery slip number").fill("INV-2026-120");
   await form.getByRole("button", { name: "Record the shipment" }).click();
-  await expect(form.getByTestId("form-message")).toHaveText("Shipment of 24 bottle to Minato Liquor Wholesale recorded.");
+  await expect(form.getByTestId("form-message")).toHaveText("Shipment of 24 bottles to Minato Liquor Wholesale recorded.");
 
   await page.goto(`/recall?code=${harvest}`);
   const shipment = page.getByTestId("recall-shipments").getByText("INV-2026-120");
-  await expect(shipment).toContainText(`2026-12-01: 24 bottle of ${bottles.code} to Minato Liquor Wholesale`);
+  await expect(shipment).toContainText(`2026-12-01: 24 bottles of ${bottles.code} to Minato Liquor Wholesale`);
 
   // The buyer sends them all back: the shipment is corrected, with the reason.
   await page.goto(`/lots/${bottles.code}`);

@@ -59,7 +59,7 @@ describe("a shipment to a buyer from the lot page", () => {
 
   it("draws the bottles, and the recall reaches it with buyer, date, quantity and slip", async () => {
     const answer = state(await ship(admin));
-    expect(answer).toMatchObject({ ok: true, message: en("shipments.recorded", { quantity: 24, unit: "bottle", buyer: "Minato Liquor Wholesale" }) });
+    expect(answer).toMatchObject({ ok: true, message: en("shipments.recorded", { amount: "24 bottles", buyer: "Minato Liquor Wholesale" }) });
     expect(onHand()).toBe(776);
     const shipment = (await recallOf()).find((s) => s.referenceDoc === "INV-2026-120");
     expect(shipment).toMatchObject({ lot: bottles, counterparty: "Minato Liquor Wholesale", quantity: 24, unit: "bottle", correctedBy: null, party: "Kirinoha Brewery" });

@@ -25,7 +25,7 @@ export const nextCache = { revalidatePath: () => undefined, revalidateTag: () =>
 
 export async function nextIntlServer() {
   const t = translator("en");
-  return { getTranslations: async () => (key: string, values?: Record<string, unknown>) => t(key as never, values as never) };
+  return { getTranslations: async () => (key: string, values?: Record<string, unknown>) => t(key as never, values as never), getLocale: async () => "en" };
 }
 
 export type Action = (state: FormState, form: FormData) => Promise<FormState | void>;

@@ -6,6 +6,7 @@ import { requirePageUser } from "@/server/page-guard";
 import { listParties } from "@/server/parties";
 import { listRequestsToAnswer } from "@/server/receipt-requests";
 import { PageHeader } from "@/components/page-header";
+import { getQuantity } from "@/lib/get-quantity";
 import { AnswerRequest, DispatchForm } from "./components";
 
 export async function generateMetadata() {
@@ -18,6 +19,7 @@ export default async function DispatchPage({ searchParams }: { searchParams: Pro
   if (!can(user, "polishing:record") && !can(user, "brewing:record") && !can(user, "harvests:dispatch-own")) forbidden();
   const t = await getTranslations("dispatch");
   const format = await getFormatter();
+  const amount = await getQuantity();
   const code = normaliseLotCode(String((await searchParams).code ?? "")).slice(0, 20);
   // Lots travel to mills and breweries; a party never dispatches to itself, but the office sends for growers to its own brewery.
   const receivers = [...listParties("mill"), ...listParties("brewery")].filter((p) => can(user, "lots:act-any") || p.id !== user.partyId).map(({ id, name }) => ({ id, name }));
@@ -33,7 +35,7 @@ export default async function DispatchPage({ searchParams }: { searchParams: Pro
         <ul className="space-y-4">
           {requests.map((r) => (
             <li key={r.id} className="border-t border-husk pt-3">
-              <p>{t("request", { receiver: r.receiver, code: r.code, quantity: format.number(r.quantity, { maximumFractionDigits: 3 }), unit: r.unit ?? "", slip: r.referenceDoc || "—", date: format.dateTime(r.at, "day") })}</p>
+              <p>{t("request", { receiver: r.receiver, code: r.code, amount: amount(r.quantity, r.unit ?? "", 3), slip: r.referenceDoc || "—", date: format.dateTime(r.at, "day") })}</p>
               <AnswerRequest id={r.id} />
             </li>
           ))}

@@ -1,4 +1,4 @@
-import { getFormatter, getTranslations } from "next-intl/server";
+import { getTranslations } from "next-intl/server";
 import { MAX_LABEL_CODES, parseLabelCodes } from "@/domain/label-url";
 import { actionOrigin } from "@/server/action";
 import { buildLabelSheet, expandCopies, LABEL_LAYOUTS, listLabelCandidates, MAX_COPIES, PAGE_SIZE, paginateLabels, parseCopies, parseLabelLayout, type LabelLayout, type LabelView } from "@/server/labels";
@@ -6,6 +6,7 @@ import { requirePageUser } from "@/server/page-guard";
 import { PrintButton } from "./components";
 import { BagLabel, SheetLabel } from "./label-faces";
 import { PageHeader } from "@/components/page-header";
+import { getQuantity } from "@/lib/get-quantity";
 
 type Props = { searchParams: Promise<Record<string, string | string[] | undefined>> };
 
@@ -26,13 +27,13 @@ export default async function LabelsPage({ searchParams }: Props) {
   const layout = parseLabelLayout(query.layout);
   const copies = parseCopies(query.copies);
   const t = await getTranslations();
-  const format = await getFormatter();
   const sheet = codes.length > 0 ? await buildLabelSheet(user, codes, layout, await actionOrigin(), copies) : null;
   const candidates = listLabelCandidates(user);
   const ticked = new Set(codes);
   const typed = codes.filter((code) => !candidates.some((c) => c.code === code));
   const pages = sheet?.status === "ok" ? paginateLabels(expandCopies(sheet.labels), layout) : [];
-  const quantity = (label: LabelView) => `${format.number(label.quantity, { maximumFractionDigits: 1 })} ${label.unit}`;
+  const amount = await getQuantity();
+  const quantity = (label: LabelView) => amount(label.quantity, label.unit);
 
   return (
     <div className="space-y-6">

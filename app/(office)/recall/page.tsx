@@ -10,6 +10,7 @@ import { canHoldLots } from "@/domain/permissions";
 import { HoldPanel } from "./hold-panel";
 import { ReachedLotsTable, type ReachedLot } from "./components";
 import { PageHeader } from "@/components/page-header";
+import { getQuantity } from "@/lib/get-quantity";
 import { CsvDownloadLinks } from "@/components/csv-download-links";
 
 export async function generateMetadata() {
@@ -20,6 +21,7 @@ export default async function RecallPage({ searchParams }: { searchParams: Promi
   const user = await requirePageUser();
   if (!canReadRecall(user)) forbidden();
   const t = await getTranslations();
+  const amount = await getQuantity();
   const raw = (await searchParams).code;
   const code = normaliseLotCode((Array.isArray(raw) ? raw[0] : raw) ?? "");
   let recall: Recall | null = null;
@@ -53,7 +55,7 @@ export default async function RecallPage({ searchParams }: { searchParams: Promi
               <ul className="space-y-2" data-testid="recall-shipments">
                 {shipments.map((s) => (
                   <li key={`${s.eventId}-${s.lot}`} className="notice-warn">
-                    {t("recall.shipment", { date: s.at.slice(0, 10), quantity: s.quantity, unit: s.unit, lot: s.lot, buyer: s.counterparty })}
+                    {t("recall.shipment", { date: s.at.slice(0, 10), amount: amount(s.quantity, s.unit, 3), lot: s.lot, buyer: s.counterparty })}
                     {s.referenceDoc ? ` · ${t("recall.shipmentRef", { ref: s.referenceDoc })}` : null}
                     {s.correctedBy !== null ? ` · ${t("recall.shipmentCorrected", { id: s.correctedBy })}` : null}
                   </li>

@@ -17,6 +17,7 @@ import type { Translate } from "@/lib/validation/field-errors";
 import type { ApiLot } from "@/server/lots";
 import { FloorResult, type SentOutput } from "@/components/floor/floor-result";
 import { SoakTimer } from "@/components/floor/soak-timer";
+import { useQuantity } from "@/lib/use-quantity";
 
 type Bands = { absorption: Record<RiceUse, Band>; gain: Record<RiceUse, Band>; koji: Record<KojiCheckpoint, Band> };
 type V = Record<string, string>;
@@ -285,9 +286,10 @@ function pickProduct(values: V, products: BottleProduct[], id: string): V {
 
 function LotLine({ lot }: { lot: ApiLot }) {
   const t = useTranslations("lot");
+  const amount = useQuantity();
   return (
     <p className="text-lg">
-      <span className="code-chip text-xl">{lot.code}</span> {t(`kinds.${lot.kind}`)} · {t("onHand")}: <strong>{lot.onHand} {lot.unit}</strong>
+      <span className="code-chip text-xl">{lot.code}</span> {t(`kinds.${lot.kind}`)} · {t("onHand")}: <strong>{amount(lot.onHand, lot.unit)}</strong>
     </p>
   );
 }

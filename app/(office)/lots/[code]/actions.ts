@@ -7,6 +7,7 @@ import { normaliseLotCode } from "@/domain/lot-code";
 import { can, canSeeLot } from "@/domain/permissions";
 import { formValues, type FormState } from "@/lib/form-state";
 import { eventSchema } from "@/lib/validation/events";
+import { getQuantity } from "@/lib/get-quantity";
 import { guardAction } from "@/server/action";
 import { getDb } from "@/server/db";
 import { forbidden, invalid } from "@/server/errors";
@@ -61,7 +62,8 @@ export async function shipToBuyerAction(_prev: FormState, formData: FormData): P
     });
     recordEvent(actor, input, t);
     revalidatePath(`/lots/${code}`);
-    return { ok: true, message: t("shipments.recorded", { quantity: form.quantity, unit: lot.unit, buyer: buyer.name }) };
+    const amount = await getQuantity();
+    return { ok: true, message: t("shipments.recorded", { amount: amount(form.quantity, lot.unit, 3), buyer: buyer.name }) };
   });
 }
 
