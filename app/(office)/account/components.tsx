@@ -2,6 +2,7 @@
 
 import Link from "next/link";
 import { useFormatter, useTranslations } from "next-intl";
+import { useQuantity } from "@/lib/use-quantity";
 import type { ColumnDef } from "@tanstack/react-table";
 import { DataTable } from "@/components/data-table";
 import type { HarvestTrail } from "@/server/supplier-portal";
@@ -24,6 +25,7 @@ export function HarvestTrails({ rows }: { rows: HarvestTrail[] }) {
   const t = useTranslations("suppliers.portal");
   const tl = useTranslations("lot");
   const format = useFormatter();
+  const amount = useQuantity();
   const pct = (v: number) => format.number(v, { style: "percent", maximumFractionDigits: 1 });
   return (
     <ul className="grid gap-3 md:grid-cols-2" data-testid="harvest-trails">
@@ -33,7 +35,7 @@ export function HarvestTrails({ rows }: { rows: HarvestTrail[] }) {
             <Link className="code-chip no-underline" href={`/lots/${h.code}`}>{h.code}</Link>
             <span className="font-semibold">{h.variety} {h.cropYear}</span>
             {h.grade ? <span className="text-sm text-ink-soft">{tl(`grades.${h.grade}`)}</span> : null}
-            <span className="text-sm text-ink-soft">{format.number(h.kg, { maximumFractionDigits: 1 })} kg{h.field ? ` · ${h.field}` : ""}</span>
+            <span className="text-sm text-ink-soft">{amount(h.kg, "kg")}{h.field ? ` · ${h.field}` : ""}</span>
           </p>
           {h.destinations.length ? (
             <ul className="space-y-1 text-sm">

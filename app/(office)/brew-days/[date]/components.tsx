@@ -1,7 +1,8 @@
 "use client";
 
 import Link from "next/link";
-import { useFormatter, useTranslations } from "next-intl";
+import { useFormatter, useLocale, useTranslations } from "next-intl";
+import { formatAmount } from "@/lib/quantity";
 import { BandChart, type BandChartPoint, type BandChartText } from "@/components/band-chart";
 import { KOJI_CHECKPOINTS, RICE_USES, type Band, type BandCheck } from "@/domain/brewing";
 import type { DrawnRow, KojiCheckRow, LaterRow, SoakRow, SplitRow, SteamRow } from "@/server/brew-days";
@@ -11,7 +12,9 @@ type Marked = { eventId: number; at: string; corrected: boolean; correctionReaso
 function useFigures() {
   const t = useTranslations("brewDays");
   const format = useFormatter();
-  const n = (v: number | null, unit = "") => (v === null || Number.isNaN(v) ? "—" : `${format.number(v, { maximumFractionDigits: 1 })}${unit ? ` ${unit}` : ""}`);
+  const locale = useLocale();
+  // formatAmount: a figure rounding to zero reads 0, never -0.
+  const n = (v: number | null, unit = "") => (v === null || Number.isNaN(v) ? "—" : `${formatAmount(locale, v, 1)}${unit ? ` ${unit}` : ""}`);
   return {
     t,
     n,
