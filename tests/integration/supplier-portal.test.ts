@@ -55,9 +55,11 @@ describe("the seeded supplier accounts", () => {
   });
 
   it("puts one statement per supplier in the outbox, linked to its PDF", () => {
-    const mails = rows("select to_address as toAddress, subject, text_body as text from outbox where subject like 'Statement %' order by subject");
+    // In each supplier's language: Japanese, as none of the demo suppliers' users chose another.
+    const mails = rows("select to_address as toAddress, subject, text_body as text from outbox where text_body like '%/statement.pdf%' order by created_at, rowid");
     expect(mails.map((m) => m.toAddress)).toEqual(["ikeda@farm.example", "nakase@paddies.example", "coop@asagiri.example", "works@shirotae.example"]);
-    expect(mails[0]!.text).toContain("Total incl. tax: 1,452,600 yen");
+    expect(mails[0]!.subject).toMatch(/仕入明細書 S-\d{4}-\d{4}/);
+    expect(mails[0]!.text).toContain("税込合計：1,452,600円");
     expect(mails[0]!.text).toMatch(/\/api\/suppliers\/grower-ikeda\/statements\/S-\d{4}-\d{4}\/statement\.pdf/);
   });
 });
