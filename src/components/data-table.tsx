@@ -14,6 +14,7 @@ import {
 import { useState } from "react";
 import { useTranslations } from "next-intl";
 import { csvText, saveCsvFile } from "@/lib/validation/csv";
+import { encodeShiftJis, firstMisfitCell, fitsShiftJis } from "@/lib/shift-jis";
 
 type Props<T> = {
   data: T[];
@@ -30,7 +31,9 @@ type Props<T> = {
 export function DataTable<T>({ data, columns, pageSize = 25, label, testId, exportName = "grainline-export", rowId }: Props<T>) {
   const t = useTranslations("table");
   const tc = useTranslations("csv");
+  const te = useTranslations("errors");
   const [sorting, setSorting] = useState<SortingState>([]);
+  const [csvProblem, setCsvProblem] = useState<string | null>(null);
   const [globalFilter, setGlobalFilter] = useState("");
   const table = useReactTable({
     data,
@@ -46,6 +49,14 @@ export function DataTable<T>({ data, columns, pageSize = 25, label, testId, expo
     initialState: { pagination: { pageSize } },
   });
   const rows = table.getRowModel().rows;
+  // As the server's Shift_JIS downloads: a value Shift_JIS cannot hold is named, never written as "?".
+  function downloadShiftJis() {
+    const text = tableCsv(table).replace(/^\uFEFF/, "");
+    const bytes = encodeShiftJis(text);
+    const misfit = bytes ? null : firstMisfitCell(text, fitsShiftJis);
+    setCsvProblem(misfit ? te("csvNotShiftJis", misfit) : null);
+    if (bytes) saveCsvFile(`${exportName}-sjis.csv`, bytes, "Shift_JIS");
+  }
   const pages = Math.max(1, table.getPageCount());
 
   return (
@@ -60,8 +71,12 @@ export function DataTable<T>({ data, columns, pageSize = 25, label, testId, expo
           <button type="button" className="btn-quiet" title={tc("downloadTitle")} onClick={() => saveCsvFile(`${exportName}.csv`, tableCsv(table))}>
             {tc("download")}
           </button>
+          <button type="button" className="text-sm underline" title={tc("encodings.shiftJisTitle")} aria-label={tc("encodings.shiftJisOf", { label: tc("download") })} data-testid={testId ? `${testId}-csv-sjis` : undefined} onClick={downloadShiftJis}>
+            {tc("encodings.shiftJis")}
+          </button>
         </div>
       </div>
+      {csvProblem ? <p role="alert" className="notice-warn">{csvProblem}</p> : null}
       <div className="overflow-x-auto rounded-lg border-2 border-paper-deep bg-white">
         <table className="w-full border-collapse text-sm" aria-label={label}>
           <thead className="bg-paper-deep text-left">

@@ -8,7 +8,7 @@ import { GET as recallRoute } from "../../app/api/trace/[code]/recall.csv/route"
 import { getSqlite } from "@/server/db";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 
-type Handler = (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response>;
+type Handler = typeof transactionsRoute;
 
 let admin: string, miller: string, grower: string, harvestLot: string;
 const PLACE = "㈱白妙精米所 第①倉庫（髙橋）";
@@ -94,8 +94,8 @@ describe("Shift_JIS exports and what CP932 cannot hold", () => {
     expect(res.status).toBe(422);
     // Row 1 is the header; the November receipt is the only record in that month.
     expect(res.body.error.fields.encoding).toEqual(["Row 2, column “Place” holds “𠮷”, which Shift_JIS cannot hold. Download the UTF-8 file instead."]);
-    // Japanese (the default language) names the column as the Japanese file's header does.
-    const ja = await call(transactionsRoute, jsonRequest(withEncoding(NOVEMBER, "shift_jis"), { cookie: admin }));
+    // In Japanese it names the column as the Japanese file's header does.
+    const ja = await call(transactionsRoute, jsonRequest(withEncoding(NOVEMBER, "shift_jis"), { cookie: admin, headers: { "accept-language": "ja" } }));
     expect(ja.body.error.fields.encoding[0]).toMatch(/^2 行目の「.+」列の値「𠮷」/);
     expect(await tableDigests(["sessions"])).toEqual(before);
     // The UTF-8 file holds it.

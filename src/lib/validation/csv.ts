@@ -103,9 +103,9 @@ export function csvText(fields: string[], rows: unknown[][]): string {
   return "\uFEFF" + Papa.unparse({ fields: fields.map(csvSafeText), data }, { newline: "\r\n" });
 }
 
-/** Hands CSV text to the browser as a file download. */
-export function saveCsvFile(fileName: string, text: string): void {
-  const url = URL.createObjectURL(new Blob([text], { type: "text/csv;charset=utf-8" }));
+/** Hands CSV text (or its Shift_JIS bytes) to the browser as a file download. */
+export function saveCsvFile(fileName: string, content: string | Uint8Array<ArrayBuffer>, charset: "utf-8" | "Shift_JIS" = "utf-8"): void {
+  const url = URL.createObjectURL(new Blob([content], { type: `text/csv;charset=${charset}` }));
   const link = Object.assign(document.createElement("a"), { href: url, download: fileName });
   document.body.append(link);
   link.click();
