@@ -31,7 +31,8 @@ async function statementOf(partyId: string, lines: { amountYen: number; taxRateP
   const number = issued.body.number as string;
   const pdf = await getStatementPdf(jsonRequest(`/api/suppliers/${partyId}/statements/${number}/statement.pdf`, { cookie: admin, headers: JA }), { params: Promise.resolve({ partyId, number }) });
   expect(pdf.status).toBe(200);
-  return { issued: issued.body, text: await readPdfText(new Uint8Array(await pdf.arrayBuffer())) };
+  const bytes = new Uint8Array(await pdf.arrayBuffer());
+  return { issued: issued.body, bytes, text: await readPdfText(bytes) };
 }
 
 // The qualified invoice system's buyer-made statement (仕入明細書, 適格請求書等保存方式; NTA guidance —
@@ -44,7 +45,9 @@ describe("a statement in Japanese", () => {
       { amountYen: 45_679, taxRatePct: 10, reason: "精米の追加作業" },
       { amountYen: 1_111, taxRatePct: 8, reason: "袋数の訂正" },
     ];
-    const { issued, text } = await statementOf("grower-coop", lines);
+    const { issued, text, bytes } = await statementOf("grower-coop", lines);
+    // The face is 4.5 MB a weight; subset, the statement carries only the glyphs it draws.
+    expect(bytes.length).toBeLessThan(150_000);
     // By hand, rounding down (the default): 8 %: 123,457 + 1,111 = 124,568; × 0.08 = 9,965.44 → 9,965.
     // 10 %: 45,679 × 0.10 = 4,567.9 → 4,567. Gross 124,568 + 9,965 + 45,679 + 4,567 = 184,779.
     expect(taxByRate(lines, "down").rates).toEqual([
