@@ -1,5 +1,5 @@
 import { expect, test } from "@playwright/test";
-import { registerHarvestOnForm, signInAndLand, signOut } from "./helpers";
+import { DEMO_PASSWORD, registerHarvestOnForm, signInAndLand, signOut } from "./helpers";
 
 // Figures as people type them on a Japanese keyboard: full-width digits fold to ASCII under
 // NFKC (Unicode UAX #15); "," groups thousands in CLDR's ja and en number symbols.
@@ -34,6 +34,30 @@ test.describe("on a phone", () => {
     await expect(card.getByTestId("record-moisture").getByRole("status")).toHaveText(`Moisture 13.5 % recorded for ${LOT}.`);
     const { items } = (await (await page.request.get(`/api/lots/${LOT}/events`)).json()) as { items: { step: string; measurements: { name: string; value: number }[] }[] };
     expect(items.some((e) => e.step === "measuring" && e.measurements.some((m) => m.name === "moisturePct" && m.value === 13.5))).toBe(true);
+  });
+});
+
+test.describe("a floor form on a phone", () => {
+  test.use({ viewport: { width: 390, height: 844 }, hasTouch: true });
+
+  test("says which figure is no number before sending, and records full-width figures", async ({ page }) => {
+    const LOT = "P26-0002";
+    await signInAndLand(page, "brewer@example.com");
+    const before = (await (await page.request.get(`/api/lots/${LOT}`)).json()) as { onHand: number };
+    await page.goto(`/floor/soak?lot=${LOT}`);
+    const form = page.getByTestId("floor-form");
+    await form.getByLabel("Dry rice taken (kg)").fill("1,26");
+    await form.getByLabel("Drained weight after soaking (kg)").fill("１.３");
+    await form.getByRole("button", { name: "Record soak" }).click();
+    await expect(page.getByTestId("floor-error")).toContainText("Enter a number, e.g. 1,260 or 13.5.");
+    expect(((await (await page.request.get(`/api/lots/${LOT}`)).json()) as { onHand: number }).onHand).toBe(before.onHand);
+
+    await form.getByLabel("Dry rice taken (kg)").fill("１");
+    await form.getByLabel("Soak time (minutes)").fill("３０");
+    await form.getByLabel("Water temperature (°C)").fill("１０");
+    await form.getByRole("button", { name: "Record soak" }).click();
+    await expect(page.getByTestId("floor-form")).toHaveCount(0);
+    await expect.poll(async () => ((await (await page.request.get(`/api/lots/${LOT}`)).json()) as { onHand: number }).onHand).toBeCloseTo(before.onHand - 1, 6);
   });
 });
 
@@ -74,4 +98,24 @@ test("the admin moves the brewery to another time zone and the times on screen m
   await saveZone("Asia/Tokyo");
   expect((await lotPageTime()).shown).toBe(tokyo.shown);
   await signOut(page);
+});
+
+test.describe("in Japanese", () => {
+  test.use({ locale: "ja-JP" });
+
+  test("times on the lot page are written year first, 2026/10/03 14:05, on the brewery's clock", async ({ page }) => {
+    await page.goto("/sign-in");
+    await expect(page.locator("html")).toHaveAttribute("lang", "ja");
+    await page.locator('input[name="email"]').fill("admin@example.com");
+    await page.locator('input[name="password"]').fill(DEMO_PASSWORD);
+    await page.locator('input[name="password"]').press("Enter");
+    await page.waitForURL((url) => !url.pathname.startsWith("/sign-in"));
+    await page.goto("/lots/H26-0001");
+    const time = page.getByTestId("event-timeline").locator("time[datetime]").first();
+    const at = new Date((await time.getAttribute("datetime"))!);
+    // Reference: ECMA-402 Intl with CLDR's ja patterns, in Asia/Tokyo (IANA: UTC+9, no DST).
+    const expected = new Intl.DateTimeFormat("ja", { year: "numeric", month: "2-digit", day: "2-digit", hour: "2-digit", minute: "2-digit", hourCycle: "h23", timeZone: "Asia/Tokyo" }).format(at);
+    expect(expected).toMatch(/^\d{4}\/\d{2}\/\d{2} \d{2}:\d{2}$/);
+    await expect(time).toHaveText(expected);
+  });
 });
