@@ -3,6 +3,8 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { typedNumber } from "@/lib/validation/typed";
+import { hourOfDayIn } from "@/i18n/dates";
+import { breweryTimeZone } from "@/server/settings";
 import { normaliseLotCode } from "@/domain/lot-code";
 import { can, canSeeLot } from "@/domain/permissions";
 import { formValues, type FormState } from "@/lib/form-state";
@@ -56,7 +58,8 @@ export async function shipToBuyerAction(_prev: FormState, formData: FormData): P
       inputs: [{ lot: code, quantity: form.quantity }],
       counterpartyId: buyer.id,
       referenceDoc: form.referenceDoc,
-      at: `${form.date}T12:00:00+09:00`,
+      // Noon of the typed day on the brewery's clock: the record shows that day in its zone.
+      at: hourOfDayIn(form.date, 12, breweryTimeZone()),
       // The office records on the holder's behalf, as on the dispatch page.
       partyId: lot.partyId === actor.partyId ? undefined : lot.partyId,
     });
