@@ -2,6 +2,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { POST as postEvent } from "../../app/api/events/route";
 import { DEFAULT_ABSORPTION_BANDS, KOJI_CHECKPOINTS, RICE_USES } from "@/domain/brewing";
 import { translator } from "@/i18n/messages";
+import { auditRecord, renderAudit, type AuditTranslate } from "@/server/audit-record";
 import { settingsFromForm } from "@/lib/validation/settings";
 import { getDb, getSqlite } from "@/server/db";
 import { DEMO_USERS } from "@/server/seed";
@@ -141,6 +142,11 @@ describe("the brewery's time zone", () => {
     expect(saved.changed).toEqual(["polishingMarginPts", "timeZone"]);
     expect(readSetting(getDb(), "timeZone")).toBe("Europe/London");
     expect(JSON.parse(auditRows().at(-1)!.detail)).toMatchObject({ before: { timeZone: "Asia/Tokyo" }, after: { timeZone: "Europe/London" } });
+    // The audit record words the change for people, in each language.
+    for (const [locale, name] of [["en", "time zone: Asia/Tokyo → Europe/London"], ["ja", "タイムゾーン: Asia/Tokyo → Europe/London"]] as const) {
+      const [line] = renderAudit(auditRecord(5), translator(locale) as unknown as AuditTranslate, locale);
+      expect(line!.summary).toContain(name);
+    }
     restoreSettingDefaults(actor("user-admin"));
     expect(readSetting(getDb(), "timeZone")).toBe("Asia/Tokyo");
   });
