@@ -32,3 +32,27 @@ export async function LanguageSwitch({ action }: { action: LanguageAction }) {
     </form>
   );
 }
+
+/** The account page's form: the same setting, plus going back to the browser's language (""). */
+export async function LanguageSetting({ action, current }: { action: LanguageAction; current: string | null | undefined }) {
+  const t = await getTranslations("nav");
+  const submit = action.bind(null, initialFormState) as unknown as (form: FormData) => Promise<void>;
+  return (
+    <form action={submit} className="flex flex-wrap items-end gap-3" data-testid="language-setting">
+      <label className="block">
+        <span className="field-label">{t("language")}</span>
+        {/* Keyed by the stored value: after saving, the form shows what is stored, not what React kept. */}
+        <select key={current ?? ""} name="locale" defaultValue={current ?? ""} className="field-input">
+          <option value="">{t("languageFollowBrowser")}</option>
+          {LOCALES.map((code) => (
+            <option key={code} value={code} lang={code}>
+              {t(`languageNames.${code}`)}
+            </option>
+          ))}
+        </select>
+      </label>
+      <button type="submit" className="btn">{t("languageSave")}</button>
+      <p className="w-full text-sm text-ink-soft">{t("languageHint")}</p>
+    </form>
+  );
+}

@@ -81,7 +81,7 @@ test("a visitor's switch on the sign-in page: English, then 日本語 again (the
   await expect(page.getByRole("heading", { name: ja("auth.signInTitle") })).toBeVisible();
 });
 
-// Nakase (grower2) ends in English: the English specs that sign her in read English either way.
+// Nakase (grower2) ends as she began, following her browser.
 test("the user menu's switch stores the person's own setting, which wins over a Japanese browser", async ({ page, browser, baseURL }) => {
   await signInInJapanese(page, "grower2@example.com");
   await expect(page.getByRole("button", { name: ja("nav.signOut") })).toBeVisible();
@@ -95,5 +95,13 @@ test("the user menu's switch stores the person's own setting, which wins over a 
   await signInInJapanese(again, "grower2@example.com");
   await expect(again.getByRole("button", { name: en("nav.signOut") })).toBeVisible();
   expect((await other.cookies()).find((c) => c.name === "grainline-locale")?.value).toBe("en");
+
+  // Her account page gives the choice back to the browser: Japanese again, and no setting left behind.
+  await again.goto("/account");
+  const setting = again.getByTestId("language-setting");
+  await setting.getByLabel(en("nav.language")).selectOption("");
+  await setting.getByRole("button", { name: en("nav.languageSave") }).click();
+  await expect(again.getByRole("button", { name: ja("nav.signOut") })).toBeVisible();
+  await expect(again.getByTestId("language-setting").getByLabel(ja("nav.language"))).toHaveValue("");
   await other.close();
 });

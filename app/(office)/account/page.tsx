@@ -10,6 +10,8 @@ import { accountRows, type AccountRow } from "@/server/supplier-describe";
 import { growerPortal, millPortal } from "@/server/supplier-portal";
 import { HarvestTrails, MyFields } from "./components";
 import { PageHeader } from "@/components/page-header";
+import { LanguageSetting } from "@/components/language-switch";
+import { setLanguageAction } from "../../(auth)/language/actions";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("nav"))("account") };
@@ -84,6 +86,9 @@ async function AccountFrame({ portal: p, rows, title, intro, children, after }: 
         <StatementsTable partyId={p.party.id} rows={p.statements.map(({ totals: _t, ...s }) => s)} />
       </Section>
       {after}
+      <Section title={(await getTranslations("nav"))("language")}>
+        <LanguageSetting action={setLanguageAction} current={(await requirePageUser()).locale} />
+      </Section>
     </div>
   );
 }
