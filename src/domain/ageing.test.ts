@@ -32,4 +32,14 @@ describe("ageing of a supplier's balance", () => {
     expect(ageBalance(charges, 0, asOf)).toEqual({ days0to30: 0, days31to60: 0, days61to90: 0, over90: 0 });
     expect(ageBalance(charges, -500, asOf)).toEqual({ days0to30: 0, days31to60: 0, days61to90: 0, over90: 0 });
   });
+
+  it("counts calendar days on the brewery's clock when it is set elsewhere", () => {
+    // 20:00 UTC on 2 Oct is 3 Oct in Tokyo (UTC+9) and still 2 Oct in London (UTC+1 in
+    // October, BST): IANA tz database offsets. To 2 Nov (noon UTC) that is 30 days in Tokyo, 31 in London.
+    const at = new Date("2026-10-02T20:00:00Z");
+    const asOfNov = new Date("2026-11-02T12:00:00Z");
+    expect(ageInDays(at, asOfNov, "Asia/Tokyo")).toBe(30);
+    expect(ageInDays(at, asOfNov, "Europe/London")).toBe(31);
+    expect(ageBalance([{ at, amountYen: 1_000 }], 1_000, asOfNov, "Europe/London")).toEqual({ days0to30: 0, days31to60: 1_000, days61to90: 0, over90: 0 });
+  });
 });

@@ -4,10 +4,11 @@ import { z } from "zod";
 import type { DbOrTx } from "@/db/client";
 import { fields, parties } from "@/db/schema";
 import { can } from "@/domain/permissions";
-import { harvestCsvRowSchema, IMPORT_COLUMNS, importRequestSchema, MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, noonInJapan, receiptCsvRowSchema, type ImportKind, type ImportRequest } from "@/lib/validation/csv";
+import { harvestCsvRowSchema, IMPORT_COLUMNS, importRequestSchema, MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, noonOn, receiptCsvRowSchema, type ImportKind, type ImportRequest } from "@/lib/validation/csv";
 import { eventSchema, harvestSchema } from "@/lib/validation/events";
 import { fieldErrorsFrom, type Translate } from "@/lib/validation/field-errors";
 import { getDb } from "./db";
+import { breweryTimeZone } from "./settings";
 import { AppError, forbidden, invalid, type ErrorCode, type FieldErrors } from "./errors";
 import { applyEvent } from "./events";
 import { registerHarvestInTx } from "./harvests";
@@ -174,7 +175,7 @@ function importHarvestRow(tx: DbOrTx, actor: SessionUser, values: Record<string,
   const fieldId = resolve(tx, fields, values.field, visible, "field", t("validation.unknownField"), t);
   if (!row.success || typeof fieldId !== "string") throw invalid(merge(row, fieldId, t));
   const { field: _field, harvestedOn, ...rest } = row.data;
-  const input = harvestSchema.parse({ fieldId, ...rest, ...(harvestedOn ? { at: noonInJapan(harvestedOn) } : {}) });
+  const input = harvestSchema.parse({ fieldId, ...rest, ...(harvestedOn ? { at: noonOn(harvestedOn, breweryTimeZone(tx)) } : {}) });
   return registerHarvestInTx(tx, actor, input, t).code;
 }
 
@@ -185,7 +186,7 @@ function importReceiptRow(tx: DbOrTx, actor: SessionUser, values: Record<string,
   const { lot, quantity, receivedOn, deliverySlip, place } = row.data;
   const input = eventSchema.parse({
     step: "receiving",
-    at: noonInJapan(receivedOn),
+    at: noonOn(receivedOn, breweryTimeZone(tx)),
     inputs: [{ lot, quantity }],
     counterpartyId: from,
     ...(deliverySlip ? { referenceDoc: deliverySlip } : {}),

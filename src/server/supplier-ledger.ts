@@ -9,6 +9,7 @@ import { taxByRate, type RateTotal } from "@/domain/tax";
 import { getDb } from "./db";
 import { forbidden, notFound, type ErrorMessage } from "./errors";
 import type { SessionUser } from "./session";
+import { breweryTimeZone } from "./settings";
 import { readTaxRounding } from "./supplier-settings";
 
 export type EntryRow = typeof supplierEntries.$inferSelect & { lotCode: string | null; statement: string | null };
@@ -57,7 +58,7 @@ function refOf(e: EntryRow): string {
  * The lines therefore add up to the balance exactly. With `upTo`, the account as it stood then:
  * statements issued by that moment, and entries dated by then or stated by those statements.
  */
-export function computeLedger(account: Account, rounding: Rounding, asOf: Date, upTo: Date | null = null): Ledger {
+export function computeLedger(account: Account, rounding: Rounding, asOf: Date, upTo: Date | null = null, timeZone?: string): Ledger {
   const statements = upTo ? account.statements.filter((s) => s.issuedAt <= upTo) : account.statements;
   const stated = new Set(statements.map((s) => s.number));
   const entries = account.entries
@@ -75,11 +76,11 @@ export function computeLedger(account: Account, rounding: Rounding, asOf: Date, 
   // reversed payment's reversal (positive) a new charge: the charges the payment settled owe again, at their age.
   const reversed = new Set(entries.map((e) => e.reversesEntryId).filter((id): id is number => id !== null));
   const charges = lines.filter((l) => l.amountYen > 0 && l.kind !== "reversal" && (l.entryId === null || !reversed.has(l.entryId)));
-  return { partyId: account.partyId, balanceYen, lines, entries, openTax: open.rates, ageing: ageBalance(charges, balanceYen, asOf) };
+  return { partyId: account.partyId, balanceYen, lines, entries, openTax: open.rates, ageing: ageBalance(charges, balanceYen, asOf, timeZone) };
 }
 
 export function ledgerOf(db: DbOrTx, partyId: string, asOf = new Date()): Ledger {
-  return computeLedger(loadAccount(db, partyId), readTaxRounding(db), asOf);
+  return computeLedger(loadAccount(db, partyId), readTaxRounding(db), asOf, null, breweryTimeZone(db));
 }
 
 export function requireSupplier(db: DbOrTx, partyId: string) {

@@ -3,11 +3,12 @@ import { eq } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { parties, supplierEntries } from "@/db/schema";
 import { can } from "@/domain/permissions";
-import { noonInJapan } from "@/lib/validation/csv";
+import { noonOn } from "@/lib/validation/csv";
 import type { Translate } from "@/lib/validation/field-errors";
 import { adjustmentSchema, invoiceNumberSchema, parseSupplierInput } from "@/lib/validation/suppliers";
 import { recordAudit } from "./audit";
 import { getDb } from "./db";
+import { breweryTimeZone } from "./settings";
 import { forbidden, invalid } from "./errors";
 import type { SessionUser } from "./session";
 import { ledgerOf, requireSupplier } from "./supplier-ledger";
@@ -28,7 +29,7 @@ export function recordAdjustment(actor: SessionUser, partyId: string, raw: unkno
     requireSupplier(tx, partyId);
     const id = tx
       .insert(supplierEntries)
-      .values({ partyId, kind: "adjustment", at: new Date(noonInJapan(input.date)), amountYen: input.amountYen, taxRatePct: input.taxRatePct, reason: input.reason, userId: actor.id, recordedAt: new Date() })
+      .values({ partyId, kind: "adjustment", at: new Date(noonOn(input.date, breweryTimeZone(tx))), amountYen: input.amountYen, taxRatePct: input.taxRatePct, reason: input.reason, userId: actor.id, recordedAt: new Date() })
       .returning({ id: supplierEntries.id })
       .get().id;
     return { id, balanceYen: ledgerOf(tx, partyId).balanceYen };

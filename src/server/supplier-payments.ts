@@ -3,11 +3,13 @@ import { and, eq } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { supplierEntries } from "@/db/schema";
 import { can } from "@/domain/permissions";
-import { dayInJapan, noonInJapan } from "@/lib/validation/csv";
+import { dayIn } from "@/i18n/dates";
+import { noonOn } from "@/lib/validation/csv";
 import type { Translate } from "@/lib/validation/field-errors";
 import { parseSupplierInput, paymentSchema, reversalSchema } from "@/lib/validation/suppliers";
 import { recordAudit } from "./audit";
 import { getDb } from "./db";
+import { breweryTimeZone } from "./settings";
 import { AppError, forbidden, invalid, notFound } from "./errors";
 import type { SessionUser } from "./session";
 import { describeEntry } from "./supplier-describe";
@@ -37,7 +39,7 @@ export function recordPayment(actor: SessionUser, partyId: string, raw: unknown,
       .values({
         partyId,
         kind: "payment",
-        at: new Date(noonInJapan(input.date)),
+        at: new Date(noonOn(input.date, breweryTimeZone(tx))),
         amountYen: -input.amountYen,
         taxRatePct: 0,
         method: input.method,
@@ -97,10 +99,10 @@ export function reversePayment(actor: SessionUser, partyId: string, rawEntryId: 
 }
 
 /** The account's payments for the office's list, newest first, each marked when reversed. */
-export function paymentLines(ledger: Ledger, t: Translate) {
+export function paymentLines(ledger: Ledger, t: Translate, timeZone = breweryTimeZone()) {
   const reversed = new Set(ledger.entries.map((e) => e.reversesEntryId));
   return ledger.entries
     .filter((e) => e.kind === "payment")
-    .map((e) => ({ id: e.id, day: dayInJapan(e.at), amountYen: -e.amountYen, description: describeEntry(e, t), reversed: reversed.has(e.id), statement: e.statement }))
+    .map((e) => ({ id: e.id, day: dayIn(e.at, timeZone), amountYen: -e.amountYen, description: describeEntry(e, t), reversed: reversed.has(e.id), statement: e.statement }))
     .reverse();
 }

@@ -1,9 +1,8 @@
 import "server-only";
 import { PDFDocument, rgb, type PDFFont, type PDFPage } from "pdf-lib";
-import { formatDay } from "@/i18n/dates";
+import { dayIn, formatDay } from "@/i18n/dates";
 import type { Locale } from "@/i18n/locale";
 import { csvText } from "@/lib/validation/csv";
-import { dayInJapan } from "@/lib/validation/csv";
 import type { Translate } from "@/lib/validation/field-errors";
 import { embedDocumentFonts } from "./pdf-fonts";
 import { wrapText } from "./pdf-text";
@@ -28,9 +27,9 @@ export function statementSummary(s: StatementView, t: Translate): [string, numbe
   ];
 }
 
-export function statementCsv(s: StatementView, t: Translate): string {
+export function statementCsv(s: StatementView, t: Translate, timeZone: string): string {
   const c = (k: string) => t(`suppliers.statement.columns.${k}`);
-  const rows: unknown[][] = s.entries.map((e) => [dayInJapan(e.at), t(`suppliers.kinds.${e.kind}`), describeEntry(e, t), e.lotCode ?? "", e.taxRatePct, e.amountYen]);
+  const rows: unknown[][] = s.entries.map((e) => [dayIn(e.at, timeZone), t(`suppliers.kinds.${e.kind}`), describeEntry(e, t), e.lotCode ?? "", e.taxRatePct, e.amountYen]);
   for (const [label, value] of statementSummary(s, t)) rows.push(["", label, "", "", "", value]);
   return csvText([c("date"), c("entry"), c("description"), c("lot"), c("taxRatePct"), c("amountYen")], rows);
 }

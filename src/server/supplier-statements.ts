@@ -4,20 +4,19 @@ import type { DbOrTx } from "@/db/client";
 import { parties, supplierStatementEntries, supplierStatements, users } from "@/db/schema";
 import { can } from "@/domain/permissions";
 import { taxByRate } from "@/domain/tax";
-import { dayInJapan, startOfDayInJapan } from "@/lib/validation/csv";
+import { dayIn, nextDay, startOfDayIn } from "@/i18n/dates";
 import type { Translate } from "@/lib/validation/field-errors";
 import { parseSupplierInput, statementSchema } from "@/lib/validation/suppliers";
 import { getDb } from "./db";
+import { breweryTimeZone } from "./settings";
 import { AppError, forbidden, invalid, notFound } from "./errors";
 import type { SessionUser } from "./session";
 import { computeLedger, entriesOf, loadAccount, requireReadableSupplier, requireSupplier, type EntryRow, type StatementTotals } from "./supplier-ledger";
 import { readTaxRounding } from "./supplier-settings";
 
-const DAY_MS = 86_400_000;
-
-/** Statement numbers run per calendar year of issue in Japan: S-2026-0001, S-2026-0002 … */
+/** Statement numbers run per calendar year of issue on the brewery's clock: S-2026-0001, S-2026-0002 … */
 function nextNumber(tx: DbOrTx, issuedAt: Date): string {
-  const prefix = `S-${dayInJapan(issuedAt).slice(0, 4)}-`;
+  const prefix = `S-${dayIn(issuedAt, breweryTimeZone(tx)).slice(0, 4)}-`;
   const last = tx.select({ n: supplierStatements.number }).from(supplierStatements).where(like(supplierStatements.number, `${prefix}%`)).orderBy(desc(supplierStatements.number)).get()?.n;
   return `${prefix}${String((last ? Number(last.slice(prefix.length)) : 0) + 1).padStart(4, "0")}`;
 }
@@ -31,9 +30,10 @@ function nextNumber(tx: DbOrTx, issuedAt: Date): string {
 export function issueStatement(actor: SessionUser, partyId: string, raw: unknown, t: Translate, db: DbOrTx = getDb(), issuedAt = new Date()) {
   if (!can(actor, "ledger:manage")) throw forbidden();
   const input = parseSupplierInput(statementSchema, raw, t, (f) => invalid(f));
-  const from = startOfDayInJapan(input.from);
-  const before = new Date(startOfDayInJapan(input.to).getTime() + DAY_MS);
   return db.transaction((tx) => {
+    const zone = breweryTimeZone(tx);
+    const from = startOfDayIn(input.from, zone);
+    const before = startOfDayIn(nextDay(input.to), zone);
     const party = requireSupplier(tx, partyId);
     if (input.email && !party.email) throw invalid({ email: [t("suppliers.validation.noEmail")] });
     const account = loadAccount(tx, partyId);

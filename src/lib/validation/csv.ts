@@ -3,6 +3,7 @@ import { z } from "zod";
 import { csvSafeCell, csvSafeText } from "@/domain/csv-safe";
 import { GRADES } from "@/domain/grades";
 import { parseTypedDate, parseTypedNumber } from "@/domain/typed-input";
+import { hourOfDayIn } from "@/i18n/dates";
 import { eventInputSchema, eventSchema, harvestSchema, lotCode } from "./events";
 
 /** CSV in and out, shared by the browser (reading files, writing downloads) and the server. */
@@ -83,14 +84,11 @@ export type CsvDownloadEncoding = (typeof CSV_DOWNLOAD_ENCODINGS)[number];
 export const csvDownloadQuerySchema = z.object({ encoding: z.enum(CSV_DOWNLOAD_ENCODINGS).default("utf-8") });
 
 /**
- * Dates in the files are calendar days in Japan, where the brewery and its suppliers work
- * (the app's time zone is Asia/Tokyo). A day becomes its noon there, which falls on the same
- * calendar day in UTC too — lot codes take their year from the UTC date.
+ * Dates in the files are calendar days on the brewery's clock (its time-zone setting, Asia/Tokyo
+ * by default). A day becomes its noon there, which stays on the same calendar day in UTC for
+ * every zone within ±11 hours — lot codes take their year from the UTC date.
  */
-export const JAPAN_OFFSET = "+09:00";
-export const noonInJapan = (isoDay: string) => `${isoDay}T12:00:00${JAPAN_OFFSET}`;
-export const startOfDayInJapan = (isoDay: string) => new Date(`${isoDay}T00:00:00${JAPAN_OFFSET}`);
-export const dayInJapan = (at: Date) => new Date(at.getTime() + 9 * 3_600_000).toISOString().slice(0, 10);
+export const noonOn = (isoDay: string, timeZone: string) => hourOfDayIn(isoDay, 12, timeZone);
 
 /**
  * Writes CSV (RFC 4180, CRLF) with a byte-order mark, without which spreadsheet programs in

@@ -1,10 +1,11 @@
 import { getTranslations } from "next-intl/server";
 import { FormField } from "@/components/ui/form-field";
 import { can } from "@/domain/permissions";
-import { dayInJapan } from "@/lib/validation/csv";
+import { dayIn } from "@/i18n/dates";
 import { actionTranslator } from "@/server/action";
 import { AppError } from "@/server/errors";
 import { requirePageUser } from "@/server/page-guard";
+import { breweryTimeZone } from "@/server/settings";
 import { listTransactionRecords, parseDateRange, type TransactionRecord } from "@/server/transactions-export";
 import { TransactionsTable } from "./components";
 import { PageHeader } from "@/components/page-header";
@@ -21,8 +22,8 @@ export default async function TransactionsPage({ searchParams }: { searchParams:
   const user = await requirePageUser();
   const t = await getTranslations("csv.records");
   const query = await searchParams;
-  // Unless asked otherwise: this calendar year so far, in Japan.
-  const today = dayInJapan(new Date());
+  // Unless asked otherwise: this calendar year so far, on the brewery's clock.
+  const today = dayIn(new Date(), breweryTimeZone());
   const from = one(query.from) ?? `${today.slice(0, 4)}-01-01`;
   const to = one(query.to) ?? today;
   let records: TransactionRecord[] | null = null;

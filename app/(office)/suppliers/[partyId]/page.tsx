@@ -4,9 +4,10 @@ import { getTranslations } from "next-intl/server";
 import { AccountTable, BalancePanel, StatementsTable } from "@/components/supplier-account";
 import { DeliveriesTable, RunsTable } from "@/components/supplier-activity";
 import { can } from "@/domain/permissions";
-import { dayInJapan } from "@/lib/validation/csv";
+import { dayIn, nextDay } from "@/i18n/dates";
 import { actionTranslator } from "@/server/action";
 import { getDb } from "@/server/db";
+import { breweryTimeZone } from "@/server/settings";
 import { requirePageUser } from "@/server/page-guard";
 import { currentMillContract, listContracts } from "@/server/supplier-contracts";
 import { accountRows } from "@/server/supplier-describe";
@@ -33,11 +34,12 @@ export default async function SupplierPage({ params }: { params: Promise<{ party
   const runs = party.kind === "mill" ? runsOf(partyId) : [];
   const unpriced = deliveries.filter((d) => d.amountYen === null && !d.reversed);
   const unpricedRuns = runs.filter((r) => r.feeYen === null && !r.reversed);
-  const payments = manage ? paymentLines(ledger, translate) : [];
-  const today = dayInJapan(new Date());
+  const zone = breweryTimeZone();
+  const payments = manage ? paymentLines(ledger, translate, zone) : [];
+  const today = dayIn(new Date(), zone);
   const statements = listStatements(partyId).map(({ totals: _t, ...s }) => s);
   const lastTo = statements.at(-1)?.to;
-  const from = lastTo ? dayInJapan(new Date(Date.parse(`${lastTo}T12:00:00+09:00`) + 86_400_000)) : `${today.slice(0, 8)}01`;
+  const from = lastTo ? nextDay(lastTo) : `${today.slice(0, 8)}01`;
   return (
     <div className="space-y-8">
       <p><Link href="/suppliers">← {t("back")}</Link></p>
