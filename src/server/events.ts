@@ -70,7 +70,7 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
     const lot = known(lotByCode(tx, i.lot));
     if (!lot) fail(`inputs.${n}.lot`, t("validation.unknownLot"));
     else if (inputKinds !== "any" && !inputKinds.includes(lot.kind)) {
-      fail(`inputs.${n}.lot`, t("validation.kindNotAllowed", { step, kind: lot.kind }));
+      fail(`inputs.${n}.lot`, t("validation.kindNotAllowed", { step: t(`steps.${step}`), kind: t(`lot.kinds.${lot.kind}`) }));
     }
     return lot;
   });
@@ -80,13 +80,13 @@ function applyStep(tx: DbOrTx, actor: SessionUser, input: EventInput, t: Transla
       const existing = known(lotByCode(tx, o.lot)) ?? null;
       if (!existing) fail(`outputs.${n}.lot`, t("validation.unknownLot"));
       else if (!("addsToExisting" in rule) || !(rule.outputKinds as readonly string[]).includes(existing.kind)) {
-        fail(`outputs.${n}.lot`, t("validation.outputKindNotAllowed", { step, kind: existing.kind }));
+        fail(`outputs.${n}.lot`, t("validation.outputKindNotAllowed", { step: t(`steps.${step}`), kind: t(`lot.kinds.${existing.kind}`) }));
       }
       return { existing, spec: null, kind: (existing?.kind ?? "tank") as LotKind, quantity: o.quantity };
     }
     const spec = o as NewOutput;
-    if (!(rule.outputKinds as readonly string[]).includes(spec.kind)) fail(`outputs.${n}.kind`, t("validation.outputKindNotAllowed", { step, kind: spec.kind }));
-    if (spec.unit && spec.unit !== UNIT_OF_KIND[spec.kind]) fail(`outputs.${n}.unit`, t("validation.unitNotAllowed", { kind: spec.kind, unit: UNIT_OF_KIND[spec.kind] }));
+    if (!(rule.outputKinds as readonly string[]).includes(spec.kind)) fail(`outputs.${n}.kind`, t("validation.outputKindNotAllowed", { step: t(`steps.${step}`), kind: t(`lot.kinds.${spec.kind}`) }));
+    if (spec.unit && spec.unit !== UNIT_OF_KIND[spec.kind]) fail(`outputs.${n}.unit`, t("validation.unitNotAllowed", { kind: t(`lot.kinds.${spec.kind}`), unit: UNIT_OF_KIND[spec.kind] }));
     if (spec.kind === "bottled" && !(typeof spec.bottleMl === "number" && spec.bottleMl > 0)) fail(`outputs.${n}.bottleMl`, t("validation.required"));
     return { existing: null, spec, kind: spec.kind, quantity: spec.quantity };
   });

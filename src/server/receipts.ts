@@ -25,7 +25,7 @@ export function checkDispatch(tx: DbOrTx, d: { eventParty: string; counterparty:
   const errors: FieldErrors = {};
   d.lots.forEach((lot, n) => {
     if (lot.partyId !== d.eventParty) errors[`inputs.${n}.lot`] = [t("validation.notHeld")];
-    else if (!RECEIVABLE_KINDS[d.counterparty.kind].includes(lot.kind)) errors[`inputs.${n}.lot`] = [t("validation.notTakenIn", { kind: lot.kind })];
+    else if (!RECEIVABLE_KINDS[d.counterparty.kind].includes(lot.kind)) errors[`inputs.${n}.lot`] = [t("validation.notTakenIn", { kind: t(`lot.kinds.${lot.kind}`) })];
   });
   if (Object.keys(errors).length) throw invalid(errors);
 }
@@ -72,7 +72,7 @@ export function applyReceipt(tx: DbOrTx, actor: SessionUser, input: EventInput, 
   // What the receiver holds or may see already, it may be told about; nothing else.
   if (lot?.partyId === receiver) throw refuse("errors.alreadyHeld");
   if (lot && canSeeLot(actor, lot) && !RECEIVABLE_KINDS[partyKind(tx, receiver)].includes(lot.kind)) {
-    throw invalid({ "inputs.0.lot": [t("validation.kindNotAllowed", { step: "receiving", kind: lot.kind })] });
+    throw invalid({ "inputs.0.lot": [t("validation.kindNotAllowed", { step: t("steps.receiving"), kind: t(`lot.kinds.${lot.kind}`) })] });
   }
   const dispatch = lot && lot.inTransitTo === receiver ? openDispatch(tx, lot) : null;
   if (!lot || !dispatch) return awaitSender(tx, actor, receiver, input);

@@ -300,7 +300,7 @@ describe("a receipt takes only what travels to its receiver (src/domain/steps.ts
     for (const [cookie, partyId] of [[miller, undefined], [admin, "mill-shirotae"]] as const) {
       const res = await event(cookie, { step: "receiving", partyId, inputs: [{ lot: polished.code, quantity: polished.onHand }] });
       expect(res.status).toBe(422);
-      expect(res.body.error.fields["inputs.0.lot"]).toEqual(["A receiving step cannot use a lot of kind polished."]);
+      expect(res.body.error.fields["inputs.0.lot"]).toEqual(["This step (Received) cannot use a lot of this kind (Polished rice)."]);
     }
     expect(await tableDigests()).toEqual(before);
   });
