@@ -1,4 +1,4 @@
-import { getTranslations } from "next-intl/server";
+import { getLocale, getTranslations } from "next-intl/server";
 import { AuditTable } from "@/components/audit-table";
 import { auditRecord, renderAudit } from "@/server/audit-record";
 import { overviewCounts } from "@/server/overview";
@@ -27,7 +27,7 @@ export default async function OverviewPage() {
       </dl>
       <section>
         <h2 className="mb-3 text-xl font-bold">{t("recentActivity")}</h2>
-        <AuditTable rows={renderAudit(auditRecord(50), all)} pageSize={10} />
+        <AuditTable rows={renderAudit(auditRecord(50), all, await getLocale())} pageSize={10} />
       </section>
     </div>
   );

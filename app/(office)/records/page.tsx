@@ -1,4 +1,4 @@
-import { getTranslations } from "next-intl/server";
+import { getLocale, getTranslations } from "next-intl/server";
 import { AuditTable } from "@/components/audit-table";
 import { auditRecord, renderAudit } from "@/server/audit-record";
 import { requirePagePermission } from "@/server/page-guard";
@@ -14,7 +14,7 @@ export default async function RecordsPage() {
   return (
     <div className="space-y-6">
       <PageHeader title={t("home.recordsTitle")} intro={t("home.recordsIntro")} />
-      <AuditTable rows={renderAudit(auditRecord(2000), t)} />
+      <AuditTable rows={renderAudit(auditRecord(2000), t, await getLocale())} />
       <p className="notice text-sm">{t("caution.records")}</p>
     </div>
   );
