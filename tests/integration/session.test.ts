@@ -30,7 +30,7 @@ describe("the per-request session check", () => {
     expect(logged).toHaveLength(1);
     expect(logged[0]).not.toMatch(/password/i);
     expect(found).toEqual({ id: session.id, userId: "user-brewer", expiresAt: new Date(Math.floor(session.expiresAt.getTime() / 1000) * 1000), attributes: { signedInAt: session.signedInAt } }); // stored in whole seconds
-    expect(user).toEqual({ id: "user-brewer", attributes: { email: "brewer@example.com", name: expect.any(String), role: "brewer", partyId: expect.any(String), disabledAt: null } });
+    expect(user).toEqual({ id: "user-brewer", attributes: { email: "brewer@example.com", name: expect.any(String), role: "brewer", partyId: expect.any(String), disabledAt: null, locale: null } });
     expect(await adapter.getSessionAndUser("no-such-session")).toEqual([null, null]);
   });
 
