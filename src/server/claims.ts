@@ -80,7 +80,8 @@ export function claimsForLot(lot: { id: number; code: string; kind: string }, t:
   if (!CLAIMABLE.includes(lot.kind)) throw invalid({ code: [t("validation.notClaimable")] }, "errors.notClaimable");
   const tanks = ancestorsOfKind(lot.id, "tank").map((tank) => ({ code: tank.code, facts: tankFacts(tank) }));
   const verdicts = tanks.map((x) => assessCategories(x.facts));
-  const word = (r: Reason) => t(`claims.reasons.${r.key}`, r.values);
+  // A grade travels as its code (out-of-grade); the reader sees the grade's name.
+  const word = (r: Reason) => t(`claims.reasons.${r.key}`, r.values && "grade" in r.values ? { ...r.values, grade: t(`lot.grades.${String(r.values.grade)}`) } : r.values);
   const categories = (verdicts[0] ?? assessCategories(emptyFacts)).map((v, n) => {
     const reasons = [...new Set(verdicts.flatMap((per, i) => per[n]!.reasons.map((r) => (tanks.length > 1 ? t("claims.ofTank", { tank: tanks[i]!.code, reason: word(r) }) : word(r)))))];
     return { name: v.name, eligible: verdicts.length > 0 && reasons.length === 0, reasons: verdicts.length ? reasons : [t("claims.reasons.noTank")] };

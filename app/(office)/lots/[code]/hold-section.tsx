@@ -14,7 +14,7 @@ export async function HoldSection({ code, hold, history, mayRelease }: { code: s
       {hold ? (
         <p role="alert" className="notice-warn font-semibold" data-testid="lot-on-hold">
           {t("onHoldSince", { date: date(hold.at), reason: hold.reason })}
-          {hold.recallCode ? ` (${t("fromRecall", { code: hold.recallCode })})` : null}
+          {hold.recallCode ? t("fromRecall", { code: hold.recallCode }) : null}
         </p>
       ) : null}
       <h2 id="lot-holds" className="text-xl font-bold">{t("history")}</h2>
