@@ -32,6 +32,7 @@ const ALSO: Record<string, string[]> = {
   grade: ["等", "規格外"],
   addition: ["仕込"],
   import: ["取り込"],
+  draw: ["払い出"],
 };
 
 /**
