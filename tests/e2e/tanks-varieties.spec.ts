@@ -58,7 +58,7 @@ test("the office registers a tank and a variety in settings; the harvest form of
   const offered = await admin.getByTestId("harvest-form").locator('select[name="variety"] option').allTextContents();
   expect(offered).toEqual(expect.arrayContaining(["Sasanishiki", "Omachi", "Yamada Nishiki"]));
   expect(offered).not.toContain("Rice Nobody Grows");
-  const refused = await admin.request.post("/api/harvests", { data: { fieldId: "field-ikeda-cedar", variety: "Rice Nobody Grows", cropYear: 2026, brownKg: 150, moisturePct: 14.2, grade: "2", bags: 3 } });
+  const refused = await admin.request.post("/api/harvests", { headers: { "accept-language": "en" }, data: { fieldId: "field-ikeda-cedar", variety: "Rice Nobody Grows", cropYear: 2026, brownKg: 150, moisturePct: 14.2, grade: "2", bags: 3 } });
   expect(refused.status()).toBe(422);
   expect((await refused.json()).error.fields.variety[0]).toContain("Settings → Rice varieties");
   await admin.context().close();
