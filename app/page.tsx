@@ -1,6 +1,6 @@
 import { redirect } from "next/navigation";
 import { HOME_FOR_ROLE } from "@/domain/permissions";
-import { currentUser } from "@/server/session";
+import { currentUser } from "@/server/accounts/session";
 
 export default async function Root() {
   const user = await currentUser();

@@ -3,13 +3,13 @@
  * running exactly the SQL the app ran for one request of each route (captured by the bench
  * through better-sqlite3's verbose hook, values included), the write in one IMMEDIATE
  * transaction as the app does, on a connection set up as the app's is (the same pragmas, and
- * WAL checkpoints in a worker thread: src/server/checkpointer.ts).
+ * WAL checkpoints in a worker thread: src/server/platform/checkpointer.ts).
  * Usage: tsx --conditions=react-server bench/bare-server.ts <db> <statements.json> <port>
  */
 import { readFileSync } from "node:fs";
 import http from "node:http";
 import Database from "better-sqlite3";
-import { startCheckpointer } from "../src/server/checkpointer";
+import { startCheckpointer } from "../src/server/platform/checkpointer";
 
 const [dbFile, statementsFile, port] = process.argv.slice(2) as [string, string, string];
 const captured = JSON.parse(readFileSync(statementsFile, "utf8")) as { read: string[]; write: string[] };

@@ -22,7 +22,7 @@ import type { DbOrTx } from "@/db/client";
 import { gtinCheckDigit } from "@/domain/gtin";
 import type { EventInput } from "@/lib/validation/events";
 import type { Translate } from "@/lib/validation/field-errors";
-import type { SessionUser } from "@/server/session";
+import type { SessionUser } from "@/server/accounts/session";
 
 export type Range = readonly [number, number];
 export type Shape = {
@@ -96,8 +96,8 @@ const CLASSES = [
 const MAX_DELTA_ROWS = 6000;
 
 type Api = {
-  applyEvent: typeof import("@/server/events").applyEvent;
-  registerHarvestInTx: typeof import("@/server/harvests").registerHarvestInTx;
+  applyEvent: typeof import("@/server/ledger/events").applyEvent;
+  registerHarvestInTx: typeof import("@/server/ledger/harvests").registerHarvestInTx;
 };
 type Recorded = { id: number; outputs: { code: string; kind: string; quantity: number }[] };
 type Input = Partial<EventInput> & { step: EventInput["step"] };
@@ -149,12 +149,12 @@ export async function generateLedger(file: string, opts: { seasons: number; shap
   const log = opts.log ?? (() => {});
   for (const suffix of ["", "-wal", "-shm"]) rmSync(file + suffix, { force: true });
   process.env.GRAINLINE_DB = file;
-  const { getDb, getSqlite } = await import("@/server/db");
+  const { getDb, getSqlite } = await import("@/server/platform/db");
   if (path.resolve(getSqlite().name) !== path.resolve(file)) throw new Error(`getDb() is bound to ${getSqlite().name}, not ${file}`);
   const { migrateDatabase } = await import("@/db/client");
   const { fields, parties, users } = await import("@/db/schema");
-  const { applyEvent } = await import("@/server/events");
-  const { registerHarvestInTx } = await import("@/server/harvests");
+  const { applyEvent } = await import("@/server/ledger/events");
+  const { registerHarvestInTx } = await import("@/server/ledger/harvests");
   const { translator } = await import("@/i18n/messages");
   const en = translator("en");
   const t: Translate = (key, values) => en(key as never, values as never);

@@ -53,8 +53,8 @@ async function captureStatements() {
   const sqlite = new Database(baseFile, { verbose: (s) => log.push(String(s)) });
   for (const p of ["journal_mode = WAL", "busy_timeout = 5000", "foreign_keys = ON", "synchronous = NORMAL"]) sqlite.pragma(p);
   (globalThis as { grainlineDb?: unknown }).grainlineDb = { sqlite }; // the app's modules use this connection
-  const { lucia } = await import("../src/server/auth");
-  const { openSession } = await import("../src/server/session-token");
+  const { lucia } = await import("../src/server/accounts/auth");
+  const { openSession } = await import("../src/server/accounts/session-token");
   const { token, session } = await openSession("user-brewer");
   const cookie = `${lucia().sessionCookieName}=${token}`;
   const lotRoute = await import("../app/api/lots/[code]/route");

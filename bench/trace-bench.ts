@@ -1,7 +1,7 @@
 /**
  * Trace latency on a generated ledger (`npm run bench -- --seasons 10 --runs 200 [--path-runs 50]`).
  * Ways to answer the same question, on the same randomly drawn lots:
- *   (a) the API's functions, traceBackward / traceForward (src/server/trace.ts);
+ *   (a) the API's functions, traceBackward / traceForward (src/server/trace/trace.ts);
  *   (b) a loop of one query per hop in JavaScript, each lot's parents (or children) read once;
  *   (b′) the same loop walking path by path, one query per step of every path;
  *   (c) one bare WITH RECURSIVE over lineage_edges, path by path, as in tests/integration/trace.test.ts;
@@ -9,7 +9,7 @@
  * Times are wall-clock (performance.now) around the call, in one process, on a warm page cache.
  */
 import os from "node:os";
-import type { SessionUser } from "@/server/session";
+import type { SessionUser } from "@/server/accounts/session";
 import { argValue, ensureLedger, printCounts, seededRandom } from "./generate-ledger";
 
 type Shares = Map<number, number>;
@@ -213,8 +213,8 @@ async function main() {
   const pathRuns = Math.min(runs, argValue("path-runs", runs));
   const { counts } = await ensureLedger(seasons);
   printCounts(counts);
-  const { getSqlite } = await import("@/server/db");
-  const { traceBackward, traceForward } = await import("@/server/trace");
+  const { getSqlite } = await import("@/server/platform/db");
+  const { traceBackward, traceForward } = await import("@/server/trace/trace");
   const sqlite = getSqlite();
   const actor: SessionUser = { id: "bench-office", role: "admin", partyId: "bench-brewery", email: "office@bench.example", name: "Bench Office" };
   const idOf = (code: string) => (sqlite.prepare("select id from lots where code = ?").get(code) as { id: number }).id;

@@ -6,7 +6,7 @@ import { BrandMark } from "@/components/brand-mark";
 import { FloorNav } from "@/components/floor/floor-nav";
 import { QueuePanel } from "@/components/floor/queue-panel";
 import { UserBar } from "@/components/user-bar";
-import { currentUser } from "@/server/session";
+import { currentUser } from "@/server/accounts/session";
 import { setLanguageAction } from "../(auth)/language/actions";
 import { signOutAction } from "../(auth)/sign-out/actions";
 

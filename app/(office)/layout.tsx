@@ -6,7 +6,7 @@ import { BrandMark } from "@/components/brand-mark";
 import { navFor } from "@/components/nav-items";
 import { SearchBox } from "@/components/search-box";
 import { UserBar } from "@/components/user-bar";
-import { currentUser } from "@/server/session";
+import { currentUser } from "@/server/accounts/session";
 import { setLanguageAction } from "../(auth)/language/actions";
 import { signOutAction } from "../(auth)/sign-out/actions";
 

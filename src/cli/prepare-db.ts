@@ -1,6 +1,6 @@
 /** Migrates GRAINLINE_DB and seeds the demo scenario if it is empty (what `npm start` does first). */
 import { migrateDatabase, openDatabase } from "../db/client";
-import { seedDemo } from "../server/seed";
+import { seedDemo } from "../server/records/seed";
 
 export async function prepareDatabase(file: string, seed: boolean): Promise<boolean> {
   const { db, sqlite } = openDatabase(file);

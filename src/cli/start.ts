@@ -4,7 +4,7 @@
  * floor's busiest API calls).
  */
 import { spawn } from "node:child_process";
-import { DEMO_PASSWORD, DEMO_USERS } from "../server/seed";
+import { DEMO_PASSWORD, DEMO_USERS } from "../server/records/seed";
 import { prepareDatabase } from "./prepare-db";
 import { buildIfNeeded, SERVE_ARGS } from "./serve-command";
 

@@ -5,7 +5,7 @@ import { useRouter } from "next/navigation";
 import { useFormatter, useTranslations } from "next-intl";
 import { ACCEPT_ATTRIBUTE, MAX_ATTACHMENT_BYTES, MAX_TITLE_LENGTH, readableSize } from "@/domain/file-kinds";
 import type { FormState } from "@/lib/form-state";
-import type { AttachmentItem } from "@/server/attachments";
+import type { AttachmentItem } from "@/server/records/attachments";
 import { FormMessage } from "./ui/form-message";
 
 export type { AttachmentItem };

@@ -4,7 +4,7 @@ import { useFormatter, useTranslations } from "next-intl";
 import type { ColumnDef } from "@tanstack/react-table";
 import { DataTable } from "./data-table";
 
-/** A line of the audit record, already worded from the catalogue on the server (src/server/audit-record.ts). */
+/** A line of the audit record, already worded from the catalogue on the server (src/server/records/audit-record.ts). */
 export type AuditRow = { id: string; at: Date; userName: string; summary: string };
 
 export function AuditTable({ rows, pageSize }: { rows: AuditRow[]; pageSize?: number }) {

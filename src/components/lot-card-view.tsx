@@ -1,6 +1,6 @@
 import { getFormatter, getTranslations } from "next-intl/server";
 import { getQuantity } from "@/lib/get-quantity";
-import type { ApiLot } from "@/server/lots";
+import type { ApiLot } from "@/server/ledger/lots";
 
 export async function LotCardView({ lot, dark }: { lot: ApiLot; dark?: boolean }) {
   const t = await getTranslations("lot");

@@ -3,7 +3,7 @@
 import Link from "next/link";
 import { useFormatter, useTranslations } from "next-intl";
 import type { ColumnDef } from "@tanstack/react-table";
-import type { ApiLot } from "@/server/lots";
+import type { ApiLot } from "@/server/ledger/lots";
 import { DataTable } from "./data-table";
 
 /** A short list of lots (a queue, a selection), sorted and filtered in the browser. */

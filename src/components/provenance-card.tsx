@@ -1,6 +1,6 @@
 import { getFormatter, getLocale, getTranslations } from "next-intl/server";
 import { originStatementIn } from "@/domain/origin";
-import type { Provenance } from "@/server/provenance";
+import type { Provenance } from "@/server/trace/provenance";
 
 type Show = Partial<Record<"varieties" | "origin" | "growers" | "polishingRatio" | "categories" | "dates" | "koji", boolean>>;
 

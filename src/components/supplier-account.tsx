@@ -3,7 +3,7 @@
 import { useFormatter, useTranslations } from "next-intl";
 import type { ColumnDef } from "@tanstack/react-table";
 import { AGEING_BUCKETS, type Ageing } from "@/domain/ageing";
-import type { AccountRow } from "@/server/supplier-describe";
+import type { AccountRow } from "@/server/suppliers/supplier-describe";
 import { CsvDownloadLinks } from "./csv-download-links";
 import { DataTable } from "./data-table";
 

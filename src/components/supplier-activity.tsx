@@ -3,7 +3,7 @@
 import Link from "next/link";
 import { useFormatter, useTranslations } from "next-intl";
 import type { ColumnDef } from "@tanstack/react-table";
-import type { Delivery, Receipt, Run } from "@/server/supplier-portal";
+import type { Delivery, Receipt, Run } from "@/server/suppliers/supplier-portal";
 import { DataTable } from "./data-table";
 import { useYen } from "./supplier-account";
 

@@ -1,6 +1,6 @@
 import { getTranslations } from "next-intl/server";
 import type { FormState } from "@/lib/form-state";
-import type { SessionUser } from "@/server/session";
+import type { SessionUser } from "@/server/accounts/session";
 import { LanguageSwitch } from "./language-switch";
 
 type Props = {

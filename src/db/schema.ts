@@ -43,14 +43,14 @@ export const users = sqliteTable(
 );
 
 export const sessions = sqliteTable("sessions", {
-  // SHA-256 (hex) of the token in the cookie; the token itself is never stored (src/server/session-token.ts).
+  // SHA-256 (hex) of the token in the cookie; the token itself is never stored (src/server/accounts/session-token.ts).
   id: text("id").primaryKey(),
   userId: text("user_id")
     .notNull()
     .references(() => users.id),
   // Unix seconds: the lucia Drizzle adapter stores it this way.
   expiresAt: integer("expires_at").notNull(),
-  // Unix seconds; a session ends a fixed time after this however active it is (src/server/auth.ts).
+  // Unix seconds; a session ends a fixed time after this however active it is (src/server/accounts/auth.ts).
   signedInAt: integer("signed_in_at").notNull(),
 });
 
@@ -75,7 +75,7 @@ export const signInThrottle = sqliteTable("sign_in_throttle", {
   key: text("key").primaryKey(),
   failures: integer("failures").notNull(),
   windowStartedAt: integer("window_started_at", { mode: "timestamp_ms" }).notNull(),
-  // No attempt is taken on this key before this time (src/server/throttle.ts).
+  // No attempt is taken on this key before this time (src/server/accounts/throttle.ts).
   blockedUntil: integer("blocked_until", { mode: "timestamp_ms" }),
 });
 

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { canCorrect, correctionRefusal, isOfficeOf } from "./corrections";
 import type { Actor } from "./permissions";
 
-// The demo parties of src/server/seed.ts, with one user each.
+// The demo parties of src/server/records/seed.ts, with one user each.
 const grower: Actor = { id: "u-grower", role: "grower", partyId: "grower-ikeda" };
 const otherGrower: Actor = { id: "u-grower2", role: "grower", partyId: "grower-nakase" };
 const miller: Actor = { id: "u-miller", role: "miller", partyId: "mill-shirotae" };

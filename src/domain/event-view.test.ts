@@ -6,7 +6,7 @@ const coop: LotOwnership = { partyId: "mill", originPartyId: "coop" };
 const mill: LotOwnership = { partyId: "mill", originPartyId: "mill" };
 const asIkeda = (lot: LotOwnership) => lot.partyId === "ikeda" || lot.originPartyId === "ikeda";
 
-/** A co-polished run as the polishing step records it (src/server/polishing-runs.ts). */
+/** A co-polished run as the polishing step records it (src/server/ledger/polishing-runs.ts). */
 const run: RecordedDetails = {
   inputs: [
     { lot: "H26-0001", quantity: 1800, unit: "kg", use: "draw", owner: ikeda },

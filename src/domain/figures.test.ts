@@ -8,16 +8,16 @@ const root = path.resolve(import.meta.dirname, "../..");
 const source = (file: string) => readFileSync(path.join(root, file), "utf8");
 
 /** Measurement names as the writers send them: ms("x", …), m("x", …), { name: "x", value … }, ["x", f.…]. */
-const MEASUREMENT_WRITERS = ["app/(floor)/floor/[action]/components.tsx", "app/(office)/mill/components.tsx", "src/components/floor/record-moisture.tsx", "src/server/seed-brewing.ts"];
+const MEASUREMENT_WRITERS = ["app/(floor)/floor/[action]/components.tsx", "app/(office)/mill/components.tsx", "src/components/floor/record-moisture.tsx", "src/server/records/seed-brewing.ts"];
 const MEASUREMENT_PATTERNS = [/\bms\("(\w+)"/g, /\bm\("(\w+)",/g, /name: "(\w+)", value/g, /\["(\w+)", f\./g];
 
 /** Attribute objects the server writes on events: where each file opens one ("result.attributes = {"). */
 const ATTRIBUTE_WRITERS: [string, RegExp][] = [
-  ["src/server/floor-steps.ts", /result\.attributes = \{/g],
-  ["src/server/polishing-runs.ts", /\battributes: \{/g],
-  ["src/server/bottling-product.ts", /\battributes: \{/g],
-  ["src/server/receipts.ts", /attributes: JSON\.stringify\(\{/g],
-  ["src/server/harvests.ts", /attributes: JSON\.stringify\(\{/g],
+  ["src/server/floor/floor-steps.ts", /result\.attributes = \{/g],
+  ["src/server/ledger/polishing-runs.ts", /\battributes: \{/g],
+  ["src/server/ledger/bottling-product.ts", /\battributes: \{/g],
+  ["src/server/ledger/receipts.ts", /attributes: JSON\.stringify\(\{/g],
+  ["src/server/ledger/harvests.ts", /attributes: JSON\.stringify\(\{/g],
 ];
 /** Ids and nested structures: shown by their own panels (band charts, portions, koji checks), never as one figure. */
 const NOT_FIGURES = new Set(["dispatch", "productId", "band", "bandCheck", "portions", "kojiChecks"]);

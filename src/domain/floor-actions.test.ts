@@ -52,7 +52,7 @@ describe("what the floor card offers (custody rules of DEVELOPERS.md)", () => {
     expect(floorOffer(admin, travelling)).toEqual({ state: "in-transit", to: "Brewery" });
   });
 
-  it("a lot on hold offers only readings (the server refuses draws from it: src/server/holds.ts)", () => {
+  it("a lot on hold offers only readings (the server refuses draws from it: src/server/trace/holds.ts)", () => {
     const tank = { ...lot("brewery"), kind: "tank", hold: { reason: "Residue finding on H26-0003" } };
     expect(floorOffer(brewer, tank)).toEqual({ state: "actions", actions: ["measure"] });
     expect(floorOffer(brewer, { ...tank, hold: undefined })).toEqual({ state: "actions", actions: ["add", "measure", "press"] });

@@ -64,7 +64,7 @@ export type FloorOffer = { state: "actions"; actions: FloorAction[] } | { state:
 /**
  * What this person may record on this lot: nothing is drawn from a lot on its way to another
  * party, only the holder (or the office) acts on a lot, and a role sees only the steps it may
- * record (the same rules the server enforces in src/server/events.ts).
+ * record (the same rules the server enforces in src/server/ledger/events.ts).
  */
 export function floorOffer(actor: Actor, lot: FloorLot): FloorOffer {
   if (lot.inTransitTo) return { state: "in-transit", to: lot.inTransitTo.name };

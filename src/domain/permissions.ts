@@ -110,7 +110,7 @@ export function canActOnLot(actor: Actor | null, lot: { partyId: string }): bool
 /**
  * Whether a lot exists as far as this user can tell: roles that read all records see every
  * lot, others the lots their party holds or made, or a dispatch addressed to it (the same
- * rule as `visibleTo` in src/server/lots.ts). A lot outside it answers as unknown, never as forbidden.
+ * rule as `visibleTo` in src/server/ledger/lots.ts). A lot outside it answers as unknown, never as forbidden.
  */
 export function canSeeLot(actor: Actor | null, lot: { partyId: string; originPartyId: string; inTransitTo?: string | null }): boolean {
   if (can(actor, "records:read-all")) return true;

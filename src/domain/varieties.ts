@@ -1,7 +1,7 @@
 /**
  * Rice varieties a harvest may name. Sake-rice (shuzo kotekimai) and table-rice names are
  * public registered variety names; which ones a brewery lists is common practice, not a
- * published list, so the office keeps its own copy in settings (src/server/variety-list.ts).
+ * published list, so the office keeps its own copy in settings (src/server/floor/variety-list.ts).
  */
 export const VARIETY_KINDS = ["sake", "table"] as const;
 export type VarietyKind = (typeof VARIETY_KINDS)[number];

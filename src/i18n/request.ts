@@ -1,7 +1,7 @@
 import { getRequestConfig } from "next-intl/server";
 import { cookies, headers } from "next/headers";
-import { currentUser } from "@/server/session";
-import { breweryTimeZone } from "@/server/settings";
+import { currentUser } from "@/server/accounts/session";
+import { breweryTimeZone } from "@/server/platform/settings";
 import { DATE_FORMATS } from "./dates";
 import { LOCALE_COOKIE, pickLocale } from "./locale";
 import { loadMessages } from "./messages";

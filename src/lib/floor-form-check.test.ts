@@ -34,7 +34,7 @@ describe("a floor form's fields and the event they build", () => {
 
   it("puts the server's errors beside the field typed; what no single field owns goes above the form", () => {
     const owners = fieldPaths(starter, {}, starterFields);
-    // The server's 409 on an over-draw names inputs.{n}.quantity (src/server/events.ts).
+    // The server's 409 on an over-draw names inputs.{n}.quantity (src/server/ledger/events.ts).
     expect(errorsByField({ "inputs.0.quantity": ["Only 12 kg on hand."], "outputs.0.quantity": ["too much"], inputs: ["needs 2"] }, owners)).toEqual({
       kojiKg: ["Only 12 kg on hand."],
       _: ["too much", "needs 2"],

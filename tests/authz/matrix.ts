@@ -7,7 +7,7 @@ import type { Role } from "@/domain/roles";
 export const WHO = ["anonymous", "admin", "brewer", "grower", "miller", "sales", "auditor"] as const;
 export type Who = (typeof WHO)[number];
 
-/** The demo user of each role (src/server/seed.ts): grower is Ikeda Farm, miller is Shirotae Polishing Works. */
+/** The demo user of each role (src/server/records/seed.ts): grower is Ikeda Farm, miller is Shirotae Polishing Works. */
 export const DEMO_EMAIL: Record<Role, string> = {
   admin: "admin@example.com",
   brewer: "brewer@example.com",
@@ -32,7 +32,7 @@ function o(...cells: [Outcome, Outcome, Outcome, Outcome, Outcome, Outcome, Outc
   return Object.fromEntries(WHO.map((who, i) => [who, cells[i]])) as Row;
 }
 
-// Seeded lots the probes name (src/server/seed-season.ts, seed-brewing.ts):
+// Seeded lots the probes name (src/server/records/seed-season.ts, seed-brewing.ts):
 /** Polished rice held by the brewery, made by the mill: visible to the roles that read all records and to the mill. */
 const POLISHED = "P26-0001";
 /** A harvest of Ikeda Farm (the demo grower), now held by the mill: visible to every signed-in role. */

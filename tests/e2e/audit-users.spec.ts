@@ -112,7 +112,7 @@ test("the audit record reads as sentences: events, money, statements and user ch
   }
   await filter.fill("");
   const text = await table.innerText();
-  // No raw JSON, no catalogue keys, no ids of users or parties (src/server/seed.ts names them so).
+  // No raw JSON, no catalogue keys, no ids of users or parties (src/server/records/seed.ts names them so).
   expect(text).not.toMatch(/[{}"]|\baudit\.|\buser-(admin|grower|sales)|\bgrower-ikeda\b|\bmill-shirotae\b/);
 });
 

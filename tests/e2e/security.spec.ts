@@ -60,7 +60,7 @@ test("200 concurrent draws from one lot: accepted draws never exceed what it had
 });
 
 // RFC 3986 §2.1: a percent-escape is "%" and two hexadecimal digits. Next's router answered
-// these with a bare 500; the production server's front door (src/server/front-door.ts) says 400.
+// these with a bare 500; the production server's front door (src/server/platform/front-door.ts) says 400.
 test("a path with a broken percent-escape gets 400 with the security headers", async ({ request }) => {
   for (const path of ["/lots/%E0%A4%A", "/api/lots/%zz", "/01/%/10/x"]) {
     const res = await request.get(path);

@@ -8,7 +8,7 @@ import { POST as postEvent } from "../../app/api/events/route";
 import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as listRoute, POST as uploadRoute } from "../../app/api/lots/[code]/attachments/route";
 import { GET as getLotEvents } from "../../app/api/lots/[code]/events/route";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { call, jsonRequest, ORIGIN, signInAs, tableDigests } from "../support/api";
 
 const MiB = 1024 * 1024;

@@ -5,13 +5,13 @@ import path from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
 import { EVENT_STEPS } from "@/db/schema";
 import { loadMessages, translator } from "@/i18n/messages";
-import { actionSummaryKey } from "@/server/audit-log-items";
-import { auditRecord, renderAudit, sourceSummaryKeys, type AuditTranslate } from "@/server/audit-record";
-import { recordAudit } from "@/server/audit";
-import { getDb } from "@/server/db";
-import { changeUserRole, deactivateUser } from "@/server/user-admin";
-import { DEMO_USERS } from "@/server/seed";
-import type { SessionUser } from "@/server/session";
+import { actionSummaryKey } from "@/server/records/audit-log-items";
+import { auditRecord, renderAudit, sourceSummaryKeys, type AuditTranslate } from "@/server/records/audit-record";
+import { recordAudit } from "@/server/records/audit";
+import { getDb } from "@/server/platform/db";
+import { changeUserRole, deactivateUser } from "@/server/accounts/user-admin";
+import { DEMO_USERS } from "@/server/records/seed";
+import type { SessionUser } from "@/server/accounts/session";
 
 const actor = (id: string) => DEMO_USERS.find((u) => u.id === id)! as SessionUser;
 const ROOT = path.resolve(import.meta.dirname, "../..");
@@ -28,7 +28,7 @@ function sourceFiles(dir: string): string[] {
 
 /** Every action the code can hand to recordAudit: the AuditAction union and each call's literal. */
 function writtenActions(): string[] {
-  const union = readFileSync(path.join(ROOT, "src/server/audit.ts"), "utf8").match(/export type AuditAction =([^;]+);/)![1]!;
+  const union = readFileSync(path.join(ROOT, "src/server/records/audit.ts"), "utf8").match(/export type AuditAction =([^;]+);/)![1]!;
   const found = new Set([...union.matchAll(/"([^"]+)"/g)].map((m) => m[1]!));
   for (const file of [...sourceFiles(path.join(ROOT, "src")), ...sourceFiles(path.join(ROOT, "app"))]) {
     for (const call of readFileSync(file, "utf8").matchAll(/recordAudit\([^;]*?action:\s*"([^"]+)"/gs)) found.add(call[1]!);

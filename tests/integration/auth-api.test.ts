@@ -3,7 +3,7 @@ import { POST as signInRoute } from "../../app/api/auth/sign-in/route";
 import { POST as signOutRoute } from "../../app/api/auth/sign-out/route";
 import { GET as meRoute } from "../../app/api/me/route";
 import { GET as listUsersRoute, POST as inviteRoute } from "../../app/api/users/route";
-import { PEER_HEADER } from "@/server/client-address";
+import { PEER_HEADER } from "@/server/platform/client-address";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 
 describe("GET /api/me", () => {

@@ -38,7 +38,7 @@ const fill = (text: string) => text.replace(BOTTLED, bottled).replace(ATTACHMENT
 
 beforeAll(async () => {
   for (const role of ROLES) cookies[role] = await signInAs(DEMO_EMAIL[role]);
-  const { getSqlite } = await import("@/server/db");
+  const { getSqlite } = await import("@/server/platform/db");
   bottled = (getSqlite().prepare("select code from lots where kind = 'bottled' order by id limit 1").get() as { code: string }).code;
   // One attachment to fetch: an 8×8 PNG of random pixels written by pngjs, filed by the brewery on P26-0001.
   const png = new PNG({ width: 8, height: 8 });
@@ -203,8 +203,8 @@ describe("server actions, for every role and anonymous", () => {
 // Helpers some pages gate with, checked against the permissions the table says they stand for.
 async function helperAllows(call: string, role: Role): Promise<boolean | undefined> {
   const user = { id: `probe-${role}`, role, partyId: "probe", email: "", name: "" };
-  if (call === "importKindsFor(user)") return (await import("@/server/csv-import")).importKindsFor(user).length > 0;
-  if (call === "canReadRecall(user)") return (await import("@/server/recall")).canReadRecall(user);
+  if (call === "importKindsFor(user)") return (await import("@/server/records/csv-import")).importKindsFor(user).length > 0;
+  if (call === "canReadRecall(user)") return (await import("@/server/trace/recall")).canReadRecall(user);
   return undefined;
 }
 

@@ -5,7 +5,7 @@ import Database from "better-sqlite3";
 import { describe, expect, it } from "vitest";
 import { POST as postEvent } from "../../app/api/events/route";
 import { backupDatabase } from "@/db/backup";
-import { databaseFile, getSqlite } from "@/server/db";
+import { databaseFile, getSqlite } from "@/server/platform/db";
 import { call, jsonRequest, signInAs } from "../support/api";
 
 function everyTable(db: Database.Database) {

@@ -6,8 +6,8 @@ import { existsSync, readdirSync, rmSync } from "node:fs";
 import path from "node:path";
 import fc from "fast-check";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { PEER_HEADER } from "@/server/client-address";
-import { STATUS_FOR_CODE, type ErrorCode } from "@/server/errors";
+import { PEER_HEADER } from "@/server/platform/client-address";
+import { STATUS_FOR_CODE, type ErrorCode } from "@/server/platform/errors";
 import { POST as signInRoute } from "../../app/api/auth/sign-in/route";
 import { POST as signOutRoute } from "../../app/api/auth/sign-out/route";
 import { POST as eventsRoute } from "../../app/api/events/route";
@@ -123,11 +123,11 @@ async function attemptOnce(e: Endpoint, t: Try) {
 }
 
 const hasProblems = (body: { problems?: unknown[] }) => Array.isArray(body.problems) && body.problems.length > 0;
-/** Failed sign-ins count against the address and the client (src/server/throttle.ts); only for sign-in may that table change. */
+/** Failed sign-ins count against the address and the client (src/server/accounts/throttle.ts); only for sign-in may that table change. */
 const DOCUMENTATION_IPS = fc.integer({ min: 1, max: 254 }).map((n) => ({ [PEER_HEADER]: `203.0.113.${n}` })); // RFC 5737 TEST-NET-3
 
 
-// The production server answers POST /api/events on its fast path (src/server/fast-path.ts):
+// The production server answers POST /api/events on its fast path (src/server/platform/fast-path.ts):
 // the same bad bodies go through it too, over a real socket.
 let fastPath: Awaited<ReturnType<typeof startFastPathServer>> | undefined;
 beforeAll(async () => {
@@ -214,7 +214,7 @@ describe("the uncorrupted bodies are accepted", () => {
 // Bugs this fuzzing found, fixed since; kept as regression tests.
 describe("bugs found by the fuzzing", () => {
   // lucia's cookie parser runs decodeURIComponent on every cookie of the header, and
-  // sessionFromRequest (src/server/session.ts) let its URIError through: a 500 for any request
+  // sessionFromRequest (src/server/accounts/session.ts) let its URIError through: a 500 for any request
   // whose Cookie header held a "%" that is not an escape — even another cookie of the site's.
   // The session is now read with the `cookie` package, which leaves such a value as it came.
   it("a malformed percent escape in the Cookie header is not a 5xx, and another cookie's does not cost the session", async () => {
@@ -229,7 +229,7 @@ describe("bugs found by the fuzzing", () => {
     }
   });
 
-  // checkFloorStep (src/server/floor-steps.ts) computes water absorption and steaming gain from
+  // checkFloorStep (src/server/floor/floor-steps.ts) computes water absorption and steaming gain from
   // the dry weight drawn before events.ts refuses a draw of 0 kg; waterAbsorptionPct and
   // steamedGainPct (src/domain/brewing.ts) throw a RangeError on it, which becomes a 500.
   it("a soak or steaming that draws 0 kg is refused with 422, not a 5xx", async () => {

@@ -1,7 +1,7 @@
 import { mkdirSync, rmSync } from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { generateLedger, TINY, type LedgerCounts } from "../../bench/generate-ledger";
 
 // The benchmark's synthetic ledger, generated small. The invariants are those of the mixing

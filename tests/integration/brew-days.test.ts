@@ -1,10 +1,10 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { POST as postEvent } from "../../app/api/events/route";
-import { DEMO_USERS } from "@/server/seed";
-import { brewDayRange, brewDaySummary, listBrewDays, neighbourBrewDays } from "@/server/brew-days";
-import { getDb, getSqlite } from "@/server/db";
-import type { SessionUser } from "@/server/session";
-import { writeSetting } from "@/server/settings";
+import { DEMO_USERS } from "@/server/records/seed";
+import { brewDayRange, brewDaySummary, listBrewDays, neighbourBrewDays } from "@/server/floor/brew-days";
+import { getDb, getSqlite } from "@/server/platform/db";
+import type { SessionUser } from "@/server/accounts/session";
+import { writeSetting } from "@/server/platform/settings";
 import { call, jsonRequest, signInAs } from "../support/api";
 
 // Absorption and steaming gain on the dry basis: Nada brewers' research association glossary,

@@ -4,7 +4,7 @@ import path from "node:path";
 import type Database from "better-sqlite3";
 import { afterEach, describe, expect, it } from "vitest";
 import { openDatabase } from "@/db/client";
-import { startCheckpointer, WAL_BOUND_PAGES, type Checkpointer } from "@/server/checkpointer";
+import { startCheckpointer, WAL_BOUND_PAGES, type Checkpointer } from "@/server/platform/checkpointer";
 
 // SQLite's write-ahead log (https://www.sqlite.org/wal.html): a commit appends pages to the
 // -wal file; a checkpoint copies them into the database file; once a checkpoint has caught up,

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { GET as claimsRoute } from "../../app/api/claims/[code]/route";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { call, jsonRequest, signInAs } from "../support/api";
 
 // The seeded 2024–25 season: Tank 1 of 50 % rice by the ginjo method, Tank 2 of 60 % rice by

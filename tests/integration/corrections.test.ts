@@ -5,7 +5,7 @@ import { POST as postEvent } from "../../app/api/events/route";
 import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as getLotEvents } from "../../app/api/lots/[code]/events/route";
 import { GET as getLedger } from "../../app/api/suppliers/[partyId]/ledger/route";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 import { submit } from "../support/action-scope";
 

@@ -5,7 +5,7 @@ import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as transactionsRoute } from "../../app/api/records/transactions.csv/route";
 import { GET as statementRoute } from "../../app/api/suppliers/[partyId]/statements/[number]/statement.csv/route";
 import { GET as recallRoute } from "../../app/api/trace/[code]/recall.csv/route";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 
 type Handler = typeof transactionsRoute;

@@ -4,7 +4,7 @@ import Ajv, { type ValidateFunction } from "ajv";
 import addFormats from "ajv-formats";
 import { beforeAll, describe, expect, it } from "vitest";
 import { GET as epcisRoute } from "../../app/api/trace/[code]/epcis/route";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { jsonRequest, signInAs } from "../support/api";
 
 // GS1's EPCIS 2.0 JSON schema and example 9.6.4, copied unchanged (fixtures/epcis/SOURCE.md),
@@ -44,7 +44,7 @@ describe("the validator set-up, proven on GS1's own example", () => {
   });
 });
 
-// The seeded 2024–25 season (src/server/seed-brewing.ts), from its first harvest lot.
+// The seeded 2024–25 season (src/server/records/seed-brewing.ts), from its first harvest lot.
 describe("EPCIS 2.0 export of a 2024 harvest lot's recall", () => {
   let document: EpcisDocument;
   let response: Response;

@@ -26,7 +26,7 @@ describe("event attributes", () => {
     const attributes = named(MAX_EVENT_ATTRIBUTES, (i) => `v${i}`);
     const res = await post(measuring(attributes));
     expect(res.status).toBe(201);
-    const { getSqlite } = await import("@/server/db");
+    const { getSqlite } = await import("@/server/platform/db");
     const stored = getSqlite().prepare("select attributes from events where id = ?").get(res.body.id) as { attributes: string };
     expect(JSON.parse(stored.attributes)).toMatchObject(attributes);
   });

@@ -1,12 +1,12 @@
 // Event details show only what the reader may see (issue 12, item 3): another party's lot in a
 // shared event is "another party's lot", with no code and no weight, and so are the event's
-// figures that carry its weight. Seeded 2024 season (src/server/seed-brewing.ts): Ikeda Farm's
+// figures that carry its weight. Seeded 2024 season (src/server/records/seed-brewing.ts): Ikeda Farm's
 // harvest polished together with the cooperative's, the polished rice soaked at the brewery.
 import { beforeAll, describe, expect, it } from "vitest";
 import { GET as getLotEvents } from "../../app/api/lots/[code]/events/route";
-import { getSqlite } from "@/server/db";
-import { neighbours } from "@/server/lineage";
-import { DEMO_USERS } from "@/server/seed";
+import { getSqlite } from "@/server/platform/db";
+import { neighbours } from "@/server/trace/lineage";
+import { DEMO_USERS } from "@/server/records/seed";
 import { call, jsonRequest, signInAs } from "../support/api";
 
 type Line = { lot: string | null; quantity: number | null; unit: string | null; otherParty?: boolean };

@@ -1,13 +1,13 @@
 // The production server answers GET /api/lots/{code} and POST /api/events ahead of Next's
-// router (src/server/fast-path.ts). These tests hold it to the route handlers Next calls: the
+// router (src/server/platform/fast-path.ts). These tests hold it to the route handlers Next calls: the
 // same status and body for the same request, the same headers, and everything it should not
 // take left to Next.
 import http from "node:http";
 import net from "node:net";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { getSqlite } from "@/server/db";
-import { FAST_PATH_MAX_BODY, readBody } from "@/server/fast-path";
-import { SECURITY_HEADERS } from "@/server/security-headers";
+import { getSqlite } from "@/server/platform/db";
+import { FAST_PATH_MAX_BODY, readBody } from "@/server/platform/fast-path";
+import { SECURITY_HEADERS } from "@/server/platform/security-headers";
 import { POST as eventsRoute } from "../../app/api/events/route";
 import { GET as lotRoute } from "../../app/api/lots/[code]/route";
 import { call, jsonRequest, ORIGIN, signInAs } from "../support/api";

@@ -6,7 +6,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { POST as postEvent } from "../../app/api/events/route";
 import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as getLotRoute } from "../../app/api/lots/[code]/route";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { call, jsonRequest, signInAs } from "../support/api";
 
 let brewer: string, grower: string;

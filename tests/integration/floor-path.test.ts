@@ -1,8 +1,8 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { POST as postEvent } from "../../app/api/events/route";
 import { GET as getLotRoute } from "../../app/api/lots/[code]/route";
-import { getSqlite } from "@/server/db";
-import { tankSummary } from "@/server/tanks";
+import { getSqlite } from "@/server/platform/db";
+import { tankSummary } from "@/server/floor/tanks";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 
 // One tank's whole path through the API, with figures worked by hand on the dry basis

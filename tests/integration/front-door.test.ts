@@ -1,4 +1,4 @@
-// The production server's request handler (src/server/front-door.ts, run by src/cli/serve.ts)
+// The production server's request handler (src/server/platform/front-door.ts, run by src/cli/serve.ts)
 // in front of the real fast path and a stand-in for Next that calls the real route handlers.
 // Sources: RFC 9110 §15.5.14 (413 Content Too Large: the server may close the connection) and
 // §15.5.1 (400 Bad Request); RFC 9112 §7.1 (chunked transfer coding); RFC 3986 §2.1 (a
@@ -8,11 +8,11 @@
 import { IncomingMessage } from "node:http";
 import { Socket } from "node:net";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { MAX_BODY_BYTES } from "@/server/body-limits";
-import { getSqlite } from "@/server/db";
-import { malformedPath } from "@/server/front-door";
-import { readCapped } from "@/server/request-body";
-import { SECURITY_HEADERS } from "@/server/security-headers";
+import { MAX_BODY_BYTES } from "@/server/platform/body-limits";
+import { getSqlite } from "@/server/platform/db";
+import { malformedPath } from "@/server/platform/front-door";
+import { readCapped } from "@/server/platform/request-body";
+import { SECURITY_HEADERS } from "@/server/platform/security-headers";
 import { POST as eventsRoute } from "../../app/api/events/route";
 import { POST as fieldsRoute } from "../../app/api/fields/route";
 import { POST as uploadRoute } from "../../app/api/lots/[code]/attachments/route";

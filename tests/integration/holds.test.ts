@@ -6,7 +6,7 @@
 import { beforeAll, describe, expect, it, vi } from "vitest";
 import { translator } from "@/i18n/messages";
 import type { FormState } from "@/lib/form-state";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { POST as postEvent } from "../../app/api/events/route";
 import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as getLotRoute } from "../../app/api/lots/[code]/route";
@@ -27,7 +27,7 @@ const event = (cookie: string, body: unknown) => call(postEvent, jsonRequest("/a
 const state = (answer: Awaited<ReturnType<typeof submit>>): FormState => ("state" in answer ? answer.state : { message: `redirect to ${answer.redirect}` });
 const heldCodes = () => new Set(all("select l.code from lots l where (select action from lot_holds h where h.lot_id = l.id order by h.id desc limit 1) = 'hold'").map((r) => r.code as string));
 
-// The seeded 2024 season (src/server/seed-brewing.ts): the first harvest reaches Tank 1, its sake
+// The seeded 2024 season (src/server/records/seed-brewing.ts): the first harvest reaches Tank 1, its sake
 // (1020 L, 720 L of it bottled) and the two bottlings, 200 bottles of which went to Minato.
 let harvest2024: string, sake: string, bottles800: string;
 beforeAll(async () => {

@@ -1,5 +1,5 @@
 // A CSV import preview must not hold the server: it checks its rows a chunk at a time and
-// gives the event loop back between chunks (src/server/csv-import.ts), and each user runs one
+// gives the event loop back between chunks (src/server/records/csv-import.ts), and each user runs one
 // preview at a time and 10,000 rows a minute (app/api/import/preview/route.ts; 429 as RFC 6585 §4).
 // The 200 ms bound is the project's own (issue 12); the chunk size is measured, not sourced.
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";

@@ -2,8 +2,8 @@ import { desc } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { POST as inviteRoute } from "../../app/api/users/route";
 import { outbox, passwordTokens } from "@/db/schema";
-import { getDb } from "@/server/db";
-import { setPasswordWithToken } from "@/server/users";
+import { getDb } from "@/server/platform/db";
+import { setPasswordWithToken } from "@/server/accounts/users";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 
 const t = (key: string) => key;

@@ -5,9 +5,9 @@ import { GET as getStatementPdf } from "../../app/api/suppliers/[partyId]/statem
 import { POST as postStatement } from "../../app/api/suppliers/[partyId]/statements/route";
 import { taxByRate } from "@/domain/tax";
 import { translator } from "@/i18n/messages";
-import { getSqlite } from "@/server/db";
-import { provenanceFor } from "@/server/provenance";
-import { provenanceSheetPdf } from "@/server/provenance-sheet";
+import { getSqlite } from "@/server/platform/db";
+import { provenanceFor } from "@/server/trace/provenance";
+import { provenanceSheetPdf } from "@/server/trace/provenance-sheet";
 import { call, jsonRequest, signInAs } from "../support/api";
 import { readPdfText } from "../support/pdf-read";
 

@@ -10,15 +10,15 @@ import { POST as uploadRoute } from "../../app/api/lots/[code]/attachments/route
 import { translator } from "@/i18n/messages";
 import { deliveryPrice } from "@/domain/supplier-prices";
 import type { Translate } from "@/lib/validation/field-errors";
-import { getDb, getSqlite } from "@/server/db";
-import { DEMO_USERS } from "@/server/seed";
-import { addGrowerContract, currentGrowerContract } from "@/server/supplier-contracts";
+import { getDb, getSqlite } from "@/server/platform/db";
+import { DEMO_USERS } from "@/server/records/seed";
+import { addGrowerContract, currentGrowerContract } from "@/server/suppliers/supplier-contracts";
 import { call, jsonRequest, ORIGIN, signInAs } from "../support/api";
 
 // Rules of the NTA labelling standard for sake (清酒の製法品質表示基準, NTA Notification No. 8
 // of 1989 as amended) and the MAFF inspection standard for brown rice, as tabled in
 // ../shared/references.md. The seeded season: Tank 1 of 50 % rice by the ginjo method, no
-// alcohol; Tank 3 of 60 % rice, 600 kg, with 40 kg of 95 % alcohol (src/server/seed-brewing.ts).
+// alcohol; Tank 3 of 60 % rice, 600 kg, with 40 kg of 95 % alcohol (src/server/records/seed-brewing.ts).
 let admin: string, brewer: string, grower: string, sales: string;
 const blobs: string[] = [];
 

@@ -5,9 +5,9 @@ import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
 import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as getLabelPng } from "../../app/api/lots/[code]/label.png/route";
 import { POST as postEvent } from "../../app/api/events/route";
-import { buildLabelSheet, expandCopies, MIN_MODULE_MM, PAGE_SIZE, paginateLabels, parseCopies, pickErrorCorrection, printedRatioPct, QR_WIDTH_MM } from "@/server/labels";
-import { getSqlite } from "@/server/db";
-import type { SessionUser } from "@/server/session";
+import { buildLabelSheet, expandCopies, MIN_MODULE_MM, PAGE_SIZE, paginateLabels, parseCopies, pickErrorCorrection, printedRatioPct, QR_WIDTH_MM } from "@/server/floor/labels";
+import { getSqlite } from "@/server/platform/db";
+import type { SessionUser } from "@/server/accounts/session";
 import { call, jsonRequest, signInAs } from "../support/api";
 
 let grower: string, grower2: string, miller: string, brewer: string, code: string;

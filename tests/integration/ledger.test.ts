@@ -3,7 +3,7 @@ import { POST as postEvent } from "../../app/api/events/route";
 import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as getLotRoute } from "../../app/api/lots/[code]/route";
 import { GET as getLotEvents } from "../../app/api/lots/[code]/events/route";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 import { dispatchAndReceive } from "../support/receipts";
 

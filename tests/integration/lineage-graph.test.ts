@@ -1,14 +1,14 @@
 import { describe, expect, it } from "vitest";
 import { composition } from "@/domain/composition";
 import type { LineageGraph } from "@/domain/lineage-layout";
-import { getSqlite } from "@/server/db";
-import { AppError } from "@/server/errors";
-import { lineageGraph } from "@/server/lineage-graph";
-import { DEMO_USERS } from "@/server/seed";
-import type { SessionUser } from "@/server/session";
-import { traceBackward } from "@/server/trace";
+import { getSqlite } from "@/server/platform/db";
+import { AppError } from "@/server/platform/errors";
+import { lineageGraph } from "@/server/trace/lineage-graph";
+import { DEMO_USERS } from "@/server/records/seed";
+import type { SessionUser } from "@/server/accounts/session";
+import { traceBackward } from "@/server/trace/trace";
 
-// Figures from the seeded 2024–25 season (src/server/seed-brewing.ts): P24 run one polished
+// Figures from the seeded 2024–25 season (src/server/records/seed-brewing.ts): P24 run one polished
 // 1500 kg of the Terrace Paddy harvest and 500 kg of the North Basin harvest; Tank 1 took
 // 600 kg of that rice, a fifth of it as koji; 800 bottles of 720 mL came from its sake.
 // Shares follow the mixing rule of ../shared/product.md ("The model").

@@ -1,13 +1,13 @@
-// Statements prepared once per connection (src/server/prepared.ts) must stay on the connection
+// Statements prepared once per connection (src/server/platform/prepared.ts) must stay on the connection
 // they were made for: the seed and the backup restore hand their own connection to the same
 // ledger code that serves requests on the app's.
 import { eq, sql } from "drizzle-orm";
 import { afterAll, describe, expect, it } from "vitest";
 import { migrateDatabase, openDatabase } from "@/db/client";
 import { lots } from "@/db/schema";
-import { lotByCode } from "@/server/events";
-import { getDb, getSqlite } from "@/server/db";
-import { connectionOf, prepared } from "@/server/prepared";
+import { lotByCode } from "@/server/ledger/events";
+import { getDb, getSqlite } from "@/server/platform/db";
+import { connectionOf, prepared } from "@/server/platform/prepared";
 
 const other = openDatabase(":memory:");
 migrateDatabase(other.db);

@@ -2,9 +2,9 @@
 // against the claims of the sake bottled (NTA labelling standard for sake, ../shared/references.md).
 import { describe, expect, it } from "vitest";
 import { gtinCheckDigit } from "@/domain/gtin";
-import { getSqlite } from "@/server/db";
-import { createProduct, listProducts } from "@/server/products";
-import { provenanceFor, publicProvenance } from "@/server/provenance";
+import { getSqlite } from "@/server/platform/db";
+import { createProduct, listProducts } from "@/server/ledger/products";
+import { provenanceFor, publicProvenance } from "@/server/trace/provenance";
 import { POST as eventsRoute } from "../../app/api/events/route";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 

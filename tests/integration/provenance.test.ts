@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { GET as sheetRoute } from "../../app/api/provenance/[code]/sheet.pdf/route";
-import { getSqlite } from "@/server/db";
-import { provenanceFor, publicProvenance } from "@/server/provenance";
+import { getSqlite } from "@/server/platform/db";
+import { provenanceFor, publicProvenance } from "@/server/trace/provenance";
 import { call, jsonRequest, signInAs } from "../support/api";
 import { readPdfText } from "../support/pdf-read";
 

@@ -3,7 +3,7 @@ import jsQR from "jsqr";
 import { PNG } from "pngjs";
 import QRCode from "qrcode";
 import { describe, expect, it } from "vitest";
-import { readableMask } from "@/server/qr-readable";
+import { readableMask } from "@/server/floor/qr-readable";
 
 // ZXing (the decoder in the floor phones, via @zxing/browser) and jsQR read the PNGs,
 // rendered by the `qrcode` package exactly as the label route renders them.

@@ -4,7 +4,7 @@ import { POST as postEvent } from "../../app/api/events/route";
 import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as traceRoute } from "../../app/api/trace/[code]/route";
 import { GET as recallRoute } from "../../app/api/trace/[code]/recall.csv/route";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { call, jsonRequest, signInAs } from "../support/api";
 
 const COLUMNS = ["Date", "Lot code", "Product", "Quantity", "Unit", "Entry", "Event", "Location", "Counterparty", "Reference document", "Share from recalled lot", "Recording party", "Recorded by", "Event ID", "Reverses event", "Reversed by event", "Reason for reversal"] as const;
@@ -32,7 +32,7 @@ beforeAll(async () => {
   harvest2024 = (getSqlite().prepare("select code from lots where kind = 'harvest' and crop_year = 2024 order by id").get() as { code: string }).code;
 });
 
-// The seeded 2024–25 season (src/server/seed-brewing.ts): the first harvest, 1500 kg of Yamada
+// The seeded 2024–25 season (src/server/records/seed-brewing.ts): the first harvest, 1500 kg of Yamada
 // Nishiki, polished with 500 kg of another lot into P24-…, brewed as Tank 1 (600 kg of rice),
 // pressed to 1020 L (600 × 1.7), bottled as 800 and 200 × 720 mL, the 200 shipped to Minato.
 describe("recall spreadsheet from a 2024 harvest lot", () => {

@@ -4,7 +4,7 @@
 // quantity of each receipt and shipment: the slip weight, the weight on arrival, and the loss between.
 import { beforeAll, describe, expect, it, vi } from "vitest";
 import { translator } from "@/i18n/messages";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { POST as postEvent } from "../../app/api/events/route";
 import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as getLotRoute } from "../../app/api/lots/[code]/route";

@@ -1,7 +1,7 @@
 import { readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 
 // Rice traceability act (MAFF): transaction records are kept at least three years. Grainline
 // keeps them for good: the ledger tables refuse DELETE and UPDATE at the database, and no

@@ -2,9 +2,9 @@
 // Specifications: a JAN-13 is the GTIN-13, and the GTIN-14 with a leading 0 is the same item),
 // product and tank names, growers and fields — and only what the reader may see.
 import { describe, expect, it } from "vitest";
-import { getSqlite } from "@/server/db";
-import { createProduct } from "@/server/products";
-import { searchEverything } from "@/server/search";
+import { getSqlite } from "@/server/platform/db";
+import { createProduct } from "@/server/ledger/products";
+import { searchEverything } from "@/server/trace/search";
 
 const user = (id: string, role: "admin" | "brewer" | "grower" | "miller" | "sales", partyId: string) => ({ id, role, partyId, email: "", name: "" });
 const admin = user("user-admin", "admin", "brewery-kirinoha");

@@ -3,9 +3,9 @@ import type { AddressInfo } from "node:net";
 import { describe, expect, it } from "vitest";
 import { migrateDatabase, openDatabase } from "@/db/client";
 import { isValidGtin } from "@/domain/gtin";
-import { getDb, getSqlite } from "@/server/db";
-import { listAwaitingPolishing } from "@/server/lots";
-import { seedDemo } from "@/server/seed";
+import { getDb, getSqlite } from "@/server/platform/db";
+import { listAwaitingPolishing } from "@/server/ledger/lots";
+import { seedDemo } from "@/server/records/seed";
 import { tableDigests } from "../support/api";
 
 const count = (sql: string) => (getSqlite().prepare(sql).get() as { n: number }).n;

@@ -1,5 +1,5 @@
 // The session check every signed-in request makes: lucia's validateSession over our prepared
-// adapter (src/server/session-adapter.ts). Lucia v3's rules (lucia-auth.com, "Sessions"):
+// adapter (src/server/accounts/session-adapter.ts). Lucia v3's rules (lucia-auth.com, "Sessions"):
 // an expired session is refused and deleted; one in the second half of its life is extended.
 import { createHash } from "node:crypto";
 import Database from "better-sqlite3";
@@ -7,11 +7,11 @@ import { eq } from "drizzle-orm";
 import { afterAll, afterEach, describe, expect, it, vi } from "vitest";
 import { drizzleOver } from "@/db/client";
 import { sessions, users } from "@/db/schema";
-import { lucia } from "@/server/auth";
-import { databaseFile, getDb } from "@/server/db";
-import { PreparedSessionAdapter } from "@/server/session-adapter";
-import { ABSOLUTE_LIFETIME_S, openSession } from "@/server/session-token";
-import { sessionFromRequest } from "@/server/session";
+import { lucia } from "@/server/accounts/auth";
+import { databaseFile, getDb } from "@/server/platform/db";
+import { PreparedSessionAdapter } from "@/server/accounts/session-adapter";
+import { ABSOLUTE_LIFETIME_S, openSession } from "@/server/accounts/session-token";
+import { sessionFromRequest } from "@/server/accounts/session";
 import { POST as signInRoute } from "../../app/api/auth/sign-in/route";
 import { call, jsonRequest } from "../support/api";
 

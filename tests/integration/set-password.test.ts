@@ -4,10 +4,10 @@
 import { desc, eq } from "drizzle-orm";
 import { beforeEach, describe, expect, it, vi } from "vitest";
 import { outbox, signInThrottle } from "@/db/schema";
-import { PEER_HEADER } from "@/server/client-address";
-import { getDb } from "@/server/db";
-import { hashPassword } from "@/server/passwords";
-import { WINDOW_LIMITS } from "@/server/throttle";
+import { PEER_HEADER } from "@/server/platform/client-address";
+import { getDb } from "@/server/platform/db";
+import { hashPassword } from "@/server/accounts/passwords";
+import { WINDOW_LIMITS } from "@/server/accounts/throttle";
 import { forgotPasswordAction } from "../../app/(auth)/forgot-password/actions";
 import { setPasswordAction } from "../../app/(auth)/set-password/[token]/actions";
 import { submit } from "../support/action-scope";
@@ -17,8 +17,8 @@ vi.mock("next/headers", async () => (await import("../support/action-scope")).ne
 vi.mock("next/cache", async () => (await import("../support/action-scope")).nextCache);
 vi.mock("next-intl/server", async () => (await import("../support/action-scope")).nextIntlServer());
 // The real hasher, counted: what matters is whether it runs at all, not how long it takes.
-vi.mock("@/server/passwords", async (importOriginal) => {
-  const real = await importOriginal<typeof import("@/server/passwords")>();
+vi.mock("@/server/accounts/passwords", async (importOriginal) => {
+  const real = await importOriginal<typeof import("@/server/accounts/passwords")>();
   return { ...real, hashPassword: vi.fn(real.hashPassword) };
 });
 

@@ -2,12 +2,12 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { POST as postEvent } from "../../app/api/events/route";
 import { DEFAULT_ABSORPTION_BANDS, KOJI_CHECKPOINTS, RICE_USES } from "@/domain/brewing";
 import { translator } from "@/i18n/messages";
-import { auditRecord, renderAudit, type AuditTranslate } from "@/server/audit-record";
+import { auditRecord, renderAudit, type AuditTranslate } from "@/server/records/audit-record";
 import { settingsFromForm } from "@/lib/validation/settings";
-import { getDb, getSqlite } from "@/server/db";
-import { DEMO_USERS } from "@/server/seed";
-import type { SessionUser } from "@/server/session";
-import { readSetting, readSettings, restoreSettingDefaults, saveSettings, SETTING_DEFAULTS } from "@/server/settings";
+import { getDb, getSqlite } from "@/server/platform/db";
+import { DEMO_USERS } from "@/server/records/seed";
+import type { SessionUser } from "@/server/accounts/session";
+import { readSetting, readSettings, restoreSettingDefaults, saveSettings, SETTING_DEFAULTS } from "@/server/platform/settings";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 
 // Default bands are trade practice from memory (../shared/references.md): mash absorption 25–30 %.

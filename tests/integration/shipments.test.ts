@@ -6,8 +6,8 @@
 import { beforeAll, describe, expect, it, vi } from "vitest";
 import { translator } from "@/i18n/messages";
 import type { FormState } from "@/lib/form-state";
-import { getSqlite } from "@/server/db";
-import { loadRecall, recallRows, shipmentsToBuyers } from "@/server/recall";
+import { getSqlite } from "@/server/platform/db";
+import { loadRecall, recallRows, shipmentsToBuyers } from "@/server/trace/recall";
 import { correctEventAction, shipToBuyerAction } from "../../app/(office)/lots/[code]/actions";
 import { submit } from "../support/action-scope";
 import { signInAs, tableDigests } from "../support/api";

@@ -2,7 +2,7 @@
 // ignored, so our sign-in page cannot be used to send someone elsewhere (OWASP "Unvalidated
 // Redirects and Forwards" cheat sheet). The action is called as a form post, with its redirect.
 import { describe, expect, it, vi } from "vitest";
-import { PEER_HEADER } from "@/server/client-address";
+import { PEER_HEADER } from "@/server/platform/client-address";
 import { signInAction } from "../../app/(auth)/sign-in/actions";
 import { submit } from "../support/action-scope";
 

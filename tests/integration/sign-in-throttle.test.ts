@@ -5,9 +5,9 @@
 import { and, eq, like } from "drizzle-orm";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { signInThrottle } from "@/db/schema";
-import { PEER_HEADER } from "@/server/client-address";
-import { getDb } from "@/server/db";
-import { delaySeconds, MAX_DELAY_S } from "@/server/throttle";
+import { PEER_HEADER } from "@/server/platform/client-address";
+import { getDb } from "@/server/platform/db";
+import { delaySeconds, MAX_DELAY_S } from "@/server/accounts/throttle";
 import { POST as signInRoute } from "../../app/api/auth/sign-in/route";
 import { forgotPasswordAction } from "../../app/(auth)/forgot-password/actions";
 import { signInAction } from "../../app/(auth)/sign-in/actions";

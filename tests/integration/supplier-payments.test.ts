@@ -10,9 +10,9 @@ import { POST as postPayment } from "../../app/api/suppliers/[partyId]/payments/
 import { GET as getStatementCsv } from "../../app/api/suppliers/[partyId]/statements/[number]/statement.csv/route";
 import { POST as postStatement } from "../../app/api/suppliers/[partyId]/statements/route";
 import { translator } from "@/i18n/messages";
-import { getDb, getSqlite } from "@/server/db";
-import { accountRows } from "@/server/supplier-describe";
-import { ledgerOf } from "@/server/supplier-ledger";
+import { getDb, getSqlite } from "@/server/platform/db";
+import { accountRows } from "@/server/suppliers/supplier-describe";
+import { ledgerOf } from "@/server/suppliers/supplier-ledger";
 import { submit } from "../support/action-scope";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 

@@ -7,7 +7,7 @@ import { POST as postPayment } from "../../app/api/suppliers/[partyId]/payments/
 import { GET as getStatementCsv } from "../../app/api/suppliers/[partyId]/statements/[number]/statement.csv/route";
 import { GET as getStatementPdf } from "../../app/api/suppliers/[partyId]/statements/[number]/statement.pdf/route";
 import { POST as postStatement } from "../../app/api/suppliers/[partyId]/statements/route";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 import { dispatchAndReceive } from "../support/receipts";
 import { readPdfText } from "../support/pdf-read";

@@ -2,11 +2,11 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { POST as postEvent } from "../../app/api/events/route";
 import { GET as listLotsRoute } from "../../app/api/lots/route";
 import { translator } from "@/i18n/messages";
-import { getSqlite } from "@/server/db";
-import { DEMO_USERS } from "@/server/seed";
-import type { SessionUser } from "@/server/session";
-import { freeTanks, readTankRegister, saveTank } from "@/server/tank-register";
-import { findTankLotByName } from "@/server/tanks";
+import { getSqlite } from "@/server/platform/db";
+import { DEMO_USERS } from "@/server/records/seed";
+import type { SessionUser } from "@/server/accounts/session";
+import { freeTanks, readTankRegister, saveTank } from "@/server/floor/tank-register";
+import { findTankLotByName } from "@/server/floor/tanks";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 
 // The tank register and a first addition that picks its tank from it. That a mash is started

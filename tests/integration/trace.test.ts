@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { POST as postEvent } from "../../app/api/events/route";
 import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as traceRoute } from "../../app/api/trace/[code]/route";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { call, jsonRequest, signInAs } from "../support/api";
 
 // Hand-computed scenarios (shares by the mixing rule of ../shared/product.md, "The model").

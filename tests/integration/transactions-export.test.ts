@@ -4,8 +4,8 @@ import { POST as postEvent } from "../../app/api/events/route";
 import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as getTransactions } from "../../app/api/records/transactions.csv/route";
 import { csvText } from "@/lib/validation/csv";
-import { getDb, getSqlite } from "@/server/db";
-import { writeSetting } from "@/server/settings";
+import { getDb, getSqlite } from "@/server/platform/db";
+import { writeSetting } from "@/server/platform/settings";
 import { call, jsonRequest, signInAs } from "../support/api";
 
 let grower: string, grower2: string, miller: string, admin: string;

@@ -8,7 +8,7 @@ import { GET as getLedger } from "../../app/api/suppliers/[partyId]/ledger/route
 import { GET as getStatements } from "../../app/api/suppliers/[partyId]/statements/route";
 import { GET as getStatementCsv } from "../../app/api/suppliers/[partyId]/statements/[number]/statement.csv/route";
 import { GET as getStatementPdf } from "../../app/api/suppliers/[partyId]/statements/[number]/statement.pdf/route";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 import { submit } from "../support/action-scope";
 
@@ -110,7 +110,7 @@ describe("suppliers", () => {
     expect(unknownList.status).toBe(404);
     expect(await statements(cookies.grower2!, "grower-ikeda")).toEqual(unknownList);
     expect(await statements(cookies.grower2!, "no-such-party")).toEqual(unknownList);
-    // S-2025-0001 is Ikeda Farm's seeded statement (src/server/seed-suppliers.ts).
+    // S-2025-0001 is Ikeda Farm's seeded statement (src/server/records/seed-suppliers.ts).
     for (const route of [getStatementCsv, getStatementPdf]) {
       const unseen = await file(route, cookies.grower2!, "grower-ikeda", "S-2025-0001");
       expect(unseen.status).toBe(404);

@@ -7,7 +7,7 @@ import { POST as signInRoute } from "../../app/api/auth/sign-in/route";
 import { GET as meRoute } from "../../app/api/me/route";
 import { changeRoleAction, deactivateUserAction, reactivateUserAction } from "../../app/(office)/admin/users/actions";
 import { auditLog, users } from "@/db/schema";
-import { getDb } from "@/server/db";
+import { getDb } from "@/server/platform/db";
 import type { FormState } from "@/lib/form-state";
 import { submit } from "../support/action-scope";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";

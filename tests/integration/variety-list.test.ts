@@ -8,10 +8,10 @@ import { POST as postCommit } from "../../app/api/import/commit/route";
 import { GET as getLotRoute } from "../../app/api/lots/[code]/route";
 import { translator } from "@/i18n/messages";
 import { createLineCollector } from "@/lib/validation/csv";
-import { getSqlite } from "@/server/db";
-import { DEMO_USERS } from "@/server/seed";
-import type { SessionUser } from "@/server/session";
-import { addVariety, readVarietyList, removeVariety } from "@/server/variety-list";
+import { getSqlite } from "@/server/platform/db";
+import { DEMO_USERS } from "@/server/records/seed";
+import type { SessionUser } from "@/server/accounts/session";
+import { addVariety, readVarietyList, removeVariety } from "@/server/floor/variety-list";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 import { dispatchAndReceive } from "../support/receipts";
 

@@ -1,11 +1,11 @@
-// The floor's write transaction (src/server/db.ts writeTransaction): IMMEDIATE, all or
+// The floor's write transaction (src/server/platform/db.ts writeTransaction): IMMEDIATE, all or
 // nothing, and savepoints for work nested inside it — SQLite's transaction rules
 // (https://www.sqlite.org/lang_transaction.html, https://www.sqlite.org/lang_savepoint.html).
 import Database from "better-sqlite3";
 import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { settings } from "@/db/schema";
-import { databaseFile, getDb, getSqlite, writeTransaction } from "@/server/db";
+import { databaseFile, getDb, getSqlite, writeTransaction } from "@/server/platform/db";
 
 const KEY = "writeTransactionTest";
 const value = () => getDb().select().from(settings).where(eq(settings.key, KEY)).get()?.value;

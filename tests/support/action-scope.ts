@@ -1,9 +1,9 @@
 // Server actions read the session through next/headers and their messages through next-intl; outside
 // Next.js both need a request scope. A test file mocks those modules with these stand-ins, whose
 // cookie is that of whoever is acting:
-//   vi.mock("next/headers", async () => (await import("../support/action-scope")).nextHeaders);
-//   vi.mock("next/cache", async () => (await import("../support/action-scope")).nextCache);
-//   vi.mock("next-intl/server", async () => (await import("../support/action-scope")).nextIntlServer());
+//   vi.mock("next/headers", async () => (await import("./action-scope")).nextHeaders);
+//   vi.mock("next/cache", async () => (await import("./action-scope")).nextCache);
+//   vi.mock("next-intl/server", async () => (await import("./action-scope")).nextIntlServer());
 import { translator } from "@/i18n/messages";
 import { initialFormState, type FormState } from "@/lib/form-state";
 

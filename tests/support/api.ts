@@ -32,7 +32,7 @@ export async function signInAs(email: string, password = "grainline-demo"): Prom
 /** A digest of every row of every table but `except`: a refused request must leave them all as they were. */
 export async function tableDigests(except: readonly string[] = []): Promise<Record<string, string>> {
   const { createHash } = await import("node:crypto");
-  const { getSqlite } = await import("@/server/db");
+  const { getSqlite } = await import("@/server/platform/db");
   const sqlite = getSqlite();
   const names = (sqlite.prepare("select name from sqlite_master where type='table' and name not like 'sqlite_%' and name not like '__drizzle%'").all() as { name: string }[]).filter(({ name }) => !except.includes(name));
   return Object.fromEntries(

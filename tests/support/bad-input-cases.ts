@@ -9,7 +9,7 @@ import { PARTY_KINDS, ROLES } from "@/domain/roles";
 import { API_STEPS, LOT_KIND_LIST } from "@/domain/steps";
 import { email as emailSchema } from "@/lib/validation/auth";
 import { IMPORT_COLUMNS, IMPORT_KINDS, type ImportKind } from "@/lib/validation/csv";
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { hostileText, INJECTIONS, type Attempt, type BodyCase, type Slot } from "./bad-input";
 
 export type Who = "anonymous" | "admin" | "brewer" | "grower" | "miller";
@@ -36,7 +36,7 @@ const lower = (v: string) => v.trim().toLowerCase();
 const text = (max: number, required = false): Slot => ({ kind: "text", max, required });
 const num = (min: number, max: number, more: Partial<Extract<Slot, { kind: "number" }>> = {}): Slot => ({ kind: "number", min, max, ...more });
 const MAX_QTY = 10_000_000; // src/lib/validation/events.ts
-/** The milligram the server allows when comparing sums of weights (src/server/events.ts). */
+/** The milligram the server allows when comparing sums of weights (src/server/ledger/events.ts). */
 const EPS = 1e-6;
 
 // ───── the bodies each route accepts, and what may be corrupted in them ─────
@@ -130,7 +130,7 @@ export const SOAKING: BodyCase = {
   slots: [
     { path: ["step"], slot: { kind: "enum", values: ["soaking"], universe: API_STEPS }, required: true },
     { path: ["inputs", 0, "lot"], slot: { kind: "ref", known: () => known.soakable, normalise: upper }, required: true },
-    // Drained weight never below dry weight (src/server/floor-steps.ts): at most 13 kg in for 13 kg
+    // Drained weight never below dry weight (src/server/floor/floor-steps.ts): at most 13 kg in for 13 kg
     // out, give or take the milligram (EPS) the server allows for sums of floats.
     { path: ["inputs", 0, "quantity"], slot: num(0, 13 + EPS, { minExclusive: true }) },
     { path: ["outputs", 0, "kind"], slot: { kind: "enum", values: ["soaked"], universe: LOT_KIND_LIST } },

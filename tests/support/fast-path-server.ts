@@ -3,7 +3,7 @@
 // to it over a real socket (keeping its Host header, which fetch would replace).
 import http from "node:http";
 import type { AddressInfo } from "node:net";
-import { serveFast } from "@/server/fast-path";
+import { serveFast } from "@/server/platform/fast-path";
 
 export const LEFT_TO_NEXT = 599;
 

@@ -4,7 +4,7 @@ import { mkdirSync, rmSync } from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll } from "vitest";
 import { migrateDatabase, openDatabase } from "@/db/client";
-import { seedDemo } from "@/server/seed";
+import { seedDemo } from "@/server/records/seed";
 
 const dir = path.resolve("tests/.tmp");
 const file = path.join(dir, `unit-${process.pid}-${Date.now()}-${Math.random().toString(36).slice(2, 8)}.db`);

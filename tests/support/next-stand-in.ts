@@ -1,12 +1,12 @@
-// The production server's request handler (src/server/front-door.ts) in this process, with a
+// The production server's request handler (src/server/platform/front-door.ts) in this process, with a
 // stand-in for Next behind it: the stand-in turns Node's message into a Request, as Next does,
 // and calls the real route handler for it. Tests see what reaches "Next" (`reached`) and can
 // send raw HTTP to the server, declared lengths and chunked bodies included.
 import http from "node:http";
 import type { AddressInfo } from "node:net";
 import { Readable } from "node:stream";
-import { frontDoor } from "@/server/front-door";
-import { serveFast } from "@/server/fast-path";
+import { frontDoor } from "@/server/platform/front-door";
+import { serveFast } from "@/server/platform/fast-path";
 
 type RouteHandler = (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response>;
 export type StandInRoute = { method: string; pattern: RegExp; handler: RouteHandler; params?: (match: RegExpExecArray) => Record<string, string> };

@@ -1,6 +1,6 @@
 // A lot handed over as the ledger requires (issue 12: a receipt needs the sender's word): the
 // holder's dispatch to the receiver, recorded by the office for the holder, then the receipt.
-import { getSqlite } from "@/server/db";
+import { getSqlite } from "@/server/platform/db";
 import { POST as postEvent } from "../../app/api/events/route";
 import { call, jsonRequest } from "./api";
 

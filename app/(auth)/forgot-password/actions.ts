@@ -2,8 +2,8 @@
 
 import { formValues, type FormState } from "@/lib/form-state";
 import { forgotPasswordSchema } from "@/lib/validation/auth";
-import { actionClientKey, actionOrigin, guardAction } from "@/server/action";
-import { requestPasswordReset } from "@/server/users";
+import { actionClientKey, actionOrigin, guardAction } from "@/server/platform/action";
+import { requestPasswordReset } from "@/server/accounts/users";
 
 export async function forgotPasswordAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);

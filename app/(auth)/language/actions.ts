@@ -2,10 +2,10 @@
 
 import { formValues, type FormState } from "@/lib/form-state";
 import { languageSchema } from "@/lib/validation/language";
-import { guardAction } from "@/server/action";
-import { forgetLocale, rememberLocale } from "@/server/locale-cookie";
-import { currentUser } from "@/server/session";
-import { setOwnLocale } from "@/server/users";
+import { guardAction } from "@/server/platform/action";
+import { forgetLocale, rememberLocale } from "@/server/accounts/locale-cookie";
+import { currentUser } from "@/server/accounts/session";
+import { setOwnLocale } from "@/server/accounts/users";
 
 /**
  * The language switch. Open to anyone: a visitor's choice lives in the cookie only; a signed-in

@@ -6,12 +6,12 @@ import { HOME_FOR_ROLE } from "@/domain/permissions";
 import { safeNextPath } from "@/domain/safe-next";
 import { formValues, type FormState } from "@/lib/form-state";
 import { signInSchema } from "@/lib/validation/auth";
-import { actionClientKey, guardAction } from "@/server/action";
-import { lucia } from "@/server/auth";
-import { AppError } from "@/server/errors";
-import { rememberLocale } from "@/server/locale-cookie";
-import { requestIsHttps } from "@/server/session";
-import { signIn } from "@/server/users";
+import { actionClientKey, guardAction } from "@/server/platform/action";
+import { lucia } from "@/server/accounts/auth";
+import { AppError } from "@/server/platform/errors";
+import { rememberLocale } from "@/server/accounts/locale-cookie";
+import { requestIsHttps } from "@/server/accounts/session";
+import { signIn } from "@/server/accounts/users";
 
 export async function signInAction(_prev: FormState, formData: FormData): Promise<FormState> {
   // The destination rides beside the credentials, never inside the schema's input.

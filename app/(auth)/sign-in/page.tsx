@@ -3,7 +3,7 @@ import { redirect } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { HOME_FOR_ROLE } from "@/domain/permissions";
 import { safeNextPath } from "@/domain/safe-next";
-import { currentUser } from "@/server/session";
+import { currentUser } from "@/server/accounts/session";
 import { LanguageSwitch } from "@/components/language-switch";
 import { setLanguageAction } from "../language/actions";
 import { SignInForm } from "./components";

@@ -2,10 +2,10 @@
 
 import { cookies } from "next/headers";
 import { redirect } from "next/navigation";
-import { lucia } from "@/server/auth";
-import { currentUser, requestIsHttps } from "@/server/session";
-import { sessionIdFor } from "@/server/session-token";
-import { signOut } from "@/server/users";
+import { lucia } from "@/server/accounts/auth";
+import { currentUser, requestIsHttps } from "@/server/accounts/session";
+import { sessionIdFor } from "@/server/accounts/session-token";
+import { signOut } from "@/server/accounts/users";
 
 export async function signOutAction(): Promise<void> {
   const jar = await cookies();

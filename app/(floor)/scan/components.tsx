@@ -7,7 +7,7 @@ import { readRecentScans, rememberScan, RecentScans } from "@/components/floor/r
 import { Scanner } from "@/components/floor/scanner";
 import { readScanText } from "@/lib/scan-text";
 import type { Actor } from "@/domain/permissions";
-import type { ApiLot } from "@/server/lots";
+import type { ApiLot } from "@/server/ledger/lots";
 
 export type ScanView =
   | { state: "idle" }

@@ -1,8 +1,8 @@
 import { getTranslations } from "next-intl/server";
 import { readScanText } from "@/lib/scan-text";
-import { findLot } from "@/server/lots";
-import { requirePagePermission } from "@/server/page-guard";
-import { findTankLotByName } from "@/server/tanks";
+import { findLot } from "@/server/ledger/lots";
+import { requirePagePermission } from "@/server/accounts/page-guard";
+import { findTankLotByName } from "@/server/floor/tanks";
 import { ScanScreen, type ScanView } from "./components";
 
 export async function generateMetadata() {

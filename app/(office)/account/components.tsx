@@ -5,7 +5,7 @@ import { useFormatter, useTranslations } from "next-intl";
 import { useQuantity } from "@/lib/use-quantity";
 import type { ColumnDef } from "@tanstack/react-table";
 import { DataTable } from "@/components/data-table";
-import type { HarvestTrail } from "@/server/supplier-portal";
+import type { HarvestTrail } from "@/server/suppliers/supplier-portal";
 
 type FieldRow = { id: string; name: string; region: string; areaHa: number };
 

@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { getFormatter, getTranslations } from "next-intl/server";
-import { BREW_DAY_STEPS, listBrewDays } from "@/server/brew-days";
-import { requirePagePermission } from "@/server/page-guard";
+import { BREW_DAY_STEPS, listBrewDays } from "@/server/floor/brew-days";
+import { requirePagePermission } from "@/server/accounts/page-guard";
 import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {

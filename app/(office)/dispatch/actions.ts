@@ -5,16 +5,16 @@ import { z } from "zod";
 import { normaliseLotCode } from "@/domain/lot-code";
 import { formValues, type FormState } from "@/lib/form-state";
 import { eventSchema } from "@/lib/validation/events";
-import { guardAction } from "@/server/action";
-import { lotByCode, recordEvent } from "@/server/events";
+import { guardAction } from "@/server/platform/action";
+import { lotByCode, recordEvent } from "@/server/ledger/events";
 import { canSeeLot } from "@/domain/permissions";
-import { getDb } from "@/server/db";
-import { invalid } from "@/server/errors";
-import { answerSchema, confirmReceiptRequest, declineReceiptRequest, declineSchema } from "@/server/receipt-requests";
-import { requireUser } from "@/server/session";
-import { breweryTimeZone } from "@/server/settings";
+import { getDb } from "@/server/platform/db";
+import { invalid } from "@/server/platform/errors";
+import { answerSchema, confirmReceiptRequest, declineReceiptRequest, declineSchema } from "@/server/ledger/receipt-requests";
+import { requireUser } from "@/server/accounts/session";
+import { breweryTimeZone } from "@/server/platform/settings";
 import { hourOfDayIn } from "@/i18n/dates";
-import { requireAny } from "@/server/event-rows";
+import { requireAny } from "@/server/ledger/event-rows";
 import { STEP_RULES } from "@/domain/steps";
 
 

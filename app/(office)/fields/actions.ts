@@ -7,11 +7,11 @@ import { formValues, type FormState } from "@/lib/form-state";
 import { harvestSchema } from "@/lib/validation/events";
 import { fieldSchema } from "@/lib/validation/fields";
 import { can } from "@/domain/permissions";
-import { guardAction } from "@/server/action";
-import { forbidden } from "@/server/errors";
-import { createField } from "@/server/fields";
-import { registerHarvest } from "@/server/harvests";
-import { requireUser } from "@/server/session";
+import { guardAction } from "@/server/platform/action";
+import { forbidden } from "@/server/platform/errors";
+import { createField } from "@/server/ledger/fields";
+import { registerHarvest } from "@/server/ledger/harvests";
+import { requireUser } from "@/server/accounts/session";
 
 export async function createFieldAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);

@@ -1,12 +1,12 @@
 import { forbidden } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { can } from "@/domain/permissions";
-import { listFields } from "@/server/fields";
-import { requirePageUser } from "@/server/page-guard";
-import { listLots } from "@/server/lots";
-import { listParties } from "@/server/parties";
+import { listFields } from "@/server/ledger/fields";
+import { requirePageUser } from "@/server/accounts/page-guard";
+import { listLots } from "@/server/ledger/lots";
+import { listParties } from "@/server/ledger/parties";
 import { LotsTable } from "@/components/lots-table";
-import { readVarietyList } from "@/server/variety-list";
+import { readVarietyList } from "@/server/floor/variety-list";
 import { HarvestForm } from "./harvest-form";
 import { FieldForm, FieldsTable } from "./components";
 import { PageHeader } from "@/components/page-header";

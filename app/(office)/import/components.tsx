@@ -6,7 +6,7 @@ import { useRef, useState } from "react";
 import { useTranslations } from "next-intl";
 import { decodeCsvBytes, type CsvEncoding, type DecodedCsv } from "@/lib/csv-encoding";
 import { createLineCollector, csvText, IMPORT_COLUMNS, MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, saveCsvFile, TEMPLATE_EXAMPLES, type CsvLine, type ImportKind } from "@/lib/validation/csv";
-import type { ImportReport, RowProblem } from "@/server/csv-import";
+import type { ImportReport, RowProblem } from "@/server/records/csv-import";
 
 type ParsedFile = { name: string; encoding: CsvEncoding; header: string[]; rows: CsvLine[]; parseErrors: Map<number, string[]> };
 type Phase = "idle" | "reading" | "checking" | "checked" | "committing" | "done";

@@ -1,8 +1,8 @@
 import { forbidden } from "next/navigation";
 import { getTranslations } from "next-intl/server";
-import { importKindsFor } from "@/server/csv-import";
-import { listFields } from "@/server/fields";
-import { requirePageUser } from "@/server/page-guard";
+import { importKindsFor } from "@/server/records/csv-import";
+import { listFields } from "@/server/ledger/fields";
+import { requirePageUser } from "@/server/accounts/page-guard";
 import { ImportWorkbench } from "./components";
 import { PageHeader } from "@/components/page-header";
 

@@ -1,5 +1,5 @@
 import type { getTranslations } from "next-intl/server";
-import { printedRatioPct, QR_WIDTH_MM, type LabelView } from "@/server/labels";
+import { printedRatioPct, QR_WIDTH_MM, type LabelView } from "@/server/floor/labels";
 
 type Text = Awaited<ReturnType<typeof getTranslations>>;
 type Props = { label: LabelView; t: Text; quantity: string };

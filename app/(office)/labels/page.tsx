@@ -1,8 +1,8 @@
 import { getTranslations } from "next-intl/server";
 import { MAX_LABEL_CODES, parseLabelCodes } from "@/domain/label-url";
-import { actionOrigin } from "@/server/action";
-import { buildLabelSheet, expandCopies, LABEL_LAYOUTS, listLabelCandidates, MAX_COPIES, PAGE_SIZE, paginateLabels, parseCopies, parseLabelLayout, type LabelLayout, type LabelView } from "@/server/labels";
-import { requirePageUser } from "@/server/page-guard";
+import { actionOrigin } from "@/server/platform/action";
+import { buildLabelSheet, expandCopies, LABEL_LAYOUTS, listLabelCandidates, MAX_COPIES, PAGE_SIZE, paginateLabels, parseCopies, parseLabelLayout, type LabelLayout, type LabelView } from "@/server/floor/labels";
+import { requirePageUser } from "@/server/accounts/page-guard";
 import { PrintButton } from "./components";
 import { BagLabel, SheetLabel } from "./label-faces";
 import { PageHeader } from "@/components/page-header";

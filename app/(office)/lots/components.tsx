@@ -7,7 +7,7 @@ import { useFormatter, useTranslations } from "next-intl";
 import { ScanCodeInput } from "@/components/floor/code-field";
 import { GRADES } from "@/domain/grades";
 import { LOT_KIND_LIST } from "@/domain/steps";
-import type { ApiLot } from "@/server/lots";
+import type { ApiLot } from "@/server/ledger/lots";
 
 type Query = { kind?: string; grade?: string; partyId?: string; variety?: string; cropYear?: string; q?: string; sort?: string; dir?: string; page: number };
 

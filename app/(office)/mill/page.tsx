@@ -1,7 +1,7 @@
 import { getTranslations } from "next-intl/server";
 import { can } from "@/domain/permissions";
-import { listAwaitingPolishing } from "@/server/lots";
-import { requirePagePermission } from "@/server/page-guard";
+import { listAwaitingPolishing } from "@/server/ledger/lots";
+import { requirePagePermission } from "@/server/accounts/page-guard";
 import { LotsTable } from "@/components/lots-table";
 import { PolishingRunForm } from "./components";
 import { PageHeader } from "@/components/page-header";

@@ -4,10 +4,10 @@ import { LotCardView } from "@/components/lot-card-view";
 import { LotLookupForm } from "@/components/lot-lookup-form";
 import { ProvenanceCard } from "@/components/provenance-card";
 import { normaliseLotCode } from "@/domain/lot-code";
-import { actionTranslator } from "@/server/action";
-import { findLot } from "@/server/lots";
-import { requirePagePermission } from "@/server/page-guard";
-import { provenanceFor } from "@/server/provenance";
+import { actionTranslator } from "@/server/platform/action";
+import { findLot } from "@/server/ledger/lots";
+import { requirePagePermission } from "@/server/accounts/page-guard";
+import { provenanceFor } from "@/server/trace/provenance";
 import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {

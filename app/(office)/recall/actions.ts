@@ -2,9 +2,9 @@
 
 import { revalidatePath } from "next/cache";
 import { formValues, type FormState } from "@/lib/form-state";
-import { guardAction } from "@/server/action";
-import { holdRecall, releaseRecall } from "@/server/hold-lots";
-import { requireUser } from "@/server/session";
+import { guardAction } from "@/server/platform/action";
+import { holdRecall, releaseRecall } from "@/server/trace/hold-lots";
+import { requireUser } from "@/server/accounts/session";
 
 /** Every lot the recall reached goes on hold at once, with the reason (audited). */
 export async function holdRecallAction(_prev: FormState, formData: FormData): Promise<FormState> {

@@ -4,15 +4,15 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { typedNumber } from "@/lib/validation/typed";
 import { hourOfDayIn } from "@/i18n/dates";
-import { breweryTimeZone } from "@/server/settings";
+import { breweryTimeZone } from "@/server/platform/settings";
 import { normaliseLotCode } from "@/domain/lot-code";
 import { formValues, type FormState } from "@/lib/form-state";
 import { eventSchema } from "@/lib/validation/events";
-import { guardAction } from "@/server/action";
-import { recordEvent } from "@/server/events";
-import { forbidden } from "@/server/errors";
+import { guardAction } from "@/server/platform/action";
+import { recordEvent } from "@/server/ledger/events";
+import { forbidden } from "@/server/platform/errors";
 import { can } from "@/domain/permissions";
-import { requireUser } from "@/server/session";
+import { requireUser } from "@/server/accounts/session";
 
 const receiptForm = z.object({
   code: z.string().trim().min(1).max(20),

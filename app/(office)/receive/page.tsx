@@ -1,9 +1,9 @@
 import { forbidden } from "next/navigation";
 import { getFormatter, getTranslations } from "next-intl/server";
 import { can } from "@/domain/permissions";
-import { requirePageUser } from "@/server/page-guard";
-import { listParties } from "@/server/parties";
-import { listOwnRequests } from "@/server/receipt-requests";
+import { requirePageUser } from "@/server/accounts/page-guard";
+import { listParties } from "@/server/ledger/parties";
+import { listOwnRequests } from "@/server/ledger/receipt-requests";
 import { ReceiveForm } from "./components";
 import { PageHeader } from "@/components/page-header";
 

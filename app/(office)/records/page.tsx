@@ -1,7 +1,7 @@
 import { getLocale, getTranslations } from "next-intl/server";
 import { AuditTable } from "@/components/audit-table";
-import { auditRecord, renderAudit } from "@/server/audit-record";
-import { requirePagePermission } from "@/server/page-guard";
+import { auditRecord, renderAudit } from "@/server/records/audit-record";
+import { requirePagePermission } from "@/server/accounts/page-guard";
 import { PageHeader } from "@/components/page-header";
 
 export async function generateMetadata() {

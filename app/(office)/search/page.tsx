@@ -3,8 +3,8 @@ import { getTranslations } from "next-intl/server";
 import { getQuantity } from "@/lib/get-quantity";
 import { PageHeader } from "@/components/page-header";
 import { can } from "@/domain/permissions";
-import { requirePageUser } from "@/server/page-guard";
-import { searchEverything } from "@/server/search";
+import { requirePageUser } from "@/server/accounts/page-guard";
+import { searchEverything } from "@/server/trace/search";
 import { SearchSection } from "./components";
 
 export async function generateMetadata() {

@@ -2,9 +2,9 @@
 
 import { revalidatePath } from "next/cache";
 import { formValues, type FormState } from "@/lib/form-state";
-import { guardAction } from "@/server/action";
-import { requireUser } from "@/server/session";
-import { saveTaxRounding } from "@/server/supplier-settings";
+import { guardAction } from "@/server/platform/action";
+import { requireUser } from "@/server/accounts/session";
+import { saveTaxRounding } from "@/server/suppliers/supplier-settings";
 
 export async function saveRoundingAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);

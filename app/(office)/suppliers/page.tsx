@@ -1,9 +1,9 @@
 import { forbidden } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { can } from "@/domain/permissions";
-import { requirePageUser } from "@/server/page-guard";
-import { listSupplierBalances } from "@/server/supplier-ledger";
-import { readTaxRounding } from "@/server/supplier-settings";
+import { requirePageUser } from "@/server/accounts/page-guard";
+import { listSupplierBalances } from "@/server/suppliers/supplier-ledger";
+import { readTaxRounding } from "@/server/suppliers/supplier-settings";
 import { RoundingForm, SuppliersTable } from "./components";
 import { PageHeader } from "@/components/page-header";
 

@@ -1,8 +1,8 @@
 import { canRecordEvents } from "@/domain/permissions";
 import { eventSchema } from "@/lib/validation/events";
-import { forbidden } from "@/server/errors";
-import { idempotencyKeyOf, jsonRoute, readJson, reply, requireApiUser } from "@/server/http";
-import { recordEvent } from "@/server/events";
+import { forbidden } from "@/server/platform/errors";
+import { idempotencyKeyOf, jsonRoute, readJson, reply, requireApiUser } from "@/server/platform/http";
+import { recordEvent } from "@/server/ledger/events";
 
 export const POST = jsonRoute(async (request, { t }) => {
   const actor = await requireApiUser(request);

@@ -1,8 +1,8 @@
 import { fieldApiSchema } from "@/lib/validation/fields";
 import { can } from "@/domain/permissions";
-import { forbidden } from "@/server/errors";
-import { handle, readJson, requireApiUser } from "@/server/http";
-import { createField, listFields } from "@/server/fields";
+import { forbidden } from "@/server/platform/errors";
+import { handle, readJson, requireApiUser } from "@/server/platform/http";
+import { createField, listFields } from "@/server/ledger/fields";
 
 export const GET = handle(async (request) => {
   const actor = await requireApiUser(request);

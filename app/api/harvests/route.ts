@@ -1,8 +1,8 @@
 import { can } from "@/domain/permissions";
 import { harvestSchema } from "@/lib/validation/events";
-import { forbidden } from "@/server/errors";
-import { handle, idempotencyKeyOf, readJson, requireApiUser } from "@/server/http";
-import { registerHarvest } from "@/server/harvests";
+import { forbidden } from "@/server/platform/errors";
+import { handle, idempotencyKeyOf, readJson, requireApiUser } from "@/server/platform/http";
+import { registerHarvest } from "@/server/ledger/harvests";
 
 export const POST = handle(async (request, { t }) => {
   const actor = await requireApiUser(request);

@@ -1,7 +1,7 @@
 import { z } from "zod";
-import { LOT_SORTS, listLots } from "@/server/lots";
-import { handle, requireApiUser } from "@/server/http";
-import { invalid } from "@/server/errors";
+import { LOT_SORTS, listLots } from "@/server/ledger/lots";
+import { handle, requireApiUser } from "@/server/platform/http";
+import { invalid } from "@/server/platform/errors";
 import { fieldErrorsFrom } from "@/lib/validation/field-errors";
 
 const querySchema = z.object({

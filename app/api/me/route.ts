@@ -1,4 +1,4 @@
-import { handle, requireApiUser } from "@/server/http";
+import { handle, requireApiUser } from "@/server/platform/http";
 
 export const GET = handle(async (request) => {
   const { id, email, name, role, partyId } = await requireApiUser(request);

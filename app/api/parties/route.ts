@@ -1,6 +1,6 @@
 import { partySchema } from "@/lib/validation/people";
-import { handle, readJson, requireApiPermission } from "@/server/http";
-import { createParty, listParties } from "@/server/parties";
+import { handle, readJson, requireApiPermission } from "@/server/platform/http";
+import { createParty, listParties } from "@/server/ledger/parties";
 
 export const GET = handle(async (request) => {
   await requireApiPermission(request, "parties:manage");

@@ -1,7 +1,7 @@
 import { inviteSchema } from "@/lib/validation/people";
-import { handle, readJson, requireApiPermission } from "@/server/http";
-import { publicOrigin } from "@/server/public-origin";
-import { inviteUser, listUsers } from "@/server/users";
+import { handle, readJson, requireApiPermission } from "@/server/platform/http";
+import { publicOrigin } from "@/server/platform/public-origin";
+import { inviteUser, listUsers } from "@/server/accounts/users";
 
 export const GET = handle(async (request) => {
   await requireApiPermission(request, "users:manage");

@@ -4,7 +4,7 @@ import { isPhoneRequest } from "@/domain/device";
 import { labelPagePath } from "@/domain/label-url";
 import { normaliseLotCode } from "@/domain/lot-code";
 import { can } from "@/domain/permissions";
-import { requirePageUser, signInFirst } from "@/server/page-guard";
+import { requirePageUser, signInFirst } from "@/server/accounts/page-guard";
 
 /**
  * What a label's QR code opens in the phone's own camera app: the floor card, with its next

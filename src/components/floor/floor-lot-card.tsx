@@ -5,7 +5,7 @@ import { useFormatter, useTranslations } from "next-intl";
 import { useQuantity } from "@/lib/use-quantity";
 import { daysSince, floorOffer, mayRecord, portionOf, STEP_OF_ACTION } from "@/domain/floor-actions";
 import type { Actor } from "@/domain/permissions";
-import type { ApiLot } from "@/server/lots";
+import type { ApiLot } from "@/server/ledger/lots";
 import { RecordMoisture } from "./record-moisture";
 
 /** What a brewer needs at arm's length after a scan, and the next steps as big buttons. */

@@ -12,7 +12,7 @@ export type SentOutput = { kind?: string; use?: unknown; addition?: unknown };
 
 /**
  * After a record: each new lot with what it is for, its label, and its next likely step one
- * tap away. Steamed rice carries the soaked lot's use (src/server/floor-steps.ts), so `carried`
+ * tap away. Steamed rice carries the soaked lot's use (src/server/floor/floor-steps.ts), so `carried`
  * stands in for the attributes the server copies on.
  */
 export function FloorResult({ result, sent, carried }: { result: FloorWriteResult; sent: SentOutput[]; carried: Record<string, unknown> }) {

@@ -2,7 +2,7 @@
 
 import { useFormatter, useTranslations } from "next-intl";
 import { useEffect, useState } from "react";
-import type { ApiLot } from "@/server/lots";
+import type { ApiLot } from "@/server/ledger/lots";
 
 /**
  * Lots opened on this phone, newest first, kept in localStorage per signed-in person. Each

@@ -56,7 +56,7 @@ export const paymentSchema = z.object({
   amountYen: yen(1),
   method: z.enum(PAYMENT_METHODS),
   reference: text(100).default(""),
-  // Confirms a payment larger than the balance owed (src/server/supplier-payments.ts).
+  // Confirms a payment larger than the balance owed (src/server/suppliers/supplier-payments.ts).
   overpaymentReason: text(500).default(""),
 });
 export type PaymentInput = z.infer<typeof paymentSchema>;

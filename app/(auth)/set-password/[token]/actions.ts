@@ -2,8 +2,8 @@
 
 import { formValues, type FormState } from "@/lib/form-state";
 import { newPasswordSchema } from "@/lib/validation/auth";
-import { actionClientKey, guardAction } from "@/server/action";
-import { setPasswordWithToken } from "@/server/users";
+import { actionClientKey, guardAction } from "@/server/platform/action";
+import { setPasswordWithToken } from "@/server/accounts/users";
 
 export async function setPasswordAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { getTranslations } from "next-intl/server";
-import { findLinkHolder } from "@/server/users";
+import { findLinkHolder } from "@/server/accounts/users";
 import { SetPasswordForm } from "./components";
 
 export async function generateMetadata() {

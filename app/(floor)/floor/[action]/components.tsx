@@ -14,7 +14,7 @@ import { checkOffline, errorsByField, fieldPaths, requiredFields, unreadNumbers 
 import { parseTypedNumber } from "@/domain/typed-input";
 import { discardQueuedWrite, keepRefusedWrite, readQueuedWrite, setQueueOwner, submitFloorWrite } from "@/lib/offline-queue";
 import type { Translate } from "@/lib/validation/field-errors";
-import type { ApiLot } from "@/server/lots";
+import type { ApiLot } from "@/server/ledger/lots";
 import { FloorResult, type SentOutput } from "@/components/floor/floor-result";
 import { SoakTimer } from "@/components/floor/soak-timer";
 import { useQuantity } from "@/lib/use-quantity";

@@ -4,12 +4,12 @@ import { getTranslations } from "next-intl/server";
 import { Caution, type CautionKind } from "@/components/caution";
 import { FLOOR_ACTIONS, floorOffer, type FloorAction } from "@/domain/floor-actions";
 import { normaliseLotCode } from "@/domain/lot-code";
-import { getDb } from "@/server/db";
-import { findLot } from "@/server/lots";
-import { listProducts } from "@/server/products";
-import { requirePagePermission } from "@/server/page-guard";
-import { readSetting } from "@/server/settings";
-import { freeTanks } from "@/server/tank-register";
+import { getDb } from "@/server/platform/db";
+import { findLot } from "@/server/ledger/lots";
+import { listProducts } from "@/server/ledger/products";
+import { requirePagePermission } from "@/server/accounts/page-guard";
+import { readSetting } from "@/server/platform/settings";
+import { freeTanks } from "@/server/floor/tank-register";
 import { FloorActionForm } from "./components";
 
 const CAUTIONS: Partial<Record<FloorAction, CautionKind>> = { steam: "steam", split: "steam", "koji-check": "koji", koji: "koji", add: "tank", measure: "tank", press: "tank" };

@@ -1,6 +1,6 @@
 import { getTranslations } from "next-intl/server";
-import { listOutbox } from "@/server/mail";
-import { requirePagePermission } from "@/server/page-guard";
+import { listOutbox } from "@/server/platform/mail";
+import { requirePagePermission } from "@/server/accounts/page-guard";
 import { OutboxTable } from "./components";
 import { PageHeader } from "@/components/page-header";
 

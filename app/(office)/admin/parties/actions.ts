@@ -3,9 +3,9 @@
 import { revalidatePath } from "next/cache";
 import { formValues, type FormState } from "@/lib/form-state";
 import { partySchema } from "@/lib/validation/people";
-import { guardAction } from "@/server/action";
-import { createParty, updateParty } from "@/server/parties";
-import { requirePermission } from "@/server/session";
+import { guardAction } from "@/server/platform/action";
+import { createParty, updateParty } from "@/server/ledger/parties";
+import { requirePermission } from "@/server/accounts/session";
 
 export async function createPartyAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);

@@ -1,7 +1,7 @@
 import { getTranslations } from "next-intl/server";
 import { can } from "@/domain/permissions";
-import { listParties } from "@/server/parties";
-import { requirePagePermission } from "@/server/page-guard";
+import { listParties } from "@/server/ledger/parties";
+import { requirePagePermission } from "@/server/accounts/page-guard";
 import { PartiesTable, PartyForm } from "./components";
 import { PageHeader } from "@/components/page-header";
 

@@ -2,9 +2,9 @@
 
 import { revalidatePath } from "next/cache";
 import { formValues, type FormState } from "@/lib/form-state";
-import { guardAction } from "@/server/action";
-import { createProduct } from "@/server/products";
-import { requireUser } from "@/server/session";
+import { guardAction } from "@/server/platform/action";
+import { createProduct } from "@/server/ledger/products";
+import { requireUser } from "@/server/accounts/session";
 
 export async function createProductAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);

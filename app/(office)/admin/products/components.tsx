@@ -8,7 +8,7 @@ import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
 import { initialFormState } from "@/lib/form-state";
 import { CLAIMABLE_CATEGORIES } from "@/lib/validation/products";
-import type { Product } from "@/server/products";
+import type { Product } from "@/server/ledger/products";
 import { createProductAction } from "./actions";
 
 export function ProductsTable({ rows }: { rows: Product[] }) {

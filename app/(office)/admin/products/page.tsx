@@ -1,7 +1,7 @@
 import { getTranslations } from "next-intl/server";
 import { PageHeader } from "@/components/page-header";
-import { requirePagePermission } from "@/server/page-guard";
-import { listProducts } from "@/server/products";
+import { requirePagePermission } from "@/server/accounts/page-guard";
+import { listProducts } from "@/server/ledger/products";
 import { ProductForm, ProductsTable } from "./components";
 
 export async function generateMetadata() {

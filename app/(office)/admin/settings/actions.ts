@@ -3,11 +3,11 @@
 import { revalidatePath } from "next/cache";
 import { formValues, type FormState } from "@/lib/form-state";
 import { settingsFromForm } from "@/lib/validation/settings";
-import { guardAction } from "@/server/action";
-import { requireUser } from "@/server/session";
-import { restoreSettingDefaults, saveSettings } from "@/server/settings";
-import { saveTank } from "@/server/tank-register";
-import { addVariety, removeVariety } from "@/server/variety-list";
+import { guardAction } from "@/server/platform/action";
+import { requireUser } from "@/server/accounts/session";
+import { restoreSettingDefaults, saveSettings } from "@/server/platform/settings";
+import { saveTank } from "@/server/floor/tank-register";
+import { addVariety, removeVariety } from "@/server/floor/variety-list";
 
 export async function saveSettingsAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);

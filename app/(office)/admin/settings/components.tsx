@@ -7,7 +7,7 @@ import { FormMessage } from "@/components/ui/form-message";
 import { KOJI_CHECKPOINTS, RICE_USES, type Band } from "@/domain/brewing";
 import { initialFormState, type FormState } from "@/lib/form-state";
 import { PUBLIC_FIELDS } from "@/lib/validation/settings";
-import type { BrewerySettings } from "@/server/settings";
+import type { BrewerySettings } from "@/server/platform/settings";
 import { restoreDefaultsAction, saveSettingsAction } from "./actions";
 
 type BandGroup = "absorptionBands" | "steamGainBands" | "kojiBands";

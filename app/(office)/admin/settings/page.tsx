@@ -1,8 +1,8 @@
 import { getFormatter, getTranslations } from "next-intl/server";
-import { requirePagePermission } from "@/server/page-guard";
-import { lastSettingsChange, readSettings, SETTING_DEFAULTS } from "@/server/settings";
-import { tankRegisterWithContents } from "@/server/tank-register";
-import { readVarietyList } from "@/server/variety-list";
+import { requirePagePermission } from "@/server/accounts/page-guard";
+import { lastSettingsChange, readSettings, SETTING_DEFAULTS } from "@/server/platform/settings";
+import { tankRegisterWithContents } from "@/server/floor/tank-register";
+import { readVarietyList } from "@/server/floor/variety-list";
 import { RestoreDefaultsForm, SettingsForm } from "./components";
 import { can } from "@/domain/permissions";
 import { ReadOnlySettings } from "./settings-view";

@@ -2,9 +2,9 @@ import { getFormatter, getTranslations } from "next-intl/server";
 import { PageHeader } from "@/components/page-header";
 import { KOJI_CHECKPOINTS, RICE_USES, type Band } from "@/domain/brewing";
 import { PUBLIC_FIELDS } from "@/lib/validation/settings";
-import { lastSettingsChange, readSettings, type BrewerySettings } from "@/server/settings";
-import { tankRegisterWithContents } from "@/server/tank-register";
-import { readVarietyList } from "@/server/variety-list";
+import { lastSettingsChange, readSettings, type BrewerySettings } from "@/server/platform/settings";
+import { tankRegisterWithContents } from "@/server/floor/tank-register";
+import { readVarietyList } from "@/server/floor/variety-list";
 
 type BandGroup = "absorptionBands" | "steamGainBands" | "kojiBands";
 

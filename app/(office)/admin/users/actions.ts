@@ -3,10 +3,10 @@
 import { revalidatePath } from "next/cache";
 import { formValues, type FormState } from "@/lib/form-state";
 import { inviteSchema, roleChangeSchema, userRefSchema } from "@/lib/validation/people";
-import { actionOrigin, guardAction } from "@/server/action";
-import { requirePermission } from "@/server/session";
-import { changeUserRole, deactivateUser, reactivateUser } from "@/server/user-admin";
-import { inviteUser } from "@/server/users";
+import { actionOrigin, guardAction } from "@/server/platform/action";
+import { requirePermission } from "@/server/accounts/session";
+import { changeUserRole, deactivateUser, reactivateUser } from "@/server/accounts/user-admin";
+import { inviteUser } from "@/server/accounts/users";
 
 export async function inviteUserAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);

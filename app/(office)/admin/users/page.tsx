@@ -1,8 +1,8 @@
 import { getTranslations } from "next-intl/server";
 import { can } from "@/domain/permissions";
-import { listParties } from "@/server/parties";
-import { requirePagePermission } from "@/server/page-guard";
-import { listUsers } from "@/server/users";
+import { listParties } from "@/server/ledger/parties";
+import { requirePagePermission } from "@/server/accounts/page-guard";
+import { listUsers } from "@/server/accounts/users";
 import { InviteForm, UsersTable } from "./components";
 import { PageHeader } from "@/components/page-header";
 

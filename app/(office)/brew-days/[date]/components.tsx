@@ -5,7 +5,7 @@ import { useFormatter, useLocale, useTranslations } from "next-intl";
 import { formatAmount } from "@/lib/quantity";
 import { BandChart, type BandChartPoint, type BandChartText } from "@/components/band-chart";
 import { KOJI_CHECKPOINTS, RICE_USES, type Band, type BandCheck } from "@/domain/brewing";
-import type { DrawnRow, KojiCheckRow, LaterRow, SoakRow, SplitRow, SteamRow } from "@/server/brew-days";
+import type { DrawnRow, KojiCheckRow, LaterRow, SoakRow, SplitRow, SteamRow } from "@/server/floor/brew-days";
 
 type Marked = { eventId: number; at: string; corrected: boolean; correctionReason: string | null };
 

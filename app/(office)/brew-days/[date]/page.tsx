@@ -1,8 +1,8 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getFormatter, getTimeZone, getTranslations } from "next-intl/server";
-import { brewDaySummary, isCalendarDate, neighbourBrewDays } from "@/server/brew-days";
-import { requirePagePermission } from "@/server/page-guard";
+import { brewDaySummary, isCalendarDate, neighbourBrewDays } from "@/server/floor/brew-days";
+import { requirePagePermission } from "@/server/accounts/page-guard";
 import { AbsorptionChart, DrawnTable, GainChart, KojiChart, KojiTable, LaterTable, SoakTable, SplitTable, SteamTable } from "./components";
 
 type Params = { params: Promise<{ date: string }> };

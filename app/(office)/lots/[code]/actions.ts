@@ -4,19 +4,19 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { typedNumber } from "@/lib/validation/typed";
 import { hourOfDayIn } from "@/i18n/dates";
-import { breweryTimeZone } from "@/server/settings";
+import { breweryTimeZone } from "@/server/platform/settings";
 import { normaliseLotCode } from "@/domain/lot-code";
 import { can, canSeeLot } from "@/domain/permissions";
 import { formValues, type FormState } from "@/lib/form-state";
 import { eventSchema } from "@/lib/validation/events";
 import { getQuantity } from "@/lib/get-quantity";
-import { guardAction } from "@/server/action";
-import { getDb } from "@/server/db";
-import { forbidden, invalid } from "@/server/errors";
-import { lotByCode, recordEvent } from "@/server/events";
-import { releaseLot } from "@/server/hold-lots";
-import { getParty } from "@/server/parties";
-import { requireUser } from "@/server/session";
+import { guardAction } from "@/server/platform/action";
+import { getDb } from "@/server/platform/db";
+import { forbidden, invalid } from "@/server/platform/errors";
+import { lotByCode, recordEvent } from "@/server/ledger/events";
+import { releaseLot } from "@/server/trace/hold-lots";
+import { getParty } from "@/server/ledger/parties";
+import { requireUser } from "@/server/accounts/session";
 
 export async function correctEventAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const values = formValues(formData);

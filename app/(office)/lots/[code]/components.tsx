@@ -3,8 +3,8 @@ import { getFormatter, getLocale, getTranslations } from "next-intl/server";
 import { attributeLines } from "@/lib/event-figures";
 import { figureText, quantityText } from "@/lib/quantity";
 import type { Translate } from "@/lib/validation/field-errors";
-import type { Neighbour } from "@/server/lineage";
-import type { ShownLotEvent } from "@/server/lot-events";
+import type { Neighbour } from "@/server/trace/lineage";
+import type { ShownLotEvent } from "@/server/ledger/lot-events";
 
 export async function LineageList({ title, empty, items, direction, testId }: { title: string; empty: string; items: Neighbour[]; direction: "back" | "forward"; testId: string }) {
   const t = await getTranslations();

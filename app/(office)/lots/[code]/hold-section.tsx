@@ -1,6 +1,6 @@
 import { getFormatter, getTranslations } from "next-intl/server";
 import { HoldForm } from "@/components/hold-form";
-import type { Hold, HoldRow } from "@/server/holds";
+import type { Hold, HoldRow } from "@/server/trace/holds";
 import { releaseLotAction } from "./actions";
 
 /** The lot's hold (if any) at the top of its page, its holds and releases, and the office's release. */

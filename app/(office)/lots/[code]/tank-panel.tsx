@@ -1,6 +1,6 @@
 import { getFormatter, getTranslations } from "next-intl/server";
 import { getQuantity } from "@/lib/get-quantity";
-import type { TankSummary } from "@/server/tanks";
+import type { TankSummary } from "@/server/floor/tanks";
 
 /** A tank at a glance: rice, koji and water on the dry basis, and its additions in order. */
 export async function TankPanel({ tank }: { tank: TankSummary }) {

@@ -3,7 +3,7 @@
 import { useTranslations } from "next-intl";
 import type { ColumnDef } from "@tanstack/react-table";
 import { DataTable } from "@/components/data-table";
-import type { TransactionRecord } from "@/server/transactions-export";
+import type { TransactionRecord } from "@/server/records/transactions-export";
 
 export function TransactionsTable({ rows, exportName }: { rows: TransactionRecord[]; exportName: string }) {
   const t = useTranslations("csv.records");

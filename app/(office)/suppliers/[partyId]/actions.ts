@@ -3,14 +3,14 @@
 import { revalidatePath } from "next/cache";
 import { GRADES } from "@/domain/grades";
 import { formValues, type FormState } from "@/lib/form-state";
-import { actionOrigin, guardAction } from "@/server/action";
-import { getDb } from "@/server/db";
-import { requireUser } from "@/server/session";
-import { addGrowerContract, addMillContract } from "@/server/supplier-contracts";
-import { recordAdjustment, setInvoiceNumber } from "@/server/supplier-office";
-import { recordPayment, reversePayment } from "@/server/supplier-payments";
-import { mailStatement } from "@/server/supplier-statement-mail";
-import { issueStatement, statementByNumber } from "@/server/supplier-statements";
+import { actionOrigin, guardAction } from "@/server/platform/action";
+import { getDb } from "@/server/platform/db";
+import { requireUser } from "@/server/accounts/session";
+import { addGrowerContract, addMillContract } from "@/server/suppliers/supplier-contracts";
+import { recordAdjustment, setInvoiceNumber } from "@/server/suppliers/supplier-office";
+import { recordPayment, reversePayment } from "@/server/suppliers/supplier-payments";
+import { mailStatement } from "@/server/suppliers/supplier-statement-mail";
+import { issueStatement, statementByNumber } from "@/server/suppliers/supplier-statements";
 
 const yen = (v: number) => new Intl.NumberFormat("en-US", { style: "currency", currency: "JPY" }).format(v);
 const done = (partyId: string) => {

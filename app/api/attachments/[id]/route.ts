@@ -1,7 +1,7 @@
 import { contentDisposition, isAttachmentType } from "@/domain/file-kinds";
-import { readAttachment } from "@/server/attachments";
-import { notFound } from "@/server/errors";
-import { handle, requireApiUser } from "@/server/http";
+import { readAttachment } from "@/server/records/attachments";
+import { notFound } from "@/server/platform/errors";
+import { handle, requireApiUser } from "@/server/platform/http";
 
 export const GET = handle(async (request, { params }) => {
   const actor = await requireApiUser(request);

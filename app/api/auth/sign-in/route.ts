@@ -1,8 +1,8 @@
 import { signInSchema } from "@/lib/validation/auth";
-import { clientKey, handle, readJson } from "@/server/http";
-import { isHttps, sessionCookieHeader } from "@/server/session";
-import { localeCookieHeader } from "@/server/locale-cookie";
-import { signIn } from "@/server/users";
+import { clientKey, handle, readJson } from "@/server/platform/http";
+import { isHttps, sessionCookieHeader } from "@/server/accounts/session";
+import { localeCookieHeader } from "@/server/accounts/locale-cookie";
+import { signIn } from "@/server/accounts/users";
 
 export const POST = handle(async (request, { t }) => {
   const input = await readJson(request, signInSchema, t);

@@ -1,6 +1,6 @@
-import { handle } from "@/server/http";
-import { blankSessionCookieHeader, isHttps, sessionFromRequest } from "@/server/session";
-import { signOut } from "@/server/users";
+import { handle } from "@/server/platform/http";
+import { blankSessionCookieHeader, isHttps, sessionFromRequest } from "@/server/accounts/session";
+import { signOut } from "@/server/accounts/users";
 
 export const POST = handle(async (request) => {
   const found = await sessionFromRequest(request);

@@ -1,5 +1,5 @@
-import { handle, idempotencyKeyOf, requireApiUser } from "@/server/http";
-import { commitImport, readImportRequest } from "@/server/csv-import";
+import { handle, idempotencyKeyOf, requireApiUser } from "@/server/platform/http";
+import { commitImport, readImportRequest } from "@/server/records/csv-import";
 
 /** Writes every row of a CSV import, or — if any row fails — none, answering which rows failed. */
 export const POST = handle(async (request, { t }) => {

@@ -1,6 +1,6 @@
-import { handle, requireApiUser } from "@/server/http";
-import { previewImport, readImportRequest } from "@/server/csv-import";
-import { UserQuota } from "@/server/user-quota";
+import { handle, requireApiUser } from "@/server/platform/http";
+import { previewImport, readImportRequest } from "@/server/records/csv-import";
+import { UserQuota } from "@/server/accounts/user-quota";
 
 // A preview writes (and undoes) every row of a file of up to 5,000 rows, about 2 ms each: one
 // preview at a time per user, and 10,000 rows (two full files) a minute.

@@ -1,6 +1,6 @@
 import { normaliseLotCode } from "@/domain/lot-code";
-import { jsonRoute, reply, requireApiUser } from "@/server/http";
-import { getLot } from "@/server/lots";
+import { jsonRoute, reply, requireApiUser } from "@/server/platform/http";
+import { getLot } from "@/server/ledger/lots";
 
 export const GET = jsonRoute(async (request, { params }) => {
   const actor = await requireApiUser(request);

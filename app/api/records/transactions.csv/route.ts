@@ -1,6 +1,6 @@
-import { csvDownload, csvEncodingOf } from "@/server/csv-download";
-import { handle, requireApiUser } from "@/server/http";
-import { listTransactionRecords, parseDateRange, transactionsCsv } from "@/server/transactions-export";
+import { csvDownload, csvEncodingOf } from "@/server/records/csv-download";
+import { handle, requireApiUser } from "@/server/platform/http";
+import { listTransactionRecords, parseDateRange, transactionsCsv } from "@/server/records/transactions-export";
 
 /** The record of receipts and shipments for a date range, as a spreadsheet (rice traceability law). */
 export const GET = handle(async (request, { t }) => {

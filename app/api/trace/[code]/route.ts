@@ -1,8 +1,8 @@
 import { z } from "zod";
 import { normaliseLotCode } from "@/domain/lot-code";
-import { handle, requireApiUser } from "@/server/http";
-import { invalid } from "@/server/errors";
-import { traceBackward, traceForward } from "@/server/trace";
+import { handle, requireApiUser } from "@/server/platform/http";
+import { invalid } from "@/server/platform/errors";
+import { traceBackward, traceForward } from "@/server/trace/trace";
 
 const direction = z.enum(["backward", "forward"]);
 

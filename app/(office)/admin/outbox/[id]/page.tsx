@@ -2,8 +2,8 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getFormatter, getTranslations } from "next-intl/server";
 import { LinkedText } from "@/components/linked-text";
-import { getOutboxMessage } from "@/server/mail";
-import { requirePagePermission } from "@/server/page-guard";
+import { getOutboxMessage } from "@/server/platform/mail";
+import { requirePagePermission } from "@/server/accounts/page-guard";
 
 export default async function OutboxMessagePage({ params }: { params: Promise<{ id: string }> }) {
   await requirePagePermission("outbox:read");

@@ -2,8 +2,8 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { can } from "@/domain/permissions";
-import { getParty } from "@/server/parties";
-import { requirePagePermission } from "@/server/page-guard";
+import { getParty } from "@/server/ledger/parties";
+import { requirePagePermission } from "@/server/accounts/page-guard";
 import { PartyForm } from "../components";
 
 export default async function PartyPage({ params }: { params: Promise<{ id: string }> }) {

@@ -5,9 +5,9 @@ import { getQuantity } from "@/lib/get-quantity";
 import { LineageGraphView } from "@/components/lineage-graph";
 import { readingOrder, type LineageEdge, type LineageNode } from "@/domain/lineage-layout";
 import { normaliseLotCode } from "@/domain/lot-code";
-import { lineageGraph } from "@/server/lineage-graph";
-import { findLotId } from "@/server/lots";
-import { requirePageUser } from "@/server/page-guard";
+import { lineageGraph } from "@/server/trace/lineage-graph";
+import { findLotId } from "@/server/ledger/lots";
+import { requirePageUser } from "@/server/accounts/page-guard";
 
 const MAX_NODES = 400;
 

@@ -1,6 +1,6 @@
 import { normaliseLotCode } from "@/domain/lot-code";
-import { addAttachment, listAttachments } from "@/server/attachments";
-import { handle, requireApiUser } from "@/server/http";
+import { addAttachment, listAttachments } from "@/server/records/attachments";
+import { handle, requireApiUser } from "@/server/platform/http";
 
 export const GET = handle(async (request, { params }) => {
   const actor = await requireApiUser(request);

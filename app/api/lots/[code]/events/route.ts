@@ -1,6 +1,6 @@
 import { normaliseLotCode } from "@/domain/lot-code";
-import { handle, requireApiUser } from "@/server/http";
-import { listLotEvents } from "@/server/lot-events";
+import { handle, requireApiUser } from "@/server/platform/http";
+import { listLotEvents } from "@/server/ledger/lot-events";
 
 export const GET = handle(async (request, { params }) => {
   const actor = await requireApiUser(request);

@@ -1,7 +1,7 @@
 import { normaliseLotCode } from "@/domain/lot-code";
-import { handle, requireApiUser } from "@/server/http";
-import { publicOrigin } from "@/server/public-origin";
-import { renderLabelPng } from "@/server/labels";
+import { handle, requireApiUser } from "@/server/platform/http";
+import { publicOrigin } from "@/server/platform/public-origin";
+import { renderLabelPng } from "@/server/floor/labels";
 
 export const GET = handle(async (request, { params }) => {
   const actor = await requireApiUser(request);

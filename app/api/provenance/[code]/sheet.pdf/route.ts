@@ -1,10 +1,10 @@
 import { normaliseLotCode } from "@/domain/lot-code";
-import { documentLocale, documentTranslator } from "@/server/document-locale";
-import { handle, requireApiPermission } from "@/server/http";
-import { getParty } from "@/server/parties";
-import { provenanceFor } from "@/server/provenance";
-import { provenanceSheetPdf } from "@/server/provenance-sheet";
-import { breweryTimeZone } from "@/server/settings";
+import { documentLocale, documentTranslator } from "@/server/platform/document-locale";
+import { handle, requireApiPermission } from "@/server/platform/http";
+import { getParty } from "@/server/ledger/parties";
+import { provenanceFor } from "@/server/trace/provenance";
+import { provenanceSheetPdf } from "@/server/trace/provenance-sheet";
+import { breweryTimeZone } from "@/server/platform/settings";
 
 /** The sheet in the reader's language (their setting, the language cookie, then the browser's). */
 export const GET = handle(async (request, { params }) => {

@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { handle, readJson, requireApiPermission } from "@/server/http";
-import { recordAdjustment } from "@/server/supplier-office";
+import { handle, readJson, requireApiPermission } from "@/server/platform/http";
+import { recordAdjustment } from "@/server/suppliers/supplier-office";
 
 /** `{ date, amountYen, taxRatePct, reason }` → 201 `{ id, balanceYen }`; the office only. */
 export const POST = handle(async (request, { params, t }) => {

@@ -1,5 +1,5 @@
-import { handle, requireApiUser } from "@/server/http";
-import { readSupplierLedger } from "@/server/supplier-ledger";
+import { handle, requireApiUser } from "@/server/platform/http";
+import { readSupplierLedger } from "@/server/suppliers/supplier-ledger";
 
 /** A supplier's balance and entries (../shared/api.md); growers and mills only their own. */
 export const GET = handle(async (request, { params }) => {

@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { handle, readJson, requireApiPermission } from "@/server/http";
-import { recordPayment } from "@/server/supplier-payments";
+import { handle, readJson, requireApiPermission } from "@/server/platform/http";
+import { recordPayment } from "@/server/suppliers/supplier-payments";
 
 /**
  * `{ date, amountYen, method, reference, overpaymentReason? }` → 201 `{ id, balanceYen }`; the

@@ -1,10 +1,10 @@
 import { z } from "zod";
-import { handle, readJson, requireApiPermission, requireApiUser } from "@/server/http";
-import { publicOrigin } from "@/server/public-origin";
-import { mailStatement, statementPdfPath } from "@/server/supplier-statement-mail";
-import { issueStatement, listStatements, statementByNumber } from "@/server/supplier-statements";
-import { getDb } from "@/server/db";
-import { requireReadableSupplier } from "@/server/supplier-ledger";
+import { handle, readJson, requireApiPermission, requireApiUser } from "@/server/platform/http";
+import { publicOrigin } from "@/server/platform/public-origin";
+import { mailStatement, statementPdfPath } from "@/server/suppliers/supplier-statement-mail";
+import { issueStatement, listStatements, statementByNumber } from "@/server/suppliers/supplier-statements";
+import { getDb } from "@/server/platform/db";
+import { requireReadableSupplier } from "@/server/suppliers/supplier-ledger";
 
 export const GET = handle(async (request, { params }) => {
   const actor = await requireApiUser(request);

@@ -1,8 +1,8 @@
 import { normaliseLotCode } from "@/domain/lot-code";
-import { forbidden } from "@/server/errors";
-import { recallEpcisDocument } from "@/server/epcis";
-import { handle, requireApiUser } from "@/server/http";
-import { canReadRecall, loadRecall } from "@/server/recall";
+import { forbidden } from "@/server/platform/errors";
+import { recallEpcisDocument } from "@/server/trace/epcis";
+import { handle, requireApiUser } from "@/server/platform/http";
+import { canReadRecall, loadRecall } from "@/server/trace/recall";
 
 /** The recall's events as a GS1 EPCIS 2.0 document in JSON-LD. */
 export const GET = handle(async (request, { params }) => {

@@ -1,8 +1,8 @@
 import { normaliseLotCode } from "@/domain/lot-code";
-import { csvDownload, csvEncodingOf } from "@/server/csv-download";
-import { forbidden } from "@/server/errors";
-import { handle, requireApiUser } from "@/server/http";
-import { canReadRecall, loadRecall, recallCsv, recallRows } from "@/server/recall";
+import { csvDownload, csvEncodingOf } from "@/server/records/csv-download";
+import { forbidden } from "@/server/platform/errors";
+import { handle, requireApiUser } from "@/server/platform/http";
+import { canReadRecall, loadRecall, recallCsv, recallRows } from "@/server/trace/recall";
 
 /** Everything a lot reached, one line per event and lot, as a sortable spreadsheet (../shared/api.md, "Trace"). */
 export const GET = handle(async (request, { params, t }) => {

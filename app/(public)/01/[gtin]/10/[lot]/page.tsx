@@ -2,12 +2,12 @@ import { notFound } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { ProvenanceCard } from "@/components/provenance-card";
 import { LanguageSwitch } from "@/components/language-switch";
-import { AppError } from "@/server/errors";
-import { actionTranslator } from "@/server/action";
-import { getDb } from "@/server/db";
-import { listParties } from "@/server/parties";
-import { publicProvenance } from "@/server/provenance";
-import { readSetting } from "@/server/settings";
+import { AppError } from "@/server/platform/errors";
+import { actionTranslator } from "@/server/platform/action";
+import { getDb } from "@/server/platform/db";
+import { listParties } from "@/server/ledger/parties";
+import { publicProvenance } from "@/server/trace/provenance";
+import { readSetting } from "@/server/platform/settings";
 import { setLanguageAction } from "../../../../../(auth)/language/actions";
 
 type Params = { gtin: string; lot: string };

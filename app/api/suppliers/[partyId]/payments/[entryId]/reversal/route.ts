@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { handle, readJson, requireApiPermission } from "@/server/http";
-import { reversePayment } from "@/server/supplier-payments";
+import { handle, readJson, requireApiPermission } from "@/server/platform/http";
+import { reversePayment } from "@/server/suppliers/supplier-payments";
 
 /** `{ reason }` → 201 `{ id, balanceYen }`; the office only. 404 for a payment not on this supplier's account, 409 when already reversed. */
 export const POST = handle(async (request, { params, t }) => {

@@ -1,8 +1,8 @@
-import { csvDownload, csvEncodingOf } from "@/server/csv-download";
-import { handle, requireApiUser } from "@/server/http";
-import { statementCsv } from "@/server/supplier-statement-files";
-import { breweryTimeZone } from "@/server/settings";
-import { readStatement } from "@/server/supplier-statements";
+import { csvDownload, csvEncodingOf } from "@/server/records/csv-download";
+import { handle, requireApiUser } from "@/server/platform/http";
+import { statementCsv } from "@/server/suppliers/supplier-statement-files";
+import { breweryTimeZone } from "@/server/platform/settings";
+import { readStatement } from "@/server/suppliers/supplier-statements";
 
 export const GET = handle(async (request, { params, t }) => {
   const actor = await requireApiUser(request);

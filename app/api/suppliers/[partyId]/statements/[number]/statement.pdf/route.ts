@@ -1,8 +1,8 @@
-import { documentLocale, documentTranslator } from "@/server/document-locale";
-import { handle, requireApiUser } from "@/server/http";
-import { statementPdf } from "@/server/supplier-statement-files";
-import { readStatement } from "@/server/supplier-statements";
-import { breweryTimeZone } from "@/server/settings";
+import { documentLocale, documentTranslator } from "@/server/platform/document-locale";
+import { handle, requireApiUser } from "@/server/platform/http";
+import { statementPdf } from "@/server/suppliers/supplier-statement-files";
+import { readStatement } from "@/server/suppliers/supplier-statements";
+import { breweryTimeZone } from "@/server/platform/settings";
 
 /** The statement in the reader's language (their setting, the language cookie, then the browser's). */
 export const GET = handle(async (request, { params }) => {

@@ -1,0 +1,80 @@
+import "server-only";
+import { desc, eq, inArray, sql } from "drizzle-orm";
+import type { DbOrTx } from "@/db/client";
+import { lotHolds, lots, users } from "@/db/schema";
+import type { Translate } from "@/lib/validation/field-errors";
+import { getDb } from "../platform/db";
+import { AppError } from "../platform/errors";
+import { prepared } from "../platform/prepared";
+
+/** A lot's current hold: the newest row of `lot_holds` when that row is a hold. */
+export type Hold = { reason: string; at: string; recallCode: string };
+export type HoldRow = { id: number; action: "hold" | "release"; reason: string; recallCode: string; at: string; userName: string };
+
+type Latest = { action: "hold" | "release"; reason: string; recallCode: string; at: Date } | undefined;
+
+/** Every step that draws, ships or dispatches asks this: one indexed row per lot (prepared, the floor's hot path). */
+export function currentHold(db: DbOrTx, lotId: number): Hold | null {
+  const latest = prepared(db, "lot-hold-latest", (d) =>
+    d
+      .select({ action: lotHolds.action, reason: lotHolds.reason, recallCode: lotHolds.recallCode, at: lotHolds.at })
+      .from(lotHolds)
+      .where(eq(lotHolds.lotId, sql.placeholder("lotId")))
+      .orderBy(desc(lotHolds.id))
+      .limit(1)
+      .prepare(),
+  ).get({ lotId }) as Latest;
+  return latest?.action === "hold" ? { reason: latest.reason, at: latest.at.toISOString(), recallCode: latest.recallCode } : null;
+}
+
+/** The current holds of many lots at once (the recall's table), by lot id. */
+export function currentHolds(db: DbOrTx, lotIds: number[]): Map<number, Hold> {
+  if (!lotIds.length) return new Map();
+  const rows = db
+    .select({ lotId: lotHolds.lotId, action: lotHolds.action, reason: lotHolds.reason, recallCode: lotHolds.recallCode, at: lotHolds.at })
+    .from(lotHolds)
+    .where(inArray(lotHolds.lotId, lotIds))
+    .orderBy(lotHolds.id)
+    .all();
+  const latest = new Map<number, (typeof rows)[number]>();
+  for (const row of rows) latest.set(row.lotId, row);
+  const held = new Map<number, Hold>();
+  for (const [lotId, row] of latest) if (row.action === "hold") held.set(lotId, { reason: row.reason, at: row.at.toISOString(), recallCode: row.recallCode });
+  return held;
+}
+
+/** A lot's holds and releases, oldest first, with who recorded each. */
+export function holdHistory(db: DbOrTx, lotId: number): HoldRow[] {
+  return db
+    .select({ id: lotHolds.id, action: lotHolds.action, reason: lotHolds.reason, recallCode: lotHolds.recallCode, at: lotHolds.at, userName: users.name })
+    .from(lotHolds)
+    .innerJoin(users, eq(users.id, lotHolds.userId))
+    .where(eq(lotHolds.lotId, lotId))
+    .orderBy(lotHolds.id)
+    .all()
+    .map((r) => ({ ...r, at: r.at.toISOString() }));
+}
+
+/** A held lot is neither drawn, shipped, dispatched nor bottled until released: 409 naming the reason. */
+export function refuseIfHeld(db: DbOrTx, lot: { id: number; code: string }, field: string, t: Translate) {
+  const hold = currentHold(db, lot.id);
+  if (!hold) return;
+  const values = { code: lot.code, reason: hold.reason };
+  throw new AppError("conflict", { key: "errors.onHold", values }, { [field]: [t("errors.onHold", values)] });
+}
+
+/** Current holds by lot code (pages that list lots by code: the recall). */
+export function holdsByCode(db: DbOrTx, codes: string[]): Map<string, Hold> {
+  if (!codes.length) return new Map();
+  const ids = db.select({ id: lots.id, code: lots.code }).from(lots).where(inArray(lots.code, codes)).all();
+  const held = currentHolds(db, ids.map((l) => l.id));
+  return new Map(ids.flatMap((l) => (held.has(l.id) ? [[l.code, held.get(l.id)!] as const] : [])));
+}
+
+/** The same, on the server's own connection: for pages. */
+export const heldLots = (codes: string[]) => holdsByCode(getDb(), codes);
+
+/** What the lot page shows: the current hold, if any, and every hold and release. */
+export function lotHoldState(lotId: number) {
+  return { hold: currentHold(getDb(), lotId), history: holdHistory(getDb(), lotId) };
+}

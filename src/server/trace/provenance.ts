@@ -1,0 +1,87 @@
+import "server-only";
+import { sql } from "drizzle-orm";
+import { originsByWeight, originStatement, sharesBy } from "@/domain/origin";
+import type { Translate } from "@/lib/validation/field-errors";
+import { ancestorsOfKind, claimsForLot } from "./claims";
+import { getDb } from "../platform/db";
+import { notFound } from "../platform/errors";
+import { productOfLot } from "../ledger/products";
+import { sourcesOf, traceHead } from "./trace";
+import type { SessionUser } from "../accounts/session";
+
+const CLAIMABLE = ["tank", "sake", "blend", "bottled"];
+
+type Head = { id: number; code: string; kind: string; contentIn: number };
+
+/** Dates that matter to a buyer: mash additions of the tanks behind a lot, pressing, bottling. */
+function keyDates(lotId: number) {
+  const rows = getDb().all<{ step: string; at: number }>(sql`
+    with recursive up(lot_id) as (
+      select ${lotId}
+      union
+      select e.parent_lot_id from up join lineage_edges e on e.child_lot_id = up.lot_id
+      join lots c on c.id = up.lot_id where c.kind in ('bottled', 'blend', 'sake', 'tank')
+    )
+    select ev.step, min(ev.at) as at from up
+    join event_outputs o on o.lot_id = up.lot_id
+    join events ev on ev.id = o.event_id
+    where ev.step in ('mash-addition', 'pressing', 'bottling') and not exists (select 1 from events c where c.corrects = ev.id)
+    group by ev.step, up.lot_id order by at`);
+  const of = (step: string) => rows.filter((r) => r.step === step).map((r) => new Date(r.at).toISOString());
+  return { brewedOn: of("mash-addition"), pressedOn: of("pressing"), bottledOn: of("bottling") };
+}
+
+function namedGrowers(lotId: number, contentIn: number) {
+  const sources = sourcesOf(lotId, contentIn);
+  const consent = new Map(
+    getDb()
+      .all<{ id: string; named: number }>(sql`select id, named_publicly as named from parties where kind = 'grower'`)
+      .map((p) => [p.id, p.named === 1]),
+  );
+  // Growers who have not agreed to be named are counted, never named.
+  const growers = sharesBy(sources, (s) => (consent.get(s.grower.id) ? s.grower.name : ""), (s) => s.share);
+  return { sources, growers: growers.map((g) => ({ name: g.name || null, share: g.share })) };
+}
+
+/** The provenance answer for any lot: what sales tell a buyer, built from the lineage. */
+export function provenanceOf(head: Head, t: Translate, claims: ReturnType<typeof claimsForLot> | null) {
+  const { sources, growers } = namedGrowers(head.id, head.contentIn);
+  const ratios = [...new Set(ancestorsOfKind(head.id, "polished").map((p) => p.polishingRatioPct).filter((r): r is number => r !== null))];
+  return {
+    lot: { code: head.code, kind: head.kind },
+    varieties: sharesBy(sources, (s) => s.variety ?? "unknown", (s) => s.share),
+    cropYears: [...new Set(sources.map((s) => s.cropYear).filter((y): y is number => y !== null))].sort(),
+    origins: originsByWeight(sources.map((s) => ({ region: s.field?.region ?? null, share: s.share }))),
+    originStatement: originStatement(sources.map((s) => ({ region: s.field?.region ?? null, share: s.share }))),
+    growers,
+    polishingRatiosPct: ratios.sort((a, b) => a - b),
+    kojiRatioPct: claims?.kojiRatioPct ?? null,
+    categories: claims ? claims.categories.filter((c) => c.eligible).map((c) => c.name) : [],
+    product: productOfLot(head.id, claims ? claims.categories.filter((c) => c.eligible).map((c) => c.name) : null),
+    ...keyDates(head.id),
+    shares: sources.length,
+  };
+}
+export type Provenance = ReturnType<typeof provenanceOf>;
+
+export function provenanceFor(actor: SessionUser, code: string, t: Translate): Provenance {
+  const head = traceHead(actor, code);
+  return provenanceOf(head, t, CLAIMABLE.includes(head.kind) ? claimsForLot(head, t) : null);
+}
+
+/**
+ * The public page of a bottling, reached from the bottle's GS1 Digital Link QR. Only a
+ * bottled lot whose GTIN matches answers; anything else is "not found".
+ */
+export function findBottling(gtin14: string, lotCode: string) {
+  const row = getDb().get<{ id: number; code: string; kind: string; contentIn: number; gtin: string; bottleMl: number; quantity: number }>(sql`
+    select id, code, kind, content_in as contentIn, json_extract(attributes, '$.gtin') as gtin, json_extract(attributes, '$.bottleMl') as bottleMl, quantity_in as quantity
+    from lots where code = ${lotCode} and kind = 'bottled'`);
+  if (!row || String(row.gtin).padStart(14, "0") !== gtin14) throw notFound("errors.bottlingNotFound");
+  return row;
+}
+
+export function publicProvenance(gtin14: string, lotCode: string, t: Translate) {
+  const bottling = findBottling(gtin14, lotCode);
+  return { bottling, provenance: provenanceOf(bottling, t, claimsForLot(bottling, t)) };
+}

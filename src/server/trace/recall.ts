@@ -1,0 +1,174 @@
+import "server-only";
+import { inArray } from "drizzle-orm";
+import { eventInputs, eventOutputs, events, lots, parties } from "@/db/schema";
+import { timeAtOffset } from "@/domain/epcis-vocabulary";
+import { can, type Actor } from "@/domain/permissions";
+import { csvText } from "@/lib/validation/csv";
+import type { Translate } from "@/lib/validation/field-errors";
+import { getDb } from "../platform/db";
+import { forbidden } from "../platform/errors";
+import { describeEvents, type LotEvent } from "../ledger/lot-events";
+import { descendantsOf, traceHead } from "./trace";
+import type { SessionUser } from "../accounts/session";
+
+/** Who may run a recall: the roles that read provenance or every record. */
+export const canReadRecall = (actor: Actor | null) => can(actor, "provenance:read") || can(actor, "records:read-all");
+
+export type RecallParty = { id: string; kind: string; name: string; address: string };
+/** Any lot an event of the recall names, reached or not: what the export needs to identify it. */
+export type LotRef = { code: string; kind: string; unit: string; variety: string | null; cropYear: number | null; grade: string | null; gtin: string | null };
+export type RecallLot = LotRef & { fraction: number; onHand: number; holder: RecallParty };
+export type Recall = {
+  lot: { code: string; kind: string };
+  /** The recalled lot first (fraction 1), then every lot it reached, in the order they were made. */
+  lots: RecallLot[];
+  /** Every event that made, added to, drew from, moved or measured one of those lots, and their corrections. */
+  events: LotEvent[];
+  refs: Map<string, LotRef>;
+  parties: Map<string, RecallParty>;
+};
+
+/**
+ * Everything a lot reached, with the events that touched it (ISO 22005 "one step forward",
+ * repeated to the end). Read in one transaction, so the lots and events agree.
+ */
+export function loadRecall(actor: SessionUser, code: string): Recall {
+  if (!canReadRecall(actor)) throw forbidden();
+  return getDb().transaction((tx) => {
+    const head = traceHead(actor, code);
+    const fractions = new Map<string, number>([[head.code, 1], ...descendantsOf(head).map((r) => [r.code, r.fraction] as const)]);
+    const reached = tx.select({ id: lots.id, code: lots.code }).from(lots).where(inArray(lots.code, [...fractions.keys()])).all();
+    const ids = reached.map((l) => l.id);
+    const touching = tx
+      .select({ id: eventInputs.eventId })
+      .from(eventInputs)
+      .where(inArray(eventInputs.lotId, ids))
+      .union(tx.select({ id: eventOutputs.eventId }).from(eventOutputs).where(inArray(eventOutputs.lotId, ids)))
+      .all()
+      .map((r) => r.id);
+    const corrections = tx.select({ id: events.id }).from(events).where(inArray(events.corrects, touching.length ? touching : [-1])).all();
+    const recorded = describeEvents([...new Set([...touching, ...corrections.map((r) => r.id)])]);
+
+    const codes = new Set([...fractions.keys(), ...recorded.flatMap((e) => [...e.inputs, ...e.outputs].map((x) => x.lot))]);
+    const rows = tx
+      .select({ code: lots.code, kind: lots.kind, unit: lots.unit, variety: lots.variety, cropYear: lots.cropYear, grade: lots.grade, attributes: lots.attributes, onHand: lots.onHand, holderId: lots.partyId })
+      .from(lots)
+      .where(inArray(lots.code, [...codes]))
+      .all();
+    const partyIds = new Set([...rows.map((r) => r.holderId), ...recorded.flatMap((e) => [e.party.id, e.counterparty?.id ?? e.party.id])]);
+    const partyMap = new Map(tx.select({ id: parties.id, kind: parties.kind, name: parties.name, address: parties.address }).from(parties).where(inArray(parties.id, [...partyIds])).all().map((p) => [p.id, p]));
+    const refs = new Map(rows.map(({ attributes, onHand: _o, holderId: _h, ...r }) => [r.code, { ...r, gtin: gtinOf(attributes) }]));
+    const recallLots = rows
+      .filter((r) => fractions.has(r.code))
+      .map((r) => ({ ...refs.get(r.code)!, fraction: fractions.get(r.code)!, onHand: r.onHand, holder: partyMap.get(r.holderId)! }));
+    const order = [...fractions.keys()];
+    recallLots.sort((a, b) => order.indexOf(a.code) - order.indexOf(b.code));
+    return { lot: { code: head.code, kind: head.kind }, lots: recallLots, events: recorded, refs, parties: partyMap };
+  });
+}
+
+function gtinOf(attributes: string): string | null {
+  const gtin = (JSON.parse(attributes) as { gtin?: unknown }).gtin;
+  return typeof gtin === "string" ? gtin : null;
+}
+
+export const RECALL_ENTRIES = ["created", "added", "drawn", "received", "shipped", "moved", "takenBack", "returned", "movedBack"] as const;
+export type RecallEntry = (typeof RECALL_ENTRIES)[number];
+
+/** One line of the recall spreadsheet: one event and one reached lot it touched. */
+export type RecallRow = {
+  at: string;
+  lot: string;
+  kind: string;
+  variety: string | null;
+  quantity: number;
+  unit: string;
+  entry: RecallEntry;
+  step: string;
+  location: string;
+  counterparty: string;
+  toBuyer: boolean;
+  referenceDoc: string;
+  fraction: number;
+  party: string;
+  recordedBy: string;
+  eventId: number;
+  corrects: number | null;
+  correctedBy: number | null;
+  reason: string;
+};
+
+// Weights to the gram, volumes to the millilitre: float sums of draws carry noise beyond that.
+const round = (x: number, places: number) => Math.round(x * 10 ** places) / 10 ** places;
+
+/**
+ * The key data elements of each critical tracking event, after the US FDA Food Traceability
+ * Rule (21 CFR Part 1 Subpart S, as a design template): what lot, what product, how much,
+ * when, where, with whom, on which document — sorted by time, then lot. Measurements move
+ * nothing and are left out.
+ */
+export function recallRows(recall: Recall): RecallRow[] {
+  const byLot = new Map(recall.lots.map((l) => [l.code, l]));
+  const createdBy = new Map<string, number>();
+  for (const e of recall.events) {
+    if (e.step === "correcting") continue;
+    for (const o of e.outputs) if (!createdBy.has(o.lot) || createdBy.get(o.lot)! > e.id) createdBy.set(o.lot, e.id);
+  }
+  const rows: RecallRow[] = [];
+  for (const e of recall.events) {
+    if (e.step === "measuring") continue;
+    const party = recall.parties.get(e.party.id);
+    const counterparty = e.counterparty ? recall.parties.get(e.counterparty.id) : undefined;
+    const correction = e.step === "correcting";
+    const line = (code: string, quantity: number, entry: RecallEntry) => {
+      const lot = byLot.get(code)!;
+      rows.push({
+        at: timeAtOffset(new Date(e.at)),
+        lot: code,
+        kind: lot.kind,
+        variety: lot.variety,
+        quantity: round(quantity, 3),
+        unit: lot.unit,
+        entry,
+        step: e.step,
+        location: e.place || [party?.name, party?.address].filter(Boolean).join(", "),
+        counterparty: counterparty?.name ?? "",
+        toBuyer: e.step === "shipping" && counterparty?.kind === "buyer",
+        referenceDoc: e.referenceDoc,
+        fraction: round(lot.fraction, 6),
+        party: e.party.name,
+        recordedBy: e.user.name,
+        eventId: e.id,
+        corrects: e.corrects,
+        correctedBy: e.correctedBy,
+        reason: e.reason,
+      });
+    };
+    for (const i of e.inputs) {
+      if (!byLot.has(i.lot) || i.use === "observe") continue;
+      const entry: RecallEntry = correction ? (i.use === "move" ? "movedBack" : "takenBack") : e.step === "receiving" ? "received" : e.step === "shipping" ? "shipped" : i.use === "move" ? "moved" : "drawn";
+      line(i.lot, i.quantity, entry);
+    }
+    for (const o of e.outputs) {
+      if (!byLot.has(o.lot)) continue;
+      line(o.lot, o.quantity, correction ? "returned" : createdBy.get(o.lot) === e.id ? "created" : "added");
+    }
+  }
+  return rows.sort((a, b) => Date.parse(a.at) - Date.parse(b.at) || a.lot.localeCompare(b.lot) || a.eventId - b.eventId);
+}
+
+const COLUMNS = ["date", "lot", "product", "quantity", "unit", "entry", "event", "location", "counterparty", "referenceDoc", "fraction", "party", "recordedBy", "eventId", "corrects", "correctedBy", "reason"] as const;
+
+/** The spreadsheet itself; csvText guards cells against formula injection (OWASP, "CSV Injection"). */
+export function recallCsv(rows: RecallRow[], t: Translate): string {
+  const product = (r: RecallRow) => (r.variety ? t("recall.product", { kind: t(`lot.kinds.${r.kind}`), variety: r.variety }) : t(`lot.kinds.${r.kind}`));
+  return csvText(
+    COLUMNS.map((c) => t(`recall.columns.${c}`)),
+    rows.map((r) => [r.at, r.lot, product(r), r.quantity, r.unit, t(`recall.entries.${r.entry}`), t(`steps.${r.step}`), r.location, r.counterparty, r.referenceDoc, r.fraction, r.party, r.recordedBy, r.eventId, r.corrects ?? "", r.correctedBy ?? "", r.reason]),
+  );
+}
+
+/** Shipments that left for a buyer: the lines a recall notice goes out on. */
+export function shipmentsToBuyers(rows: RecallRow[]): RecallRow[] {
+  return rows.filter((r) => r.toBuyer && r.entry === "shipped");
+}
