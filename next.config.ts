@@ -3,7 +3,12 @@ import createNextIntlPlugin from "next-intl/plugin";
 import { MAX_BODY_BYTES } from "./src/server/platform/body-limits";
 import { SECURITY_HEADERS } from "./src/server/platform/security-headers";
 
-const withNextIntl = createNextIntlPlugin("./src/i18n/request.ts");
+// The catalogues are compiled when the build is made (next-intl's precompile): every page then
+// ships a formatter of about 4 kB gzip instead of the ICU message parser (about 13 kB).
+const withNextIntl = createNextIntlPlugin({
+  requestConfig: "./src/i18n/request.ts",
+  experimental: { messages: { path: "./src/i18n/messages", format: "json", locales: "infer", precompile: true } },
+});
 
 const nextConfig: NextConfig = {
   poweredByHeader: false,
