@@ -15,6 +15,8 @@ type Answer = { ok: boolean; status: number; body: Partial<ImportReport> & { err
 // The decoded text is parsed in chunks; between chunks the page repaints the progress bar.
 const CHUNK_CHARS = 64 * 1024;
 const SHOWN_ROWS = 500;
+// Rows are checked a slice per request, so the bar follows the server's checking.
+const CHECK_SLICE_ROWS = 500;
 
 async function send(url: string, body: unknown, idempotencyKey?: string): Promise<Answer> {
   try {
@@ -35,11 +37,14 @@ export function ImportWorkbench({ kinds }: { kinds: ImportKind[] }) {
   const [kind, setKind] = useState<ImportKind>(kinds[0]!);
   const [phase, setPhase] = useState<Phase>("idle");
   const [progress, setProgress] = useState(0);
+  const [checked, setChecked] = useState(0);
   const [file, setFile] = useState<ParsedFile | null>(null);
   const [report, setReport] = useState<ImportReport | null>(null);
   const [failure, setFailure] = useState<string[]>([]);
   const [inputKey, setInputKey] = useState(0);
   const commitKey = useRef("");
+  // How long the rows took to check: a commit runs the same rows, so it should take about as long.
+  const checkMs = useRef(0);
 
   const messagesOf = (answer: Answer) => {
     const fields = Object.values(answer.body.error?.fields ?? {}).flat();
@@ -50,12 +55,24 @@ export function ImportWorkbench({ kinds }: { kinds: ImportKind[] }) {
     setPhase("checking");
     setReport(null);
     setFailure([]);
-    const answer = await send("/api/import/preview", { kind: asKind, header: parsed.header, rows: parsed.rows });
-    if (!answer.ok) {
-      setFailure(messagesOf(answer));
-      return setPhase("idle");
+    setProgress(0);
+    setChecked(0);
+    const started = performance.now();
+    // A clash between rows of different slices shows at commit, as it would between the server's own chunks.
+    const problems: RowProblem[] = [];
+    for (let from = 0; from < parsed.rows.length; from += CHECK_SLICE_ROWS) {
+      const rows = parsed.rows.slice(from, from + CHECK_SLICE_ROWS);
+      const answer = await send("/api/import/preview", { kind: asKind, header: parsed.header, rows });
+      if (!answer.ok) {
+        setFailure(messagesOf(answer));
+        return setPhase("idle");
+      }
+      problems.push(...(answer.body.problems ?? []));
+      setChecked(from + rows.length);
+      setProgress((from + rows.length) / parsed.rows.length);
     }
-    setReport(answer.body as ImportReport);
+    checkMs.current = performance.now() - started;
+    setReport({ kind: asKind, rows: parsed.rows.length, committed: false, problems, created: [] });
     commitKey.current = crypto.randomUUID();
     setPhase("checked");
   }
@@ -131,7 +148,12 @@ export function ImportWorkbench({ kinds }: { kinds: ImportKind[] }) {
     if (!file) return;
     setPhase("committing");
     setFailure([]);
-    const answer = await send("/api/import/commit", { kind, header: file.header, rows: file.rows }, commitKey.current);
+    setProgress(0);
+    // One request writes every row or none, so the server cannot report as it goes: the bar
+    // follows the time the check took, and stops short of the end until the answer comes.
+    const started = performance.now();
+    const timer = setInterval(() => setProgress(Math.min(0.95, (performance.now() - started) / Math.max(checkMs.current, 1))), 100);
+    const answer = await send("/api/import/commit", { kind, header: file.header, rows: file.rows }, commitKey.current).finally(() => clearInterval(timer));
     if (answer.ok) {
       setReport(answer.body as ImportReport);
       return setPhase("done");
@@ -175,7 +197,8 @@ export function ImportWorkbench({ kinds }: { kinds: ImportKind[] }) {
         {busy ? (
           <div>
             <label htmlFor="csv-progress" className="text-sm">{t(phase)}</label>
-            <progress id="csv-progress" className="block w-full" max={1} value={phase === "reading" ? progress : undefined} />
+            <progress id="csv-progress" className="block w-full" max={1} value={progress} />
+            {phase === "checking" && file ? <p className="mt-1 text-sm text-ink-soft" data-testid="import-checked">{t("checkedRows", { done: checked, total: file.rows.length })}</p> : null}
           </div>
         ) : null}
       </section>
