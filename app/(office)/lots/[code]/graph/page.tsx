@@ -9,7 +9,8 @@ import { lineageGraph } from "@/server/trace/lineage-graph";
 import { findLotId } from "@/server/ledger/lots";
 import { requirePageUser } from "@/server/accounts/page-guard";
 
-const MAX_NODES = 400;
+// Room for a blend of about 500 lots, drawn whole with its stages grouped (bench/JOBS.md times it).
+const MAX_NODES = 600;
 
 export async function generateMetadata({ params }: { params: Promise<{ code: string }> }) {
   const t = await getTranslations("graph");
