@@ -27,7 +27,8 @@ test("a good harvest CSV commits every row at once", async ({ page }) => {
 });
 
 test("a 5,000-row harvest file (the most a file may hold): the bar advances while the server checks the rows, and every row is imported", async ({ page }) => {
-  test.setTimeout(120_000);
+  // Generous: under the suite's two workers the check of 5,000 rows has taken over a minute; the time goal is bench:jobs's (bench/JOBS.md).
+  test.setTimeout(300_000);
   await signInAndLand(page, "grower@example.com");
   await page.goto("/import");
   // Harvested in 2019, a year no other journey uses: the lots take H19 codes and stay out of this season's lists.
@@ -40,12 +41,12 @@ test("a 5,000-row harvest file (the most a file may hold): the bar advances whil
     const value = await page.locator("#csv-progress").evaluate((p: HTMLProgressElement) => (p.position < 0 ? -1 : p.value)).catch(() => null);
     if (value !== null && (await page.getByText("Checking every row…").isVisible())) seen.push(value);
     await expect(page.getByTestId("import-summary")).toHaveText("Every row can be imported.", { timeout: 50 });
-  }).toPass({ intervals: [50], timeout: 60_000 });
+  }).toPass({ intervals: [50], timeout: 150_000 });
   const checking = seen.filter((v) => v > 0 && v < 1);
   expect(checking.length, `bar values while checking: ${seen.join(", ")}`).toBeGreaterThan(1);
   expect(new Set(checking).size).toBeGreaterThan(1);
   await page.getByRole("button", { name: "Commit 5,000 rows" }).click();
-  await expect(page.getByText("5,000 rows imported.")).toBeVisible({ timeout: 60_000 });
+  await expect(page.getByText("5,000 rows imported.")).toBeVisible({ timeout: 120_000 });
   const seconds = (Date.now() - started) / 1000;
   test.info().annotations.push({ type: "5,000-row import", description: `${seconds.toFixed(1)} s from choosing the file to the import done` });
   await expect(page.getByTestId("import-created").getByRole("link").first()).toHaveText(/^H19-\d{4,}$/);
