@@ -38,7 +38,8 @@ test("a 5,000-row harvest file (the most a file may hold): the bar advances whil
   await page.getByLabel("CSV file").setInputFiles({ name: "harvests-5000.csv", mimeType: "text/csv", buffer: Buffer.from(lines.join("\n")) });
   const seen: number[] = [];
   await expect(async () => {
-    const value = await page.locator("#csv-progress").evaluate((p: HTMLProgressElement) => (p.position < 0 ? -1 : p.value)).catch(() => null);
+    // A short timeout: the bar leaves the page when the check ends, and a locator waits for its element.
+    const value = await page.locator("#csv-progress").evaluate((p: HTMLProgressElement) => (p.position < 0 ? -1 : p.value), undefined, { timeout: 50 }).catch(() => null);
     if (value !== null && (await page.getByText("Checking every row…").isVisible())) seen.push(value);
     await expect(page.getByTestId("import-summary")).toHaveText("Every row can be imported.", { timeout: 50 });
   }).toPass({ intervals: [50], timeout: 150_000 });
