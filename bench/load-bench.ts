@@ -21,6 +21,7 @@ import autocannon from "autocannon";
 import Database from "better-sqlite3";
 import { buildIfNeeded, SERVE_ARGS } from "../src/cli/serve-command";
 import { openFloor, type OpenRun } from "./open-load";
+import { stop, waitFor } from "./server-process";
 
 const root = path.resolve(import.meta.dirname, "..");
 const text = (name: string, fallback: string) => process.argv.find((a) => a.startsWith(`--${name}=`))?.split("=")[1] ?? fallback;
@@ -94,23 +95,6 @@ async function captureStatements() {
   return { cookie, statements };
 }
 
-async function waitFor(url: string) {
-  for (let i = 0; i < 600; i++) {
-    try {
-      if ((await fetch(url)).status < 500) return;
-    } catch {}
-    await new Promise((r) => setTimeout(r, 100));
-  }
-  throw new Error(`${url} did not come up`);
-}
-
-async function stop(child: ChildProcess) {
-  if (child.exitCode !== null) return;
-  const exited = new Promise((r) => child.once("exit", r));
-  child.kill("SIGTERM");
-  await exited;
-}
-
 type Result = { rps: number; p99: number; non2xx: number };
 
 function hasWrk(): boolean {
@@ -167,7 +151,7 @@ async function measure(args: string[], env: Record<string, string>, ready: strin
 async function withServer<T>(args: string[], env: Record<string, string>, ready: string, fn: () => Promise<T>): Promise<T> {
   const child = spawn(process.execPath, args, { cwd: root, env: { ...process.env, NEXT_TELEMETRY_DISABLED: "1", ...env }, stdio: "ignore" });
   try {
-    await waitFor(ready);
+    await waitFor(ready, 600);
     return await fn();
   } finally {
     await stop(child);

@@ -18,6 +18,7 @@ import { hash } from "@node-rs/argon2";
 import Database from "better-sqlite3";
 import { buildIfNeeded, SERVE_ARGS } from "../src/cli/serve-command";
 import { ensureLedger } from "./generate-ledger";
+import { stop, waitFor } from "./server-process";
 
 const root = path.resolve(import.meta.dirname, "..");
 const dbFile = path.join(root, "bench/.data/pages.db");
@@ -59,23 +60,6 @@ async function prepareCopy(ledger: string) {
   sqlite.close();
   if (!polished || !harvest || !bottled || !gtin || !grower) throw new Error("the ledger lacks a lot or grower the pages need");
   return { polished, harvest, bottled, gtin: String(gtin).padStart(14, "0"), grower };
-}
-
-async function waitFor(url: string) {
-  for (let i = 0; i < 900; i++) {
-    try {
-      if ((await fetch(url)).status < 500) return;
-    } catch {}
-    await new Promise((r) => setTimeout(r, 100));
-  }
-  throw new Error(`${url} did not come up`);
-}
-
-async function stop(child: ChildProcess) {
-  if (child.exitCode !== null) return;
-  const exited = new Promise((r) => child.once("exit", r));
-  child.kill("SIGTERM");
-  await exited;
 }
 
 async function signIn(): Promise<string> {
