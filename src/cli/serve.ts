@@ -1,7 +1,7 @@
 /**
- * The production server `npm start` runs: Next.js for every page, action and route, with the
- * floor's busiest API calls answered first by the same route handlers without Next's router
- * (src/server/platform/fast-path.ts). Run with `--conditions=react-server` (tsx), after `next build`.
+ * The production server `npm start` runs: Next.js for every page, action and route, behind a
+ * front door that refuses malformed paths and oversized bodies before anything reads them
+ * (src/server/platform/front-door.ts). Run with `--conditions=react-server` (tsx), after `next build`.
  */
 import http from "node:http";
 
@@ -17,12 +17,9 @@ const { default: next } = await import("next");
 const app = next({ dev: false, dir: process.cwd(), port, hostname: "localhost" });
 await app.prepare();
 const nextHandler = app.getRequestHandler();
-// GRAINLINE_FAST_PATH=off sends everything through Next (to compare, or if the fast path misbehaves).
-const fastPath = env.GRAINLINE_FAST_PATH === "off" ? null : (await import("../server/platform/fast-path")).serveFast;
-
 const { frontDoor } = await import("../server/platform/front-door");
 // HSTS only when the public origin is https (src/server/platform/public-origin.ts). Set here, at run time,
-// because next.config.ts headers are fixed at build time; the fast path's replies keep it too.
+// because next.config.ts headers are fixed at build time; the front door's refusals keep it too.
 const transportSecurity = (await import("../server/platform/public-origin")).transportSecurityHeaders();
 // WAL checkpoints in a worker thread, so no request waits for one (src/server/platform/checkpointer.ts);
 // GRAINLINE_CHECKPOINTS=inline leaves them to SQLite's default, at commit.
@@ -30,8 +27,8 @@ const { getSqlite } = await import("../server/platform/db");
 const checkpointer = env.GRAINLINE_CHECKPOINTS === "inline" ? null : (await import("../server/platform/checkpointer")).startCheckpointer(getSqlite());
 
 // Malformed paths (400) and bodies over their limit (413) are answered before anything reads
-// the body; then the fast path, else Next (src/server/platform/front-door.ts).
-const door = frontDoor(fastPath, (req, res) => {
+// the body; everything else goes to Next (src/server/platform/front-door.ts).
+const door = frontDoor((req, res) => {
   nextHandler(req, res).catch((error: unknown) => {
     // Next answers its own errors; this is one it could not, so the request still gets an answer.
     console.error(error);

@@ -1,7 +1,7 @@
 /**
  * `npm start`: migrate, seed the demo on an empty database, build if there is no
- * production build, then serve with src/cli/serve.ts (Next.js behind a fast path for the
- * floor's busiest API calls).
+ * production build, then serve with src/cli/serve.ts (Next.js behind a front door that
+ * refuses malformed paths and oversized bodies).
  */
 import { spawn } from "node:child_process";
 import { DEMO_PASSWORD, DEMO_USERS } from "../server/records/seed";

@@ -5,7 +5,7 @@ import Database from "better-sqlite3";
 import { expect, test } from "@playwright/test";
 import { productionServer } from "../support/production-server";
 
-// The production server (as `npm start` runs it, fast path included) on a database of its own,
+// The production server (as `npm start` runs it) on a database of its own,
 // killed with SIGKILL in the middle of a burst.
 const root = path.resolve(import.meta.dirname, "../..");
 const port = Number(process.env.E2E_CRASH_PORT || 3130);

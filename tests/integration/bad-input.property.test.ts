@@ -21,7 +21,6 @@ import { POST as paymentsRoute } from "../../app/api/suppliers/[partyId]/payment
 import { POST as reversalRoute } from "../../app/api/suppliers/[partyId]/payments/[entryId]/reversal/route";
 import { POST as usersRoute } from "../../app/api/users/route";
 import { call, jsonRequest, ORIGIN, signInAs, tableDigests } from "../support/api";
-import { startFastPathServer } from "../support/fast-path-server";
 import { badJsonBody, maybeIdempotencyKey, type Attempt } from "../support/bad-input";
 import { attachmentTry, FIELDS, HARVESTS, IMPORT_HARVESTS, importReceipts, known, MEASURING, PARTIES, POLISHING, randomPng, REVERSAL, signOutTry, SIGN_IN, SOAKING, sql, USERS, type Try, type Who } from "../support/bad-input-cases";
 
@@ -127,16 +126,6 @@ const hasProblems = (body: { problems?: unknown[] }) => Array.isArray(body.probl
 const DOCUMENTATION_IPS = fc.integer({ min: 1, max: 254 }).map((n) => ({ [PEER_HEADER]: `203.0.113.${n}` })); // RFC 5737 TEST-NET-3
 
 
-// The production server answers POST /api/events on its fast path (src/server/platform/fast-path.ts):
-// the same bad bodies go through it too, over a real socket.
-let fastPath: Awaited<ReturnType<typeof startFastPathServer>> | undefined;
-beforeAll(async () => {
-  fastPath = await startFastPathServer();
-});
-afterAll(async () => {
-  await fastPath?.close();
-});
-const viaFastPath: Handler = (request) => fastPath!.asHandler(request);
 
 function endpoints(): Endpoint[] {
   return [
@@ -149,8 +138,6 @@ function endpoints(): Endpoint[] {
     { name: "POST /api/events (soaking)", route: eventsRoute, tries: asWho("brewer", badJsonBody(SOAKING), "/api/events", maybeIdempotencyKey) },
     { name: "POST /api/events (measuring)", route: eventsRoute, tries: asWho("brewer", badJsonBody(MEASURING), "/api/events", maybeIdempotencyKey) },
     { name: "POST /api/events (polishing)", route: eventsRoute, tries: asWho("miller", badJsonBody(POLISHING), "/api/events", maybeIdempotencyKey) },
-    { name: "POST /api/events (soaking, fast path)", route: viaFastPath, tries: asWho("brewer", badJsonBody(SOAKING), "/api/events", maybeIdempotencyKey) },
-    { name: "POST /api/events (measuring, fast path)", route: viaFastPath, tries: asWho("brewer", badJsonBody(MEASURING), "/api/events", maybeIdempotencyKey) },
     { name: "POST /api/import/preview (harvests)", route: previewRoute, tries: asWho("grower", badJsonBody(IMPORT_HARVESTS), "/api/import/preview"), refusedWith200: hasProblems },
     { name: "POST /api/import/preview (receipts)", route: previewRoute, tries: asWho("miller", badJsonBody(importReceipts()), "/api/import/preview"), refusedWith200: hasProblems },
     { name: "POST /api/import/commit (harvests)", route: commitRoute, tries: asWho("grower", badJsonBody(IMPORT_HARVESTS), "/api/import/commit", maybeIdempotencyKey) },

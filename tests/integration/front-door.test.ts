@@ -1,5 +1,5 @@
 // The production server's request handler (src/server/platform/front-door.ts, run by src/cli/serve.ts)
-// in front of the real fast path and a stand-in for Next that calls the real route handlers.
+// in front of a stand-in for Next that calls the real route handlers.
 // Sources: RFC 9110 §15.5.14 (413 Content Too Large: the server may close the connection) and
 // §15.5.1 (400 Bad Request); RFC 9112 §7.1 (chunked transfer coding); RFC 3986 §2.1 (a
 // percent-escape is "%" followed by two hexadecimal digits); ECMA-262 decodeURIComponent
@@ -16,6 +16,7 @@ import { SECURITY_HEADERS } from "@/server/platform/security-headers";
 import { POST as eventsRoute } from "../../app/api/events/route";
 import { POST as fieldsRoute } from "../../app/api/fields/route";
 import { POST as uploadRoute } from "../../app/api/lots/[code]/attachments/route";
+import { GET as lotRoute } from "../../app/api/lots/[code]/route";
 import { signInAs, tableDigests } from "../support/api";
 import { sendRaw, startFrontDoor, type RawAnswer } from "../support/next-stand-in";
 
@@ -25,6 +26,7 @@ let brewer: string, grower: string;
 
 beforeAll(async () => {
   server = await startFrontDoor([
+    { method: "GET", pattern: /^\/api\/lots\/([^/]+)$/, handler: lotRoute, params: (m) => ({ code: decodeURIComponent(m[1]!) }) },
     { method: "POST", pattern: /^\/api\/events$/, handler: eventsRoute },
     { method: "POST", pattern: /^\/api\/fields$/, handler: fieldsRoute },
     { method: "POST", pattern: /^\/api\/lots\/([^/]+)\/attachments$/, handler: uploadRoute, params: (m) => ({ code: decodeURIComponent(m[1]!) }) },
@@ -63,7 +65,7 @@ async function expectRefusedUnread(send: () => Promise<RawAnswer>, message = "Th
 describe("bodies over 1 MiB are refused before they are read", () => {
   const twoMB = paddedField(2 * MiB);
 
-  it("a 2 MB POST to /api/events (the fast path's route): 413", async () => {
+  it("a 2 MB POST to /api/events (the floor's busiest write): 413", async () => {
     await expectRefusedUnread(() => sendRaw(server.port, { path: "/api/events", headers: { cookie: brewer, "content-type": "application/json" }, body: twoMB }));
   });
 
@@ -120,7 +122,7 @@ describe("bodies over 1 MiB are refused before they are read", () => {
 describe("streamed (chunked) bodies within the limit are read, then served as any other", () => {
   const measuring = { step: "measuring", inputs: [{ lot: "P26-0001", quantity: 0 }], measurements: [{ name: "moisturePct", value: 13.4, unit: "%" }] };
 
-  it("a small chunked event is recorded (on the fast path)", async () => {
+  it("a small chunked event is recorded", async () => {
     const before = eventCount();
     const answer = await sendRaw(server.port, { path: "/api/events", headers: { cookie: brewer, "content-type": "application/json" }, chunks: chunksOf(json(measuring), 16) });
     expect(answer.status).toBe(201);

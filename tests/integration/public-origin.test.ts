@@ -10,7 +10,7 @@ import { PNG } from "pngjs";
 import { afterEach, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
 import { outbox } from "@/db/schema";
 import { getDb } from "@/server/platform/db";
-import { serveFast } from "@/server/platform/fast-path";
+import { frontDoor } from "@/server/platform/front-door";
 import { publicOrigin, transportSecurityHeaders } from "@/server/platform/public-origin";
 import { POST as inviteRoute } from "../../app/api/users/route";
 import { GET as labelPng } from "../../app/api/lots/[code]/label.png/route";
@@ -54,16 +54,18 @@ describe("the public origin", () => {
     expect(transportSecurityHeaders({ PORT: "3000" })).toEqual([]);
   });
 
-  it("the header src/cli/serve.ts sets before the fast path survives the fast path's reply", async () => {
+  it("the header src/cli/serve.ts sets before the front door survives the front door's own refusal", async () => {
+    const door = frontDoor((_req, res) => res.writeHead(599).end());
     const server = http.createServer((req, res) => {
       for (const [name, value] of transportSecurityHeaders({ GRAINLINE_ORIGIN: CONFIGURED })) res.setHeader(name, value);
-      if (!serveFast(req, res)) res.writeHead(599).end();
+      door.request(req, res);
     });
     await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
     try {
       const { port } = server.address() as AddressInfo;
-      const res = await fetch(`http://127.0.0.1:${port}/api/lots/H26-0001`, { headers: { cookie: admin } });
-      expect(res.status).toBe(200);
+      // "%zz" is no percent-escape (RFC 3986 §2.1): the front door answers 400 itself, Next never sees it.
+      const res = await fetch(`http://127.0.0.1:${port}/api/lots/%zz`, { headers: { cookie: admin } });
+      expect(res.status).toBe(400);
       expect(res.headers.get("strict-transport-security")).toBe("max-age=31536000");
       expect(res.headers.get("x-frame-options")).toBe("DENY");
     } finally {

@@ -6,7 +6,6 @@ import http from "node:http";
 import type { AddressInfo } from "node:net";
 import { Readable } from "node:stream";
 import { frontDoor } from "@/server/platform/front-door";
-import { serveFast } from "@/server/platform/fast-path";
 
 type RouteHandler = (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response>;
 export type StandInRoute = { method: string; pattern: RegExp; handler: RouteHandler; params?: (match: RegExpExecArray) => Record<string, string> };
@@ -17,7 +16,7 @@ export async function startFrontDoor(routes: StandInRoute[]) {
     reached.push({ method: req.method!, url: req.url! });
     void standIn(routes, req, res);
   };
-  const door = frontDoor(serveFast, next);
+  const door = frontDoor(next);
   const server = http.createServer(door.request);
   server.on("checkContinue", door.checkContinue);
   await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));

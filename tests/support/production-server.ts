@@ -1,4 +1,4 @@
-// A production server of a test's own (as `npm start` runs it, fast path included), on a
+// A production server of a test's own (as `npm start` runs it), on a
 // database of its own: for tests that stop, kill or restart it.
 import { spawn, type ChildProcess } from "node:child_process";
 import path from "node:path";

@@ -12,9 +12,9 @@ const globalForDb = globalThis as unknown as { grainlineDb?: { sqlite: Database.
 
 /**
  * The one SQLite connection of this process is kept on globalThis (it outlives Next's module
- * reloads in development, and the production server's fast path shares it with Next). Each
- * copy of this module wraps it in a Drizzle of its own: Next's bundle and the fast path load
- * separate copies of Drizzle, and a Drizzle serving another copy's tables takes its slow paths.
+ * reloads in development, and src/cli/serve.ts shares it with Next for the WAL checkpointer). Each
+ * copy of this module wraps it in a Drizzle of its own: Next's bundle and the server's own modules
+ * load separate copies of Drizzle, and a Drizzle serving another copy's tables takes its slow paths.
  */
 type Work = (tx: DbOrTx) => unknown;
 let local: { sqlite: Database.Database; db: Db; write: Database.Transaction<(work: Work, db: Db) => unknown> } | undefined;

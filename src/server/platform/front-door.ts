@@ -51,14 +51,13 @@ const pathOf = (req: IncomingMessage) => (req.url ?? "/").split("?", 1)[0]!;
 
 /**
  * The production server's request handlers (src/cli/serve.ts): a malformed path is answered
- * 400 and a body over its limit 413, before anything reads the body; then the fast path
- * (src/server/platform/fast-path.ts) or Next. A streamed body is read here up to its limit first.
+ * 400 and a body over its limit 413, before anything reads the body; everything else goes to Next.
+ * A streamed body is read here up to its limit first.
  * `checkContinue` takes Node's event of that name: a client that waits before sending its
  * body (Expect: 100-continue, as curl does for large ones) is told 413 instead of "go on".
  */
-export function frontDoor(fastPath: ((req: IncomingMessage, res: ServerResponse) => boolean) | null, next: Handler) {
+export function frontDoor(next: Handler) {
   const pass = (req: IncomingMessage, res: ServerResponse) => {
-    if (fastPath?.(req, res)) return;
     // The socket's own peer, for sign-in throttling; whatever a client sent under this name is replaced.
     req.headers[PEER_HEADER] = req.socket.remoteAddress ?? "";
     next(req, res);

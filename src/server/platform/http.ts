@@ -11,10 +11,7 @@ import { can, type Permission } from "@/domain/permissions";
 export type RouteContext = { params: Record<string, string>; t: Translate };
 type NextContext = { params?: Promise<Record<string, string | string[]>> };
 
-/**
- * What a JSON route reads of its request. A Web Request has all of it; so has the lighter
- * request the production server's fast path builds (src/server/platform/fast-path.ts).
- */
+/** What a JSON route reads of its request: the part of a Web Request the helpers below need. */
 export type ApiRequest = {
   readonly method: string;
   readonly url: string;
@@ -22,7 +19,7 @@ export type ApiRequest = {
   json(): Promise<unknown>;
 };
 
-/** A JSON route's answer before it becomes a Response (or, on the fast path, bytes). */
+/** A JSON route's answer before it becomes a Response. */
 export type JsonReply = { status: number; body: unknown };
 export const reply = (body: unknown, status = 200): JsonReply => ({ status, body });
 
@@ -30,7 +27,7 @@ export const reply = (body: unknown, status = 200): JsonReply => ({ status, body
 const apiTranslators = new Map<string, Translate>();
 const byLocale = new Map<Locale, Translate>();
 const MAX_REMEMBERED_HEADERS = 100;
-// Only the language cookie is wanted here, so a pattern rather than parsing every cookie on the fast path.
+// Only the language cookie is wanted here, so a pattern rather than parsing every cookie of every request.
 const LOCALE_COOKIE_PATTERN = new RegExp(`(?:^|;)\\s*${LOCALE_COOKIE}=([a-z]{2})(?:;|\\s|$)`);
 
 /** The API's language: the language switch's cookie, then Accept-Language, then Japanese (no session read: it must stay cheap). */
@@ -72,27 +69,19 @@ export function handle(fn: (request: Request, ctx: RouteContext) => Promise<Resp
   };
 }
 
-export type JsonRoute = ((request: Request, context?: NextContext) => Promise<Response>) & {
-  /** The same route without Web Request and Response objects, for the fast path. */
-  run(request: ApiRequest, params: Record<string, string>): Promise<JsonReply>;
-};
-
-/** `handle` for routes that answer JSON: Next calls it as a route handler, the fast path calls `run`. */
-export function jsonRoute(fn: (request: ApiRequest, ctx: RouteContext) => Promise<JsonReply>): JsonRoute {
-  const run = async (request: ApiRequest, params: Record<string, string>): Promise<JsonReply> => {
+/** `handle` for routes that answer JSON: the handler returns its status and body, errors become the API's error shape. */
+export function jsonRoute(fn: (request: ApiRequest, ctx: RouteContext) => Promise<JsonReply>) {
+  return async (request: Request, context?: NextContext): Promise<Response> => {
     const t = translatorFor(request);
+    let result: JsonReply;
     try {
       if (!["GET", "HEAD", "OPTIONS"].includes(request.method)) checkOrigin(request);
-      return await fn(request, { params, t });
+      result = await fn(request, { params: await paramsOf(context), t });
     } catch (error) {
-      return errorReply(error, t);
+      result = errorReply(error, t);
     }
+    return Response.json(result.body, { status: result.status });
   };
-  const route = async (request: Request, context?: NextContext) => {
-    const { status, body } = await run(request, await paramsOf(context));
-    return Response.json(body, { status });
-  };
-  return Object.assign(route, { run });
 }
 
 export function errorResponse(error: unknown, t: Translate): Response {

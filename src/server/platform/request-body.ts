@@ -32,8 +32,8 @@ class ReadRequest extends IncomingMessage {
 }
 
 /**
- * The same request with the body read by `readCapped`, as one with a Content-Length: Next and
- * the fast path then read it as they read any other.
+ * The same request with the body read by `readCapped`, as one with a Content-Length: Next
+ * then reads it as it reads any other.
  */
 export function withBody(req: IncomingMessage, body: Buffer): IncomingMessage {
   const copy = new ReadRequest(req.socket);

@@ -1,6 +1,6 @@
 /**
- * The headers every response carries: Next adds them through next.config.ts, the fast path
- * of `src/cli/serve.ts` adds the same list itself.
+ * The headers every response carries: Next adds them through next.config.ts, and the front
+ * door of `src/cli/serve.ts` adds the same list to the refusals it answers itself.
  *
  * Next.js inlines small bootstrap scripts and styles, hence 'unsafe-inline' for those two;
  * everything else comes from this origin only. The camera stream is a mediastream: source.
