@@ -7,7 +7,8 @@
  *   - the lineage graph page of a blend of about 500 lots in Chromium: navigation start to
  *     the graph's nodes drawn and fitted, with checks that it fits the view and groups stages.
  * Works on a copy of the ledger (bench/.data/jobs.db); needs a production build.
- * Options: --runs=N (recall runs, default 20), --port=N (default 3403).
+ * Options: --runs=N (recall runs, default 20), --port=N (default 3403), --only=graph (or recall,
+ * statements, import: run only the jobs named, comma-separated).
  */
 import { spawn, type ChildProcess } from "node:child_process";
 import { createHash, randomBytes } from "node:crypto";
@@ -23,6 +24,8 @@ import { ensureLedger, printCounts } from "./generate-ledger";
 const root = path.resolve(import.meta.dirname, "..");
 const option = (name: string, fallback: number) => Number(process.argv.find((a) => a.startsWith(`--${name}=`))?.split("=")[1] ?? fallback);
 const runs = option("runs", 20);
+const only = process.argv.find((a) => a.startsWith("--only="))?.split("=")[1]?.split(",");
+const wanted = (job: string) => !only || only.includes(job);
 const port = option("port", 3403);
 const base = `http://localhost:${port}`;
 const dbFile = path.join(root, "bench/.data/jobs.db");
@@ -228,15 +231,23 @@ const setup = prepareCopy(file);
 console.log(`recall lot ${setup.recallLot.code} (${setup.recallLot.bottlings} bottlings); graph lot ${setup.graphLot.code} (~${setup.graphLot.nodes} lots); ${setup.growers.length} growers`);
 console.log(`load average before: ${await load()}`);
 await withServer(async () => {
-  const r = await recall(setup.cookie, setup.recallLot.code);
-  console.log(`recall CSV (${runs} runs, ${(r.bytes / 1024).toFixed(0)} KB): p50 ${ms(r.p50)}, p95 ${ms(r.p95)}, max ${ms(r.max)}  goal ≤ 200 ms`);
-  const g = await graph(setup.cookie, setup.graphLot.code);
-  console.log(`lineage graph ${setup.graphLot.code}: first load ${ms(g.first)}, then p50 ${ms(g.p50)}, max ${ms(g.max)} (5 loads)  goal ≤ 1 s`);
-  console.log(`  lots ${g.lots}, drawn nodes ${g.drawn} (stage groups ${g.groups}), outside the view ${g.outside}, zoom ${g.zoom}, truncated ${g.truncated}`);
-  const s = await statements(setup.cookie, setup.growers);
-  console.log(`statements: ${s.growers} growers (${s.entries} entries), issued with PDF in ${(s.total / 1000).toFixed(2)} s (${(s.pdfBytes / 1024).toFixed(0)} KB of PDF)  goal ≤ 10 s`);
-  const i = await importRows(setup.cookie, setup.fieldIds);
-  console.log(`import: ${IMPORT_ROWS} rows in ${i.files} file(s): preview ${(i.preview / 1000).toFixed(2)} s + commit ${(i.commit / 1000).toFixed(2)} s = ${(i.total / 1000).toFixed(2)} s  goal ≤ 10 s`);
+  if (wanted("recall")) {
+    const r = await recall(setup.cookie, setup.recallLot.code);
+    console.log(`recall CSV (${runs} runs, ${(r.bytes / 1024).toFixed(0)} KB): p50 ${ms(r.p50)}, p95 ${ms(r.p95)}, max ${ms(r.max)}  goal ≤ 200 ms`);
+  }
+  if (wanted("graph")) {
+    const g = await graph(setup.cookie, setup.graphLot.code);
+    console.log(`lineage graph ${setup.graphLot.code}: first load ${ms(g.first)}, then p50 ${ms(g.p50)}, max ${ms(g.max)} (5 loads)  goal ≤ 1 s`);
+    console.log(`  lots ${g.lots}, drawn nodes ${g.drawn} (stage groups ${g.groups}), outside the view ${g.outside}, zoom ${g.zoom}, truncated ${g.truncated}`);
+  }
+  if (wanted("statements")) {
+    const s = await statements(setup.cookie, setup.growers);
+    console.log(`statements: ${s.growers} growers (${s.entries} entries), issued with PDF in ${(s.total / 1000).toFixed(2)} s (${(s.pdfBytes / 1024).toFixed(0)} KB of PDF)  goal ≤ 10 s`);
+  }
+  if (wanted("import")) {
+    const i = await importRows(setup.cookie, setup.fieldIds);
+    console.log(`import: ${IMPORT_ROWS} rows in ${i.files} file(s): preview ${(i.preview / 1000).toFixed(2)} s + commit ${(i.commit / 1000).toFixed(2)} s = ${(i.total / 1000).toFixed(2)} s  goal ≤ 10 s`);
+  }
 });
 console.log(`load average after: ${await load()}`);
 for (const s of ["", "-wal", "-shm"]) rmSync(dbFile + s, { force: true });
