@@ -1,7 +1,6 @@
 import "server-only";
-import { asc, eq, inArray, or } from "drizzle-orm";
-import { alias } from "drizzle-orm/sqlite-core";
-import { eventInputs, eventOutputs, events, lots, measurements, parties, users } from "@/db/schema";
+import { asc, eq, inArray, sql } from "drizzle-orm";
+import { eventInputs, eventOutputs, events, lots, measurements } from "@/db/schema";
 import { showEvent } from "@/domain/event-view";
 import { canSeeLot } from "@/domain/permissions";
 import { getDb } from "../platform/db";
@@ -9,7 +8,6 @@ import { notFound } from "../platform/errors";
 import { findLotId } from "./lots";
 import type { SessionUser } from "../accounts/session";
 
-const counterparty = alias(parties, "counterparty");
 const ownerOf = { partyId: lots.partyId, originPartyId: lots.originPartyId, inTransitTo: lots.inTransitTo };
 
 /**
@@ -48,38 +46,60 @@ export function describeEvents(ids: number[]) {
   }));
 }
 
-/** The events with, on each lot they name, whose it is. */
+type Lot = typeof lots.$inferSelect;
+type Owner = Pick<Lot, "partyId" | "originPartyId" | "inTransitTo">;
+type EventRow = { id: number; step: (typeof events.$inferSelect)["step"]; at: number; recordedAt: number; userId: string; userName: string; partyId: string; partyName: string; counterpartyId: string | null; counterpartyName: string | null; place: string; referenceDoc: string; note: string; corrects: number | null; reason: string; attributes: string };
+type LineRow = { eventId: number; code: string; kind: Lot["kind"]; quantity: number; unit: Lot["unit"]; use: (typeof eventInputs.$inferSelect)["use"] } & Owner;
+
+/** Rows grouped by their event, in the order read. */
+function byEvent<T extends { eventId: number }>(rows: T[]): Map<number, T[]> {
+  const out = new Map<number, T[]>();
+  for (const r of rows) (out.get(r.eventId) ?? out.set(r.eventId, []).get(r.eventId)!).push(r);
+  return out;
+}
+
+/**
+ * The events with, on each lot they name, whose it is. Plain SQL with the ids as one JSON
+ * parameter, and lines grouped by event once: a recall reads thousands of events at a time.
+ */
 function loadEvents(ids: number[]) {
   if (ids.length === 0) return [];
   const db = getDb();
-  const rows = db
-    .select({ event: events, userName: users.name, partyName: parties.name, counterpartyName: counterparty.name })
-    .from(events)
-    .innerJoin(users, eq(users.id, events.userId))
-    .innerJoin(parties, eq(parties.id, events.partyId))
-    .leftJoin(counterparty, eq(counterparty.id, events.counterpartyId))
-    .where(inArray(events.id, ids))
-    .orderBy(asc(events.at), asc(events.id))
-    .all();
-  const ins = db.select({ eventId: eventInputs.eventId, code: lots.code, quantity: eventInputs.quantity, unit: lots.unit, use: eventInputs.use, owner: ownerOf }).from(eventInputs).innerJoin(lots, eq(lots.id, eventInputs.lotId)).where(inArray(eventInputs.eventId, ids)).all();
-  const outs = db.select({ eventId: eventOutputs.eventId, code: lots.code, kind: lots.kind, quantity: eventOutputs.quantity, unit: lots.unit, owner: ownerOf }).from(eventOutputs).innerJoin(lots, eq(lots.id, eventOutputs.lotId)).where(inArray(eventOutputs.eventId, ids)).all();
-  const ms = db
-    .select({ eventId: measurements.eventId, name: measurements.name, value: measurements.value, unit: measurements.unit, owner: { partyId: lots.partyId, originPartyId: lots.originPartyId, inTransitTo: lots.inTransitTo } })
-    .from(measurements)
-    .leftJoin(lots, eq(lots.id, measurements.lotId))
-    .where(inArray(measurements.eventId, ids))
-    .all();
-  const correctedBy = new Map(
-    db.select({ id: events.id, corrects: events.corrects }).from(events).where(or(inArray(events.corrects, ids))).all().map((r) => [r.corrects!, r.id]),
+  const list = JSON.stringify(ids);
+  const rows = db.all<EventRow>(sql`
+    select e.id, e.step, e.at, e.recorded_at as recordedAt, e.user_id as userId, u.name as userName, e.party_id as partyId, p.name as partyName,
+      e.counterparty_id as counterpartyId, c.name as counterpartyName, e.place, e.reference_doc as referenceDoc, e.note, e.corrects, e.reason, e.attributes
+    from events e join users u on u.id = e.user_id join parties p on p.id = e.party_id left join parties c on c.id = e.counterparty_id
+    where e.id in (select value from json_each(${list}))
+    order by e.at, e.id`);
+  const owner = sql.raw("l.party_id as partyId, l.origin_party_id as originPartyId, l.in_transit_to as inTransitTo");
+  const ins = byEvent(db.all<LineRow>(sql`
+    select i.event_id as eventId, l.code, i.quantity, l.unit, i.use, ${owner}
+    from event_inputs i join lots l on l.id = i.lot_id where i.event_id in (select value from json_each(${list})) order by i.event_id, i.id`));
+  const outs = byEvent(db.all<LineRow>(sql`
+    select o.event_id as eventId, l.code, l.kind, o.quantity, l.unit, ${owner}
+    from event_outputs o join lots l on l.id = o.lot_id where o.event_id in (select value from json_each(${list})) order by o.event_id, o.id`));
+  const ms = byEvent(
+    db
+      .select({ eventId: measurements.eventId, name: measurements.name, value: measurements.value, unit: measurements.unit, owner: ownerOf })
+      .from(measurements)
+      .leftJoin(lots, eq(lots.id, measurements.lotId))
+      .where(inArray(measurements.eventId, ids))
+      .orderBy(asc(measurements.eventId), asc(measurements.id))
+      .all(),
   );
-  return rows.map(({ event: e, userName, partyName, counterpartyName }) => ({
+  const correctedBy = new Map(
+    db.all<{ id: number; corrects: number }>(sql`select id, corrects from events where corrects in (select value from json_each(${list}))`).map((r) => [r.corrects, r.id]),
+  );
+  const ownerOfRow = ({ partyId, originPartyId, inTransitTo }: Owner): Owner => ({ partyId, originPartyId, inTransitTo });
+  return rows.map((e) => ({
     id: e.id,
     step: e.step,
-    at: e.at.toISOString(),
-    recordedAt: e.recordedAt.toISOString(),
-    user: { id: e.userId, name: userName },
-    party: { id: e.partyId, name: partyName },
-    counterparty: e.counterpartyId ? { id: e.counterpartyId, name: counterpartyName ?? "" } : null,
+    at: new Date(e.at).toISOString(),
+    recordedAt: new Date(e.recordedAt).toISOString(),
+    user: { id: e.userId, name: e.userName },
+    party: { id: e.partyId, name: e.partyName },
+    counterparty: e.counterpartyId ? { id: e.counterpartyId, name: e.counterpartyName ?? "" } : null,
     place: e.place,
     referenceDoc: e.referenceDoc,
     note: e.note,
@@ -87,9 +107,9 @@ function loadEvents(ids: number[]) {
     correctedBy: correctedBy.get(e.id) ?? null,
     reason: e.reason,
     attributes: JSON.parse(e.attributes) as Record<string, unknown>,
-    inputs: ins.filter((i) => i.eventId === e.id).map(({ code, quantity, unit, use, owner }) => ({ lot: code, quantity, unit, use, owner })),
-    outputs: outs.filter((o) => o.eventId === e.id).map(({ code, kind, quantity, unit, owner }) => ({ lot: code, kind, quantity, unit, owner })),
-    measurements: ms.filter((m) => m.eventId === e.id).map(({ name, value, unit, owner }) => ({ name, value, unit, owner })),
+    inputs: (ins.get(e.id) ?? []).map((i) => ({ lot: i.code, quantity: i.quantity, unit: i.unit, use: i.use, owner: ownerOfRow(i) })),
+    outputs: (outs.get(e.id) ?? []).map((o) => ({ lot: o.code, kind: o.kind, quantity: o.quantity, unit: o.unit, owner: ownerOfRow(o) })),
+    measurements: (ms.get(e.id) ?? []).map(({ name, value, unit, owner }) => ({ name, value, unit, owner })),
   }));
 }
 export type LotEvent = ReturnType<typeof describeEvents>[number];

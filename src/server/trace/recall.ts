@@ -1,6 +1,5 @@
 import "server-only";
-import { inArray } from "drizzle-orm";
-import { eventInputs, eventOutputs, events, lots, parties } from "@/db/schema";
+import { sql } from "drizzle-orm";
 import { timeAtOffset } from "@/domain/epcis-vocabulary";
 import { can, type Actor } from "@/domain/permissions";
 import { csvText } from "@/lib/validation/csv";
@@ -30,41 +29,46 @@ export type Recall = {
 
 /**
  * Everything a lot reached, with the events that touched it (ISO 22005 "one step forward",
- * repeated to the end). Read in one transaction, so the lots and events agree.
+ * repeated to the end). Read in one transaction, so the lots and events agree. Every set of
+ * lots or events goes to SQLite as one JSON parameter: a wide recall names thousands.
  */
 export function loadRecall(actor: SessionUser, code: string): Recall {
   if (!canReadRecall(actor)) throw forbidden();
   return getDb().transaction((tx) => {
     const head = traceHead(actor, code);
     const fractions = new Map<string, number>([[head.code, 1], ...descendantsOf(head).map((r) => [r.code, r.fraction] as const)]);
-    const reached = tx.select({ id: lots.id, code: lots.code }).from(lots).where(inArray(lots.code, [...fractions.keys()])).all();
-    const ids = reached.map((l) => l.id);
-    const touching = tx
-      .select({ id: eventInputs.eventId })
-      .from(eventInputs)
-      .where(inArray(eventInputs.lotId, ids))
-      .union(tx.select({ id: eventOutputs.eventId }).from(eventOutputs).where(inArray(eventOutputs.lotId, ids)))
-      .all()
-      .map((r) => r.id);
-    const corrections = tx.select({ id: events.id }).from(events).where(inArray(events.corrects, touching.length ? touching : [-1])).all();
-    const recorded = describeEvents([...new Set([...touching, ...corrections.map((r) => r.id)])]);
+    const recorded = describeEvents(eventsTouching(tx, [...fractions.keys()]));
 
     const codes = new Set([...fractions.keys(), ...recorded.flatMap((e) => [...e.inputs, ...e.outputs].map((x) => x.lot))]);
-    const rows = tx
-      .select({ code: lots.code, kind: lots.kind, unit: lots.unit, variety: lots.variety, cropYear: lots.cropYear, grade: lots.grade, attributes: lots.attributes, onHand: lots.onHand, holderId: lots.partyId })
-      .from(lots)
-      .where(inArray(lots.code, [...codes]))
-      .all();
+    const rows = tx.all<LotRef & { attributes: string; onHand: number; holderId: string }>(sql`
+      select code, kind, unit, variety, crop_year as cropYear, grade, attributes, on_hand as onHand, party_id as holderId
+      from lots where code in (select value from json_each(${JSON.stringify([...codes])}))`);
     const partyIds = new Set([...rows.map((r) => r.holderId), ...recorded.flatMap((e) => [e.party.id, e.counterparty?.id ?? e.party.id])]);
-    const partyMap = new Map(tx.select({ id: parties.id, kind: parties.kind, name: parties.name, address: parties.address }).from(parties).where(inArray(parties.id, [...partyIds])).all().map((p) => [p.id, p]));
+    const partyMap = new Map(
+      tx.all<RecallParty>(sql`select id, kind, name, address from parties where id in (select value from json_each(${JSON.stringify([...partyIds])}))`).map((p) => [p.id, p]),
+    );
     const refs = new Map(rows.map(({ attributes, onHand: _o, holderId: _h, ...r }) => [r.code, { ...r, gtin: gtinOf(attributes) }]));
-    const recallLots = rows
-      .filter((r) => fractions.has(r.code))
-      .map((r) => ({ ...refs.get(r.code)!, fraction: fractions.get(r.code)!, onHand: r.onHand, holder: partyMap.get(r.holderId)! }));
-    const order = [...fractions.keys()];
-    recallLots.sort((a, b) => order.indexOf(a.code) - order.indexOf(b.code));
+    const byCode = new Map(rows.map((r) => [r.code, r]));
+    // In the order of `fractions`: the recalled lot, then the reached lots as they were made.
+    const recallLots = [...fractions].flatMap(([code, fraction]) => {
+      const r = byCode.get(code);
+      return r ? [{ ...refs.get(code)!, fraction, onHand: r.onHand, holder: partyMap.get(r.holderId)! }] : [];
+    });
     return { lot: { code: head.code, kind: head.kind }, lots: recallLots, events: recorded, refs, parties: partyMap };
   });
+}
+
+/** Every event that drew from, added to or moved one of these lots, and the corrections of those events. */
+function eventsTouching(tx: Pick<ReturnType<typeof getDb>, "all">, codes: string[]): number[] {
+  return tx
+    .all<{ id: number }>(sql`
+      with reached(id) as (select id from lots where code in (select value from json_each(${JSON.stringify(codes)}))),
+      touching(id) as (
+        select event_id from event_inputs where lot_id in reached
+        union select event_id from event_outputs where lot_id in reached
+      )
+      select id from touching union select id from events where corrects in touching`)
+    .map((r) => r.id);
 }
 
 function gtinOf(attributes: string): string | null {
