@@ -19,7 +19,12 @@ export function readVarietyList(db: DbOrTx = getDb()): Variety[] {
  * API and the CSV import alike), and the message says where the office adds one.
  */
 export function requireListedVariety(db: DbOrTx, typed: string, t: Translate): string {
-  const name = listedVariety(readVarietyList(db), typed);
+  return requireOnList(readVarietyList(db), typed, t);
+}
+
+/** The same, against a list already read (an import reads it once for all its rows). */
+export function requireOnList(list: readonly Variety[], typed: string, t: Translate): string {
+  const name = listedVariety(list, typed);
   if (!name) throw invalid({ variety: [t("varietyList.notListed")] });
   return name;
 }
