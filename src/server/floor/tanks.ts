@@ -54,12 +54,19 @@ function waterInto(tankId: number): number {
  * Readings from before the strength was recorded count as 95 %, the most they can weigh.
  */
 export function addedAlcohol(tankId: number): { kg: number; kg95: number } {
-  const row = getDb().get<{ kg: number | null; kg95: number | null }>(sql`
-    select sum(m.value) as kg, sum(m.value * coalesce(s.value, ${REFERENCE_ALCOHOL_PCT}) / ${REFERENCE_ALCOHOL_PCT}) as kg95
+  return addedAlcoholOf([tankId]).get(tankId) ?? { kg: 0, kg95: 0 };
+}
+
+/** The same for many tanks in one read (a blend's claims weigh every tank behind it). */
+export function addedAlcoholOf(tankIds: number[]): Map<number, { kg: number; kg95: number }> {
+  const rows = getDb().all<{ tank: number; kg: number | null; kg95: number | null }>(sql`
+    select m.lot_id as tank, sum(m.value) as kg, sum(m.value * coalesce(s.value, ${REFERENCE_ALCOHOL_PCT}) / ${REFERENCE_ALCOHOL_PCT}) as kg95
     from measurements m join events e on e.id = m.event_id
     left join measurements s on s.event_id = m.event_id and s.lot_id = m.lot_id and s.name = ${ADDED_ALCOHOL_STRENGTH_PCT}
-    where m.lot_id = ${tankId} and m.name = ${ADDED_ALCOHOL_KG} and not exists (select 1 from events c where c.corrects = e.id)`);
-  return { kg: row?.kg ?? 0, kg95: row?.kg95 ?? 0 };
+    where m.lot_id in (select value from json_each(${JSON.stringify(tankIds)})) and m.name = ${ADDED_ALCOHOL_KG}
+      and not exists (select 1 from events c where c.corrects = e.id)
+    group by m.lot_id`);
+  return new Map(rows.map((r) => [r.tank, { kg: r.kg ?? 0, kg95: r.kg95 ?? 0 }]));
 }
 
 export function tankSummary(actor: SessionUser, code: string) {

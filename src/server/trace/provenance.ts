@@ -2,7 +2,8 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import { originsByWeight, originStatement, sharesBy } from "@/domain/origin";
 import type { Translate } from "@/lib/validation/field-errors";
-import { ancestorsOfKind, claimsForLot } from "./claims";
+import { ancestryOf, lotsOfKindUp, type Ancestry } from "./ancestry";
+import { claimsForLot } from "./claims";
 import { getDb } from "../platform/db";
 import { notFound } from "../platform/errors";
 import { productOfLot } from "../ledger/products";
@@ -44,9 +45,9 @@ function namedGrowers(lotId: number, contentIn: number) {
 }
 
 /** The provenance answer for any lot: what sales tell a buyer, built from the lineage. */
-export function provenanceOf(head: Head, t: Translate, claims: ReturnType<typeof claimsForLot> | null) {
+export function provenanceOf(head: Head, t: Translate, claims: ReturnType<typeof claimsForLot> | null, ancestry: Ancestry = ancestryOf(head.id)) {
   const { sources, growers } = namedGrowers(head.id, head.contentIn);
-  const ratios = [...new Set(ancestorsOfKind(head.id, "polished").map((p) => p.polishingRatioPct).filter((r): r is number => r !== null))];
+  const ratios = [...new Set(lotsOfKindUp(ancestry, head.id, "polished").map((p) => p.polishingRatioPct).filter((r): r is number => r !== null))];
   return {
     lot: { code: head.code, kind: head.kind },
     varieties: sharesBy(sources, (s) => s.variety ?? "unknown", (s) => s.share),
@@ -66,7 +67,9 @@ export type Provenance = ReturnType<typeof provenanceOf>;
 
 export function provenanceFor(actor: SessionUser, code: string, t: Translate): Provenance {
   const head = traceHead(actor, code);
-  return provenanceOf(head, t, CLAIMABLE.includes(head.kind) ? claimsForLot(head, t) : null);
+  // The claims and the card read the same lineage: it is walked once.
+  const ancestry = ancestryOf(head.id);
+  return provenanceOf(head, t, CLAIMABLE.includes(head.kind) ? claimsForLot(head, t, ancestry) : null, ancestry);
 }
 
 /**
@@ -83,5 +86,6 @@ export function findBottling(gtin14: string, lotCode: string) {
 
 export function publicProvenance(gtin14: string, lotCode: string, t: Translate) {
   const bottling = findBottling(gtin14, lotCode);
-  return { bottling, provenance: provenanceOf(bottling, t, claimsForLot(bottling, t)) };
+  const ancestry = ancestryOf(bottling.id);
+  return { bottling, provenance: provenanceOf(bottling, t, claimsForLot(bottling, t, ancestry), ancestry) };
 }

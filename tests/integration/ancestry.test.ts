@@ -1,0 +1,93 @@
+import { beforeAll, describe, expect, it } from "vitest";
+import { getSqlite } from "@/server/platform/db";
+import { kojiFraction } from "@/server/floor/tanks";
+import { ancestryOf, lotsOfKindUp } from "@/server/trace/ancestry";
+import { claimsForLot } from "@/server/trace/claims";
+
+// A branching ledger written row by row: two tanks from koji, steamed and polished rice, their
+// sake, two blends of both, a blend of those blends (with a direct share of one sake), and a
+// bottling. Two links were recorded and then reversed (a corrected mistake), and one link was
+// recorded in two parts. The walk of distinct lots must give what the path-by-path walk gives.
+const lots: [code: string, kind: string, contentIn: number, ratio: number | null][] = [
+  ["AX-H1", "harvest", 1000, null], ["AX-H2", "harvest", 1000, null],
+  ["AX-P1", "polished", 500, 50], ["AX-P2", "polished", 600, 60], ["AX-P3", "polished", 700, 70],
+  ["AX-K1", "koji", 100, 50], ["AX-S1", "steamed", 200, 60], ["AX-K2", "koji", 80, 60],
+  ["AX-T1", "tank", 300, 60], ["AX-T2", "tank", 400, 60],
+  ["AX-A", "sake", 300, 60], ["AX-B", "sake", 400, 60],
+  ["AX-X", "blend", 300, 60], ["AX-Y", "blend", 400, 60], ["AX-Z", "blend", 450, 60], ["AX-BT", "bottled", 450, 60],
+];
+const edges: [parent: string, child: string, weight: number][] = [
+  ["AX-H1", "AX-P1", 500], ["AX-H2", "AX-P2", 600], ["AX-H1", "AX-P3", 700],
+  ["AX-P1", "AX-K1", 100], ["AX-P2", "AX-S1", 200], ["AX-P2", "AX-K2", 80],
+  ["AX-K1", "AX-T1", 100], ["AX-S1", "AX-T1", 200],
+  ["AX-K2", "AX-T2", 80], ["AX-P2", "AX-T2", 320], ["AX-P3", "AX-T2", 100], ["AX-P3", "AX-T2", -100],
+  ["AX-T1", "AX-A", 300], ["AX-T2", "AX-B", 400],
+  ["AX-A", "AX-X", 100], ["AX-B", "AX-X", 200],
+  ["AX-A", "AX-Y", 150], ["AX-A", "AX-Y", 50], ["AX-B", "AX-Y", 200],
+  ["AX-X", "AX-Z", 300], ["AX-Y", "AX-Z", 100], ["AX-A", "AX-Z", 50], ["AX-B", "AX-Z", 30], ["AX-B", "AX-Z", -30],
+  ["AX-Z", "AX-BT", 450],
+];
+
+/** The walk the provenance card used before: every path, fractions multiplied along each. */
+function pathByPath(lotId: number, kind: "tank" | "polished") {
+  return getSqlite()
+    .prepare(
+      `with recursive up(lot_id, frac) as (
+        select ?, 1.0
+        union all
+        select e.parent_lot_id, up.frac * e.weight / c.content_in
+        from up join lots c on c.id = up.lot_id join lineage_edges e on e.child_lot_id = up.lot_id
+        where c.kind not in (?, 'harvest') and c.content_in > 0
+      )
+      select l.id, sum(up.frac) as fraction from up join lots l on l.id = up.lot_id
+      where l.kind = ? group by l.id having abs(sum(up.frac)) > 1e-9 order by l.id`,
+    )
+    .all(lotId, kind, kind) as { id: number; fraction: number }[];
+}
+
+const idOf = (code: string) => (getSqlite().prepare("select id from lots where code = ?").get(code) as { id: number }).id;
+
+beforeAll(() => {
+  const db = getSqlite();
+  const party = (db.prepare("select id from parties where kind = 'brewery' limit 1").get() as { id: string }).id;
+  const user = (db.prepare("select id from users limit 1").get() as { id: string }).id;
+  const event = db.prepare("insert into events (step, at, recorded_at, user_id, party_id) values ('blending', 0, 0, ?, ?)").run(user, party).lastInsertRowid;
+  const lot = db.prepare("insert into lots (code, kind, unit, party_id, origin_party_id, polishing_ratio_pct, content_in, quantity_in, on_hand, created_at) values (?, ?, 'kg', ?, ?, ?, ?, ?, 0, 0)");
+  for (const [code, kind, contentIn, ratio] of lots) lot.run(code, kind, party, party, ratio, contentIn, contentIn);
+  const edge = db.prepare("insert into lineage_edges (event_id, parent_lot_id, child_lot_id, weight) values (?, ?, ?, ?)");
+  for (const [parent, child, weight] of edges) edge.run(event, idOf(parent), idOf(child), weight);
+});
+
+describe("the walk of distinct lots behind a lot", () => {
+  it("gives the lots and fractions of the path-by-path walk, from every lot of the fixture", () => {
+    for (const [code] of lots) {
+      const ancestry = ancestryOf(idOf(code));
+      for (const kind of ["tank", "polished"] as const) {
+        const expected = pathByPath(idOf(code), kind);
+        const got = lotsOfKindUp(ancestry, idOf(code), kind);
+        expect(got.map((l) => l.id), `${kind} behind ${code}`).toEqual(expected.map((l) => l.id));
+        got.forEach((l, n) => expect(l.fraction).toBeCloseTo(expected[n]!.fraction, 12));
+      }
+    }
+  });
+
+  it("finds both tanks behind the bottling, and the corrected polished lot drops out", () => {
+    const bottle = idOf("AX-BT");
+    const ancestry = ancestryOf(bottle);
+    expect(lotsOfKindUp(ancestry, bottle, "tank").map((l) => l.code)).toEqual(["AX-T1", "AX-T2"]);
+    expect(lotsOfKindUp(ancestry, bottle, "polished").map((l) => l.code)).toEqual(["AX-P1", "AX-P2"]);
+    // Z: X 300 (A 1/3, B 2/3), Y 100 (A 1/2, B 1/2), A 50 → A (100 + 50 + 50) / 450.
+    expect(lotsOfKindUp(ancestry, bottle, "tank")[0]!.fraction).toBeCloseTo(200 / 450, 12);
+  });
+
+  it("gives each tank the koji share and least-polished rice of the path-by-path walks", () => {
+    const claims = claimsForLot({ id: idOf("AX-BT"), code: "AX-BT", kind: "bottled" }, (key) => key);
+    for (const tank of claims.tanks) {
+      const ratios = pathByPath(idOf(tank.code), "polished").map((p) => lots.find(([c]) => idOf(c) === p.id)![3]!);
+      expect(tank.polishingRatioPct).toBe(Math.max(...ratios));
+      expect(tank.kojiRatioPct).toBeCloseTo(kojiFraction(idOf(tank.code)) * 100, 12);
+    }
+    expect(claims.tanks.map((t) => [t.code, t.polishingRatioPct])).toEqual([["AX-T1", 60], ["AX-T2", 60]]);
+    expect(claims.tanks[1]!.kojiRatioPct).toBeCloseTo(20, 12);
+  });
+});
