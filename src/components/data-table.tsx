@@ -13,8 +13,11 @@ import {
 } from "@tanstack/react-table";
 import { useState } from "react";
 import { useTranslations } from "next-intl";
-import { csvText, saveCsvFile } from "@/lib/validation/csv";
-import { encodeShiftJis, firstMisfitCell, fitsShiftJis } from "@/lib/shift-jis";
+
+// The CSV writer (papaparse, and zod through the import schemas beside it) and the Shift_JIS
+// table load on the first download, not with every page that shows a table.
+const csvTools = () => import("@/lib/validation/csv");
+const shiftJisTools = () => import("@/lib/shift-jis");
 
 type Props<T> = {
   data: T[];
@@ -50,8 +53,13 @@ export function DataTable<T>({ data, columns, pageSize = 25, label, testId, expo
   });
   const rows = table.getRowModel().rows;
   // As the server's Shift_JIS downloads: a value Shift_JIS cannot hold is named, never written as "?".
-  function downloadShiftJis() {
-    const text = tableCsv(table).replace(/^\uFEFF/, "");
+  async function download() {
+    const { csvText, saveCsvFile } = await csvTools();
+    saveCsvFile(`${exportName}.csv`, tableCsv(table, csvText));
+  }
+  async function downloadShiftJis() {
+    const [{ csvText, saveCsvFile }, { encodeShiftJis, firstMisfitCell, fitsShiftJis }] = await Promise.all([csvTools(), shiftJisTools()]);
+    const text = tableCsv(table, csvText).replace(/^\uFEFF/, "");
     const bytes = encodeShiftJis(text);
     const misfit = bytes ? null : firstMisfitCell(text, fitsShiftJis);
     setCsvProblem(misfit ? te("csvNotShiftJis", misfit) : null);
@@ -68,7 +76,7 @@ export function DataTable<T>({ data, columns, pageSize = 25, label, testId, expo
         </label>
         <div className="flex items-center gap-3">
           <p className="text-sm text-ink-soft">{t("rows", { count: table.getFilteredRowModel().rows.length })}</p>
-          <button type="button" className="btn-quiet" title={tc("downloadTitle")} onClick={() => saveCsvFile(`${exportName}.csv`, tableCsv(table))}>
+          <button type="button" className="btn-quiet" title={tc("downloadTitle")} onClick={download}>
             {tc("download")}
           </button>
           <button type="button" className="text-sm underline" title={tc("encodings.shiftJisTitle")} aria-label={tc("encodings.shiftJisOf", { label: tc("download") })} data-testid={testId ? `${testId}-csv-sjis` : undefined} onClick={downloadShiftJis}>
@@ -141,7 +149,7 @@ export function DataTable<T>({ data, columns, pageSize = 25, label, testId, expo
  * each cell's plain value (what the column reads from the row, not what it draws), dates
  * as ISO 8601. Columns that only draw (no accessor) are left out.
  */
-export function tableCsv<T>(table: Table<T>): string {
+export function tableCsv<T>(table: Table<T>, csvText: (headers: string[], rows: unknown[][]) => string): string {
   const columns = table.getVisibleLeafColumns().filter((c) => c.accessorFn);
   const headers = columns.map((c) => (typeof c.columnDef.header === "string" ? c.columnDef.header : c.id));
   const rows = table.getPrePaginationRowModel().rows.map((row) => columns.map((c) => plainValue(row.getValue(c.id))));

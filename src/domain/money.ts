@@ -39,3 +39,6 @@ export function gramsOf(kg: number): number {
 }
 
 export const sumYen = (values: number[]) => values.reduce((a, v) => a + assertYen(v), 0);
+
+/** How the brewery pays a supplier; a plain list so the payment form needs no validation library in the browser. */
+export const PAYMENT_METHODS = ["bank-transfer", "cash", "offset", "other"] as const;

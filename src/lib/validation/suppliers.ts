@@ -2,7 +2,7 @@ import { z } from "zod";
 import { GRADES, hundredthsOf, MAX_MOISTURE_PCT } from "@/domain/grades";
 import type { MoistureStepPct } from "@/domain/supplier-prices";
 import { isInvoiceNumber, normaliseInvoiceNumber } from "@/domain/invoice-number";
-import { ROUNDINGS } from "@/domain/money";
+import { PAYMENT_METHODS, ROUNDINGS } from "@/domain/money";
 import { ENTRY_RATES } from "@/domain/tax";
 import { fieldErrorsFrom, type Translate } from "./field-errors";
 import { typedNumber } from "./typed";
@@ -49,7 +49,7 @@ export const millContractSchema = z.object({
 });
 export type MillContractInput = z.infer<typeof millContractSchema>;
 
-export const PAYMENT_METHODS = ["bank-transfer", "cash", "offset", "other"] as const;
+export { PAYMENT_METHODS };
 
 export const paymentSchema = z.object({
   date: day,

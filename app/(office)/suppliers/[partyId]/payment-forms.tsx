@@ -5,7 +5,7 @@ import { useTranslations } from "next-intl";
 import { useYen } from "@/components/supplier-account";
 import { FormField } from "@/components/ui/form-field";
 import { parseTypedNumber } from "@/domain/typed-input";
-import { PAYMENT_METHODS } from "@/lib/validation/suppliers";
+import { PAYMENT_METHODS } from "@/domain/money";
 import { recordPaymentAction, reversePaymentAction } from "./actions";
 import { Select, SupplierForm, useSupplierForm } from "./components";
 
