@@ -23,10 +23,11 @@ type Target = { id: number; code: string };
 
 /** The lots a recall reached (the recalled lot first), with their ids. */
 function reachedLots(actor: SessionUser, code: string): Target[] {
-  const recall = loadRecall(actor, code);
+  const recall = loadRecall(actor, code, []); // the lots only: a hold needs no event
   const codes = recall.lots.map((l) => l.code);
   const rows = getDb().select({ id: lots.id, code: lots.code }).from(lots).where(inArray(lots.code, codes)).all();
-  return rows.sort((a, b) => codes.indexOf(a.code) - codes.indexOf(b.code));
+  const order = new Map(codes.map((c, i) => [c, i]));
+  return rows.sort((a, b) => order.get(a.code)! - order.get(b.code)!);
 }
 
 function append(actor: SessionUser, targets: Target[], action: "hold" | "release", input: HoldInput, recallCode: string) {

@@ -1,5 +1,6 @@
 import "server-only";
 import { sql } from "drizzle-orm";
+import type { EVENT_STEPS } from "@/db/schema";
 import { timeAtOffset } from "@/domain/epcis-vocabulary";
 import { can, type Actor } from "@/domain/permissions";
 import { csvText } from "@/lib/validation/csv";
@@ -9,6 +10,8 @@ import { forbidden } from "../platform/errors";
 import { describeEvents, type LotEvent } from "../ledger/lot-events";
 import { descendantsOf, traceHead } from "./trace";
 import type { SessionUser } from "../accounts/session";
+
+type EventStep = (typeof EVENT_STEPS)[number];
 
 /** Who may run a recall: the roles that read provenance or every record. */
 export const canReadRecall = (actor: Actor | null) => can(actor, "provenance:read") || can(actor, "records:read-all");
@@ -32,12 +35,12 @@ export type Recall = {
  * repeated to the end). Read in one transaction, so the lots and events agree. Every set of
  * lots or events goes to SQLite as one JSON parameter: a wide recall names thousands.
  */
-export function loadRecall(actor: SessionUser, code: string): Recall {
+export function loadRecall(actor: SessionUser, code: string, steps: "all" | readonly EventStep[] = "all"): Recall {
   if (!canReadRecall(actor)) throw forbidden();
   return getDb().transaction((tx) => {
     const head = traceHead(actor, code);
     const fractions = new Map<string, number>([[head.code, 1], ...descendantsOf(head).map((r) => [r.code, r.fraction] as const)]);
-    const recorded = describeEvents(eventsTouching(tx, [...fractions.keys()]));
+    const recorded = describeEvents(eventsTouching(tx, [...fractions.keys()], steps));
 
     const codes = new Set([...fractions.keys(), ...recorded.flatMap((e) => [...e.inputs, ...e.outputs].map((x) => x.lot))]);
     const rows = tx.all<LotRef & { attributes: string; onHand: number; holderId: string }>(sql`
@@ -58,17 +61,23 @@ export function loadRecall(actor: SessionUser, code: string): Recall {
   });
 }
 
-/** Every event that drew from, added to or moved one of these lots, and the corrections of those events. */
-function eventsTouching(tx: Pick<ReturnType<typeof getDb>, "all">, codes: string[]): number[] {
-  return tx
-    .all<{ id: number }>(sql`
-      with reached(id) as (select id from lots where code in (select value from json_each(${JSON.stringify(codes)}))),
-      touching(id) as (
-        select event_id from event_inputs where lot_id in reached
-        union select event_id from event_outputs where lot_id in reached
-      )
-      select id from touching union select id from events where corrects in touching`)
-    .map((r) => r.id);
+/**
+ * Every event that drew from, added to or moved one of these lots, and the corrections of those
+ * events; or only the events of the given steps (the page lists shipments, holds need no event).
+ */
+function eventsTouching(tx: Pick<ReturnType<typeof getDb>, "all">, codes: string[], steps: "all" | readonly EventStep[]): number[] {
+  if (steps !== "all" && !steps.length) return [];
+  const touching = sql`
+    with reached(id) as (select id from lots where code in (select value from json_each(${JSON.stringify(codes)}))),
+    touching(id) as (
+      select event_id from event_inputs where lot_id in reached
+      union select event_id from event_outputs where lot_id in reached
+    )`;
+  const ids =
+    steps === "all"
+      ? tx.all<{ id: number }>(sql`${touching} select id from touching union select id from events where corrects in touching`)
+      : tx.all<{ id: number }>(sql`${touching} select id from events where id in touching and step in (select value from json_each(${JSON.stringify(steps)}))`);
+  return ids.map((r) => r.id);
 }
 
 function gtinOf(attributes: string): string | null {
@@ -119,15 +128,18 @@ export function recallRows(recall: Recall): RecallRow[] {
     for (const o of e.outputs) if (!createdBy.has(o.lot) || createdBy.get(o.lot)! > e.id) createdBy.set(o.lot, e.id);
   }
   const rows: RecallRow[] = [];
+  const time = new Map<RecallRow, number>();
   for (const e of recall.events) {
     if (e.step === "measuring") continue;
+    const at = timeAtOffset(new Date(e.at));
+    const ms = Date.parse(e.at);
     const party = recall.parties.get(e.party.id);
     const counterparty = e.counterparty ? recall.parties.get(e.counterparty.id) : undefined;
     const correction = e.step === "correcting";
     const line = (code: string, quantity: number, entry: RecallEntry) => {
       const lot = byLot.get(code)!;
-      rows.push({
-        at: timeAtOffset(new Date(e.at)),
+      const row: RecallRow = {
+        at,
         lot: code,
         kind: lot.kind,
         variety: lot.variety,
@@ -146,7 +158,9 @@ export function recallRows(recall: Recall): RecallRow[] {
         corrects: e.corrects,
         correctedBy: e.correctedBy,
         reason: e.reason,
-      });
+      };
+      rows.push(row);
+      time.set(row, ms);
     };
     for (const i of e.inputs) {
       if (!byLot.has(i.lot) || i.use === "observe") continue;
@@ -158,18 +172,33 @@ export function recallRows(recall: Recall): RecallRow[] {
       line(o.lot, o.quantity, correction ? "returned" : createdBy.get(o.lot) === e.id ? "created" : "added");
     }
   }
-  return rows.sort((a, b) => Date.parse(a.at) - Date.parse(b.at) || a.lot.localeCompare(b.lot) || a.eventId - b.eventId);
+  // The instants and the collator are taken once: a wide recall sorts thousands of lines.
+  return rows.sort((a, b) => time.get(a)! - time.get(b)! || byCode.compare(a.lot, b.lot) || a.eventId - b.eventId);
 }
+
+/** `localeCompare` in the default locale, as one collator. */
+const byCode = new Intl.Collator();
 
 const COLUMNS = ["date", "lot", "product", "quantity", "unit", "entry", "event", "location", "counterparty", "referenceDoc", "fraction", "party", "recordedBy", "eventId", "corrects", "correctedBy", "reason"] as const;
 
 /** The spreadsheet itself; csvText guards cells against formula injection (OWASP, "CSV Injection"). */
 export function recallCsv(rows: RecallRow[], t: Translate): string {
-  const product = (r: RecallRow) => (r.variety ? t("recall.product", { kind: t(`lot.kinds.${r.kind}`), variety: r.variety }) : t(`lot.kinds.${r.kind}`));
+  // A few dozen distinct labels over thousands of lines: each is translated once.
+  const label = once((key: string) => t(key));
+  const product = once((kindAndVariety: string) => {
+    const [kind, variety] = JSON.parse(kindAndVariety) as [string, string | null];
+    return variety ? t("recall.product", { kind: label(`lot.kinds.${kind}`), variety }) : label(`lot.kinds.${kind}`);
+  });
   return csvText(
     COLUMNS.map((c) => t(`recall.columns.${c}`)),
-    rows.map((r) => [r.at, r.lot, product(r), r.quantity, r.unit, t(`recall.entries.${r.entry}`), t(`steps.${r.step}`), r.location, r.counterparty, r.referenceDoc, r.fraction, r.party, r.recordedBy, r.eventId, r.corrects ?? "", r.correctedBy ?? "", r.reason]),
+    rows.map((r) => [r.at, r.lot, product(JSON.stringify([r.kind, r.variety])), r.quantity, r.unit, label(`recall.entries.${r.entry}`), label(`steps.${r.step}`), r.location, r.counterparty, r.referenceDoc, r.fraction, r.party, r.recordedBy, r.eventId, r.corrects ?? "", r.correctedBy ?? "", r.reason]),
   );
+}
+
+/** A function of one string, remembered. */
+function once(f: (key: string) => string): (key: string) => string {
+  const seen = new Map<string, string>();
+  return (key) => seen.get(key) ?? (seen.set(key, f(key)), seen.get(key)!);
 }
 
 /** Shipments that left for a buyer: the lines a recall notice goes out on. */
