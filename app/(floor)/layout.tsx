@@ -1,8 +1,8 @@
-import Link from "next/link";
 import { NextIntlClientProvider } from "next-intl";
 import { redirect } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { BrandMark } from "@/components/brand-mark";
+import { FloorLink } from "@/components/floor/floor-link";
 import { FloorNav } from "@/components/floor/floor-nav";
 import { QueuePanel } from "@/components/floor/queue-panel";
 import { UserBar } from "@/components/user-bar";
@@ -19,10 +19,10 @@ export default async function FloorLayout({ children }: { children: React.ReactN
     <NextIntlClientProvider>
     <div className="min-h-dvh bg-ink text-paper">
       <header className="flex items-center justify-between gap-3 border-b-4 border-koji px-4 py-3">
-        <Link href="/scan" className="flex min-h-12 items-center gap-2 text-paper no-underline">
+        <FloorLink href="/scan" className="flex min-h-12 items-center gap-2 text-paper no-underline">
           <BrandMark className="h-10 w-10" />
           <span className="font-[family-name:var(--font-display)] text-2xl font-bold">{t("nav.scan")}</span>
-        </Link>
+        </FloorLink>
         <UserBar user={user} signOut={signOutAction} setLanguage={setLanguageAction} />
       </header>
       <FloorNav actor={user} />

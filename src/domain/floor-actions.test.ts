@@ -1,5 +1,8 @@
 import { describe, expect, it } from "vitest";
-import { actionsFor, daysSince, floorOffer, portionOf } from "./floor-actions";
+import { actionsFor, daysSince, floorOffer, floorRights, offerFor, portionOf, STEP_OF_ACTION, type FloorAction, type FloorLot, type FloorOffer } from "./floor-actions";
+import { can, canActOnLot, type Actor } from "./permissions";
+import { ROLES } from "./roles";
+import { LOT_KIND_LIST, STEP_RULES, type LotKind } from "./steps";
 
 describe("floor actions by stage (the order of work on a brewery floor, common practice)", () => {
   it("follows the rice from polished to bottle", () => {
@@ -62,5 +65,36 @@ describe("what the floor card offers (custody rules of DEVELOPERS.md)", () => {
     expect(floorOffer(admin, lot("mill"))).toEqual({ state: "actions", actions: ["soak"] });
     // A miller holding steamed rice may not record brewing steps (src/domain/steps.ts).
     expect(floorOffer(miller, { ...lot("mill"), kind: "steamed" })).toEqual({ state: "actions", actions: ["koji-check"] });
+  });
+});
+
+describe("the scan screen's rights (computed on the server) offer what the role map offers", () => {
+  // The rule as it was before the phone got rights instead of the permission map, written
+  // straight from the role map and the step rules: an independent reference.
+  const reference = (actor: Actor, lot: FloorLot): FloorOffer => {
+    if (lot.inTransitTo) return { state: "in-transit", to: lot.inTransitTo.name };
+    if (!canActOnLot(actor, { partyId: lot.party.id })) return { state: "held-elsewhere", by: lot.party.name };
+    const may = (a: FloorAction) => [STEP_RULES[STEP_OF_ACTION[a]].permission].flat().some((p) => can(actor, p));
+    return { state: "actions", actions: actionsFor(lot.kind as LotKind, lot.attributes).filter((a) => may(a) && (!lot.hold || STEP_OF_ACTION[a] === "measuring")) };
+  };
+  const attributeSets = [{}, { use: "koji" }, { use: "starter" }, { use: "mash" }, { use: "mash", addition: "first" }];
+  const parties = [{ id: "brewery", name: "Brewery" }, { id: "mill", name: "Kawabe Mill" }];
+
+  it("for every role, kind, holder, hold and journey", () => {
+    let compared = 0;
+    for (const role of ROLES) {
+      const actor: Actor = { id: `u-${role}`, role, partyId: "brewery" };
+      const rights = floorRights(actor);
+      for (const kind of LOT_KIND_LIST)
+        for (const attributes of attributeSets)
+          for (const party of parties)
+            for (const hold of [undefined, { reason: "check" }])
+              for (const inTransitTo of [undefined, parties[0]]) {
+                const lot: FloorLot = { kind, attributes, party, hold, ...(inTransitTo ? { inTransitTo } : {}) };
+                expect(offerFor(rights, lot)).toEqual(reference(actor, lot));
+                compared += 1;
+              }
+    }
+    expect(compared).toBe(ROLES.length * LOT_KIND_LIST.length * 40);
   });
 });

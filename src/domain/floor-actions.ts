@@ -1,85 +1,22 @@
-import { can, canActOnLot, type Actor, type Permission } from "./permissions";
-import { STEP_RULES, type LotKind, type RecordableStep } from "./steps";
+import { can, type Actor, type Permission } from "./permissions";
+import { FLOOR_ACTIONS, offerFor, STEP_OF_ACTION, type FloorLot, type FloorOffer, type FloorRights } from "./floor-offer";
+import { STEP_RULES, type RecordableStep } from "./steps";
 
-/**
- * What the floor offers after a scan, by the stage a lot is at. Each action is a floor
- * screen at /floor/{action}?lot={code}.
- */
-export const FLOOR_ACTIONS = ["soak", "steam", "split", "koji-check", "koji", "starter", "add", "measure", "press", "blend", "bottle"] as const;
-export type FloorAction = (typeof FLOOR_ACTIONS)[number];
+// The floor's pure rules (actions by stage, portions, the offer from rights) are in
+// floor-offer.ts, which client components import without the permission map.
+export * from "./floor-offer";
 
-/** The event each floor screen records (../shared/api.md steps). */
-export const STEP_OF_ACTION: Record<FloorAction, RecordableStep> = {
-  soak: "soaking",
-  steam: "steaming",
-  split: "splitting",
-  "koji-check": "measuring",
-  koji: "koji-making",
-  starter: "starter",
-  add: "mash-addition",
-  measure: "measuring",
-  press: "pressing",
-  blend: "blending",
-  bottle: "bottling",
-};
-
-/** The next likely step comes first: the floor's result screen offers it as one tap. */
-export function actionsFor(kind: LotKind, attributes: Record<string, unknown> = {}): FloorAction[] {
-  switch (kind) {
-    case "polished":
-      return ["soak"];
-    case "soaked":
-      return ["steam"];
-    case "steamed":
-      // Steamed rice can always be split again (koji, starter, each mash addition); a portion
-      // already meant for one use offers that use first. Mash rice not yet portioned per
-      // addition is split first (three additions, common practice).
-      if (attributes.use === "koji") return ["koji-check", "koji", "split"];
-      if (attributes.use === "starter") return ["starter", "split"];
-      if (attributes.use === "mash") return attributes.addition ? ["add", "split"] : ["split", "add"];
-      return ["split", "koji-check", "koji", "starter", "add"];
-    case "koji":
-      return ["starter", "add"];
-    case "starter":
-      return ["add"];
-    case "tank":
-      return ["add", "measure", "press"];
-    case "sake":
-    case "blend":
-      return ["bottle", "blend"];
-    default:
-      return [];
-  }
+/** A person's floor rights from their role, for the scan screen (see FloorRights); anyParty is canActOnLot's "lots:act-any". */
+export function floorRights(actor: Actor): FloorRights {
+  return { partyId: actor.partyId, anyParty: can(actor, "lots:act-any"), actions: FLOOR_ACTIONS.filter((a) => mayRecord(actor, STEP_OF_ACTION[a])) };
 }
 
-/** What a portion of rice is for: its addition for mash rice, else its use (null when mixed). */
-export function portionOf(attributes: Record<string, unknown>): "koji" | "starter" | "mash" | "first" | "middle" | "final" | null {
-  if (attributes.use === "mash") return attributes.addition === "first" || attributes.addition === "middle" || attributes.addition === "final" ? attributes.addition : "mash";
-  return attributes.use === "koji" || attributes.use === "starter" ? attributes.use : null;
-}
-
-export type FloorLot = { kind: string; attributes: Record<string, unknown>; party: { id: string; name: string }; inTransitTo?: { id: string; name: string }; hold?: unknown };
-export type FloorOffer = { state: "actions"; actions: FloorAction[] } | { state: "in-transit"; to: string } | { state: "held-elsewhere"; by: string };
-
-/**
- * What this person may record on this lot: nothing is drawn from a lot on its way to another
- * party, only the holder (or the office) acts on a lot, and a role sees only the steps it may
- * record (the same rules the server enforces in src/server/ledger/events.ts).
- */
+/** What this person may record on this lot (offerFor with their rights from the role). */
 export function floorOffer(actor: Actor, lot: FloorLot): FloorOffer {
-  if (lot.inTransitTo) return { state: "in-transit", to: lot.inTransitTo.name };
-  if (!canActOnLot(actor, { partyId: lot.party.id })) return { state: "held-elsewhere", by: lot.party.name };
-  // A lot on hold is drawn, shipped or bottled by no one until released; readings still go on.
-  const allowed = (a: FloorAction) => mayRecord(actor, STEP_OF_ACTION[a]) && (!lot.hold || STEP_OF_ACTION[a] === "measuring");
-  return { state: "actions", actions: actionsFor(lot.kind as LotKind, lot.attributes).filter(allowed) };
+  return offerFor(floorRights(actor), lot);
 }
 
 export function mayRecord(actor: Actor, step: RecordableStep): boolean {
   const permission: Permission | readonly Permission[] = STEP_RULES[step].permission;
   return (typeof permission === "string" ? [permission] : permission).some((p) => can(actor, p));
-}
-
-/** Days a polished lot has rested (polished rice is left to settle before soaking; common practice). */
-export function daysSince(fromIso: string, now: Date = new Date()): number {
-  return Math.floor((now.getTime() - new Date(fromIso).getTime()) / 86_400_000);
 }

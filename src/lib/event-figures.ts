@@ -1,4 +1,4 @@
-import { portionOf } from "@/domain/floor-actions";
+import { portionOf } from "@/domain/floor-offer";
 import { figureName, figureText } from "@/lib/quantity";
 import type { Translate } from "@/lib/validation/field-errors";
 

@@ -1,5 +1,5 @@
 import { useLocale, useTranslations } from "next-intl";
-import { quantityText } from "@/lib/quantity";
+import { quantityText } from "@/lib/amount";
 import type { Translate } from "@/lib/validation/field-errors";
 
 /** quantityText in the reader's language, for client components: amount(800, "bottle") → "800 bottles". */

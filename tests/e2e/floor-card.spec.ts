@@ -47,9 +47,12 @@ test("a mixed soak, timed; steaming and the split are each one tap away, and eve
   await form.getByRole("button", { name: "Record soak" }).click();
   await expect(result(page).getByRole("alert")).toHaveCount(0);
 
-  // The next likely step of the new lot is one tap away.
+  // The next likely step of the new lot is one tap away, and the tap is a client navigation
+  // (FloorLink), not a full page load: a mark left on the window survives it.
+  await page.evaluate(() => ((window as unknown as { floorMark: number }).floorMark = 1));
   await result(page).getByRole("link", { name: "Next: Steam" }).click();
   await expect(page).toHaveURL(/\/floor\/steam\?lot=SK26-\d{4}$/);
+  expect(await page.evaluate(() => (window as unknown as { floorMark?: number }).floorMark)).toBe(1);
   // The caution is one line; its details open on a tap.
   const caution = page.getByTestId("caution-steam");
   await expect(caution).toContainText("Steam and hot rice burn");

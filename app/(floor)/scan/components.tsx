@@ -6,7 +6,7 @@ import { FloorLotCard } from "@/components/floor/floor-lot-card";
 import { readRecentScans, rememberScan, RecentScans } from "@/components/floor/recent-scans";
 import { Scanner } from "@/components/floor/scanner";
 import { readScanText } from "@/lib/scan-text";
-import type { Actor } from "@/domain/permissions";
+import type { FloorRights } from "@/domain/floor-offer";
 import type { ApiLot } from "@/server/ledger/lots";
 
 export type ScanView =
@@ -17,7 +17,7 @@ export type ScanView =
   | { state: "not-found" | "offline" | "signed-out" | "failed"; code: string };
 
 /** Scan or type → the lot card. Typed codes also work without JavaScript (a GET form to /scan). */
-export function ScanScreen({ userId, actor, initial, typed }: { userId: string; actor: Actor; initial: ScanView; typed: string }) {
+export function ScanScreen({ userId, rights, initial, typed }: { userId: string; rights: FloorRights; initial: ScanView; typed: string }) {
   const t = useTranslations("floorScan");
   const format = useFormatter();
   const [view, setView] = useState<ScanView>(initial);
@@ -70,7 +70,7 @@ export function ScanScreen({ userId, actor, initial, typed }: { userId: string; 
     <div className="space-y-6">
       {/* The answer comes first: after a scan it is what the brewer looks at, without scrolling. */}
       <div aria-live="polite" data-testid="scan-result" ref={resultRef} className="scroll-mt-4 empty:hidden">
-        <ScanResult view={view} actor={actor} asOf={view.state === "lot" && view.asOf ? format.dateTime(new Date(view.asOf), "dayTime") : ""} />
+        <ScanResult view={view} rights={rights} userId={userId} asOf={view.state === "lot" && view.asOf ? format.dateTime(new Date(view.asOf), "dayTime") : ""} />
       </div>
       <div className="grid gap-5 sm:grid-cols-2">
         <Scanner onText={read} />
@@ -110,7 +110,7 @@ export function ScanScreen({ userId, actor, initial, typed }: { userId: string; 
   );
 }
 
-function ScanResult({ view, actor, asOf }: { view: ScanView; actor: Actor; asOf: string }) {
+function ScanResult({ view, rights, userId, asOf }: { view: ScanView; rights: FloorRights; userId: string; asOf: string }) {
   const t = useTranslations("floorScan.result");
   switch (view.state) {
     case "idle":
@@ -121,7 +121,7 @@ function ScanResult({ view, actor, asOf }: { view: ScanView; actor: Actor; asOf:
       return (
         <div className="space-y-3">
           {view.asOf ? <p role="status" className="notice-warn text-ink">{t("offline", { code: view.lot.code, time: asOf })}</p> : null}
-          <FloorLotCard lot={view.lot} actor={actor} />
+          <FloorLotCard lot={view.lot} rights={rights} userId={userId} />
         </div>
       );
     case "not-ours":

@@ -1,4 +1,5 @@
 import { getTranslations } from "next-intl/server";
+import { floorRights } from "@/domain/floor-actions";
 import { readScanText } from "@/lib/scan-text";
 import { findLot } from "@/server/ledger/lots";
 import { requirePagePermission } from "@/server/accounts/page-guard";
@@ -31,7 +32,7 @@ export default async function ScanPage({ searchParams }: { searchParams: Promise
         <h1 className="text-3xl font-bold">{t("title")}</h1>
         <p className="opacity-80">{t("intro")}</p>
       </header>
-      <ScanScreen userId={user.id} actor={{ id: user.id, role: user.role, partyId: user.partyId }} initial={initial} typed={lot?.code ?? reading?.code ?? typed} />
+      <ScanScreen userId={user.id} rights={floorRights(user)} initial={initial} typed={lot?.code ?? reading?.code ?? typed} />
     </div>
   );
 }

@@ -1,15 +1,17 @@
 "use client";
 
-import Link from "next/link";
 import { useFormatter, useTranslations } from "next-intl";
 import { useQuantity } from "@/lib/use-quantity";
-import { daysSince, floorOffer, mayRecord, portionOf, STEP_OF_ACTION } from "@/domain/floor-actions";
-import type { Actor } from "@/domain/permissions";
+import { daysSince, offerFor, portionOf, type FloorRights } from "@/domain/floor-offer";
 import type { ApiLot } from "@/server/ledger/lots";
 import { RecordMoisture } from "./record-moisture";
+import { FloorLink } from "./floor-link";
 
-/** What a brewer needs at arm's length after a scan, and the next steps as big buttons. */
-export function FloorLotCard({ lot, actor }: { lot: ApiLot; actor: Actor }) {
+/**
+ * What a brewer needs at arm's length after a scan, and the next steps as big buttons. The
+ * person's rights come worked out from the server (floorRights), not as the role map.
+ */
+export function FloorLotCard({ lot, rights, userId }: { lot: ApiLot; rights: FloorRights; userId: string }) {
   const t = useTranslations();
   const format = useFormatter();
   const amount = useQuantity();
@@ -23,7 +25,7 @@ export function FloorLotCard({ lot, actor }: { lot: ApiLot; actor: Actor }) {
     ["polishing-ratio", t("floorScan.card.polishingRatio"), lot.polishingRatioPct != null ? `${format.number(lot.polishingRatioPct, { maximumFractionDigits: 1 })} %` : ""],
     ["rested", t("floorScan.card.rested"), rested !== null ? t("floorScan.card.restedDays", { days: rested }) : ""],
   ];
-  const offer = floorOffer(actor, lot);
+  const offer = offerFor(rights, lot);
   const actions = offer.state === "actions" ? offer.actions : [];
 
   return (
@@ -52,18 +54,18 @@ export function FloorLotCard({ lot, actor }: { lot: ApiLot; actor: Actor }) {
         <ul className="grid gap-3 sm:grid-cols-2">
           {actions.map((action) => (
             <li key={action}>
-              <Link href={`/floor/${action}?lot=${encodeURIComponent(lot.code)}`} prefetch={false} className="btn min-h-16 w-full border-koji bg-koji text-xl text-ink no-underline hover:bg-koji-pale">
+              <FloorLink href={`/floor/${action}?lot=${encodeURIComponent(lot.code)}`} className="btn min-h-16 w-full border-koji bg-koji text-xl text-ink no-underline hover:bg-koji-pale">
                 {t(`floorScan.actions.${action}`)}
-              </Link>
+              </FloorLink>
             </li>
           ))}
         </ul>
       </nav>
-      {lot.kind === "polished" && offer.state === "actions" && mayRecord(actor, STEP_OF_ACTION.measure) ? <RecordMoisture key={lot.code} code={lot.code} userId={actor.id} /> : null}
+      {lot.kind === "polished" && offer.state === "actions" && rights.actions.includes("measure") ? <RecordMoisture key={lot.code} code={lot.code} userId={userId} /> : null}
       <p>
-        <Link href={`/lots/${encodeURIComponent(lot.code)}`} className="inline-flex min-h-12 items-center text-koji-pale">
+        <FloorLink href={`/lots/${encodeURIComponent(lot.code)}`} className="inline-flex min-h-12 items-center text-koji-pale">
           {t("floorScan.card.fullRecord", { code: lot.code })}
-        </Link>
+        </FloorLink>
       </p>
     </article>
   );

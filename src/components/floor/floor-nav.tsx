@@ -1,7 +1,7 @@
-import Link from "next/link";
 import { getTranslations } from "next-intl/server";
 import { OFFICE_NAV } from "@/components/nav-items";
 import type { Actor } from "@/domain/permissions";
+import { FloorLink } from "./floor-link";
 
 /**
  * The phone menu: the office screens a brewer reaches from the floor (bags arriving, the day's
@@ -17,9 +17,9 @@ export async function FloorNav({ actor }: { actor: Actor }) {
       <ul className="mx-auto flex max-w-xl gap-1 overflow-x-auto">
         {items.map((item) => (
           <li key={item.href}>
-            <Link href={item.href} className="flex min-h-12 items-center whitespace-nowrap rounded px-3 text-lg font-semibold text-paper hover:bg-cedar">
+            <FloorLink href={item.href} className="flex min-h-12 items-center whitespace-nowrap rounded px-3 text-lg font-semibold text-paper hover:bg-cedar">
               {t(item.label)}
-            </Link>
+            </FloorLink>
           </li>
         ))}
       </ul>

@@ -1,10 +1,10 @@
 "use client";
 
-import Link from "next/link";
 import { useTranslations } from "next-intl";
 import { useQuantity } from "@/lib/use-quantity";
-import { actionsFor, portionOf } from "@/domain/floor-actions";
+import { actionsFor, portionOf } from "@/domain/floor-offer";
 import type { LotKind } from "@/domain/steps";
+import { FloorLink } from "./floor-link";
 
 export type FloorWriteResult = { id: number; outputs: { code: string; kind: string; quantity: number; unit: string }[]; warnings: string[] };
 /** What the form sent for each output (a split portion's use and addition), in the same order. */
@@ -38,18 +38,18 @@ export function FloorResult({ result, sent, carried }: { result: FloorWriteResul
               </p>
               <p className="flex flex-wrap gap-3">
                 {next ? (
-                  <Link href={`/floor/${next}?lot=${encodeURIComponent(o.code)}`} prefetch={false} className="btn min-h-12" data-testid="next-step">
+                  <FloorLink href={`/floor/${next}?lot=${encodeURIComponent(o.code)}`} className="btn min-h-12" data-testid="next-step">
                     {t("nextStep", { step: tActions(next) })}
-                  </Link>
+                  </FloorLink>
                 ) : null}
-                <Link href={`/scan?code=${o.code}`} className="btn-quiet min-h-12">{t("openLot")}</Link>
-                <Link href={`/labels?codes=${o.code}&layout=bag`} className="btn-quiet min-h-12">{t("label")}</Link>
+                <FloorLink href={`/scan?code=${o.code}`} className="btn-quiet min-h-12">{t("openLot")}</FloorLink>
+                <FloorLink href={`/labels?codes=${o.code}&layout=bag`} className="btn-quiet min-h-12">{t("label")}</FloorLink>
               </p>
             </li>
           );
         })}
       </ul>
-      <Link href="/scan" className="btn-quiet min-h-12 w-full">{t("scanNext")}</Link>
+      <FloorLink href="/scan" className="btn-quiet min-h-12 w-full">{t("scanNext")}</FloorLink>
     </div>
   );
 }

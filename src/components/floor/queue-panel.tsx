@@ -1,9 +1,9 @@
 "use client";
 
-import Link from "next/link";
 import { useTranslations } from "next-intl";
 import { useEffect, useState } from "react";
 import { discardQueuedWrite, setQueueOwner, useQueueAutoFlush, useQueuedWrites } from "@/lib/offline-queue";
+import { FloorLink } from "./floor-link";
 
 function useOnline(): boolean {
   const [online, setOnline] = useState(true);
@@ -61,7 +61,7 @@ export function QueuePanel({ userId }: { userId: string }) {
               </span>
               {item.lastError ? (
                 <span className="flex flex-wrap gap-2">
-                  {item.fixHref ? <Link href={item.fixHref} className="btn min-h-12 px-3">{t("fix")}</Link> : null}
+                  {item.fixHref ? <FloorLink href={item.fixHref} className="btn min-h-12 px-3">{t("fix")}</FloorLink> : null}
                   <DiscardButton id={item.id} />
                 </span>
               ) : null}

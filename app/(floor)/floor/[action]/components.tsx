@@ -1,6 +1,5 @@
 "use client";
 
-import Link from "next/link";
 import { useEffect, useMemo, useState } from "react";
 import { useTranslations } from "next-intl";
 import { alcoholAs95Kg } from "@/domain/categories";
@@ -18,6 +17,7 @@ import type { ApiLot } from "@/server/ledger/lots";
 import { FloorResult, type SentOutput } from "@/components/floor/floor-result";
 import { SoakTimer } from "@/components/floor/soak-timer";
 import { useQuantity } from "@/lib/use-quantity";
+import { FloorLink } from "@/components/floor/floor-link";
 
 type Bands = { absorption: Record<RiceUse, Band>; gain: Record<RiceUse, Band>; koji: Record<KojiCheckpoint, Band> };
 type V = Record<string, string>;
@@ -211,7 +211,7 @@ export function FloorActionForm({ action, lot, bands, userId, queuedId, tanks = 
     return (
       <div className="space-y-4" data-testid="floor-queued">
         <p role="status" className="notice text-ink font-bold">{t("queued")}</p>
-        <Link href="/scan" className="btn-quiet min-h-12 w-full">{t("scanNext")}</Link>
+        <FloorLink href="/scan" className="btn-quiet min-h-12 w-full">{t("scanNext")}</FloorLink>
       </div>
     );
   }

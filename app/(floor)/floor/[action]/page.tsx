@@ -1,4 +1,3 @@
-import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { Caution, type CautionKind } from "@/components/caution";
@@ -11,6 +10,7 @@ import { requirePagePermission } from "@/server/accounts/page-guard";
 import { readSetting } from "@/server/platform/settings";
 import { freeTanks } from "@/server/floor/tank-register";
 import { FloorActionForm } from "./components";
+import { FloorLink } from "@/components/floor/floor-link";
 
 const CAUTIONS: Partial<Record<FloorAction, CautionKind>> = { steam: "steam", split: "steam", "koji-check": "koji", koji: "koji", add: "tank", measure: "tank", press: "tank" };
 
@@ -35,7 +35,7 @@ export default async function FloorActionPage({ params, searchParams }: { params
   const bands = { absorption: readSetting(db, "absorptionBands"), gain: readSetting(db, "steamGainBands"), koji: readSetting(db, "kojiBands") };
   return (
     <div className="space-y-5">
-      <p><Link href={code ? `/scan?code=${code}` : "/scan"} className="text-paper">← {t("floorForms.back")}</Link></p>
+      <p><FloorLink href={code ? `/scan?code=${code}` : "/scan"} className="text-paper">← {t("floorForms.back")}</FloorLink></p>
       <h1 className="text-3xl font-bold">{t(`floorForms.${action}.title`)}</h1>
       {caution ? <Caution kind={caution} /> : null}
       {offer && offer.state !== "actions" ? (
