@@ -3,9 +3,10 @@ import { sql } from "drizzle-orm";
 import { getDb } from "../platform/db";
 import { fractionsDown } from "./trace";
 
+/** A lot behind another; code, attributes and polishing ratio are read for tanks and polished lots only. */
 export type AncestorLot = { id: number; code: string; kind: string; contentIn: number; attributes: string | null; polishingRatioPct: number | null };
 
-/** The distinct lots behind a lot and the net edge (summed weights) between each pair of them. */
+/** The distinct lots behind a lot and the edges among them. */
 export type Ancestry = { lots: Map<number, AncestorLot>; parentsOf: Map<number, { parent: number; weight: number }[]> };
 
 /**
@@ -14,30 +15,32 @@ export type Ancestry = { lots: Map<number, AncestorLot>; parentsOf: Map<number, 
  * Lots with no content pass nothing on, so the walk stops there as the fraction walks do.
  */
 export function ancestryOf(lotId: number): Ancestry {
-  // Built as two JSON texts inside SQLite: thousands of rows cost more to hand to JavaScript one by one than to walk.
-  const row = getDb().get<{ nodes: string; edges: string }>(sql`
+  // Handed over as a few flat JSON arrays built inside SQLite: thousands of rows cost more to
+  // pass to JavaScript one by one than the walk itself. Codes and figures only where read.
+  const row = getDb().get<Record<"ids" | "kinds" | "contents" | "details" | "children" | "parents" | "weights", string>>(sql`
     with recursive up(lot_id) as (
       select ${lotId}
       union
       select e.parent_lot_id from up join lots c on c.id = up.lot_id join lineage_edges e on e.child_lot_id = up.lot_id
       where c.kind <> 'harvest' and c.content_in > 0
     )
-    select
-      (select json_group_array(json_array(c.id, c.code, c.kind, c.content_in, case when c.kind = 'tank' then c.attributes end, c.polishing_ratio_pct))
-        from up join lots c on c.id = up.lot_id) as nodes,
-      (select json_group_array(json_array(e.child_lot_id, e.parent_lot_id, e.weight))
-        from up join lots c on c.id = up.lot_id join lineage_edges e on e.child_lot_id = c.id
-        where c.kind <> 'harvest' and c.content_in > 0) as edges`)!;
+    select * from
+      (select json_group_array(c.id) as ids, json_group_array(c.kind) as kinds, json_group_array(c.content_in) as contents,
+         json_group_array(json_array(c.id, c.code, case when c.kind = 'tank' then c.attributes end, c.polishing_ratio_pct)) filter (where c.kind in ('tank', 'polished')) as details
+       from up join lots c on c.id = up.lot_id),
+      (select json_group_array(e.child_lot_id) as children, json_group_array(e.parent_lot_id) as parents, json_group_array(e.weight) as weights
+       from up join lots c on c.id = up.lot_id join lineage_edges e on e.child_lot_id = c.id
+       where c.kind <> 'harvest' and c.content_in > 0)`)!;
+  const [ids, kinds, contents] = [JSON.parse(row.ids) as number[], JSON.parse(row.kinds) as string[], JSON.parse(row.contents) as number[]];
   const lots = new Map<number, AncestorLot>();
-  for (const [id, code, kind, contentIn, attributes, polishingRatioPct] of JSON.parse(row.nodes) as [number, string, string, number, string | null, number | null][]) {
-    lots.set(id, { id, code, kind, contentIn, attributes, polishingRatioPct });
+  ids.forEach((id, n) => lots.set(id, { id, code: "", kind: kinds[n]!, contentIn: contents[n]!, attributes: null, polishingRatioPct: null }));
+  for (const [id, code, attributes, polishingRatioPct] of JSON.parse(row.details) as [number, string, string | null, number | null][]) {
+    Object.assign(lots.get(id)!, { code, attributes, polishingRatioPct });
   }
-  const net = new Map<number, Map<number, number>>();
-  for (const [child, parent, weight] of JSON.parse(row.edges) as [number, number, number][]) {
-    const sums = net.get(child) ?? net.set(child, new Map()).get(child)!;
-    sums.set(parent, (sums.get(parent) ?? 0) + weight);
-  }
-  const parentsOf = new Map([...net].map(([child, sums]) => [child, [...sums].map(([parent, weight]) => ({ parent, weight }))]));
+  // Every edge as recorded: a link and its reversal both pass, and cancel in the sums.
+  const [children, parents, weights] = [JSON.parse(row.children) as number[], JSON.parse(row.parents) as number[], JSON.parse(row.weights) as number[]];
+  const parentsOf = new Map<number, { parent: number; weight: number }[]>();
+  children.forEach((child, n) => (parentsOf.get(child) ?? parentsOf.set(child, []).get(child)!).push({ parent: parents[n]!, weight: weights[n]! }));
   return { lots, parentsOf };
 }
 
