@@ -1,7 +1,6 @@
 import "server-only";
 import { sql } from "drizzle-orm";
 import { getDb } from "../platform/db";
-import { fractionsDown } from "./trace";
 
 /** A lot behind another; code, attributes and polishing ratio are read for tanks and polished lots only. */
 export type AncestorLot = { id: number; code: string; kind: string; contentIn: number; attributes: string | null; polishingRatioPct: number | null };
@@ -54,19 +53,32 @@ export function fractionsUp(ancestry: Ancestry, start: number, stop: readonly st
     const lot = ancestry.lots.get(id);
     return lot !== undefined && lot.kind !== "harvest" && !stop.includes(lot.kind) && lot.contentIn > 0;
   };
-  // Only the edges the walk can take, so that Kahn's order is not held back by lots it never reaches.
-  const edges: { parent: number; child: number; weight: number; contentIn: number }[] = [];
+  // Edges counted only from lots the walk passes through, so that Kahn's order is not held back by lots it never reaches.
+  const waiting = new Map<number, number>();
   const seen = new Set([start]);
   const todo = [start];
   while (todo.length) {
     const id = todo.pop()!;
     if (!passesOn(id)) continue;
     for (const e of ancestry.parentsOf.get(id) ?? []) {
-      edges.push({ parent: id, child: e.parent, weight: e.weight, contentIn: ancestry.lots.get(id)!.contentIn });
+      waiting.set(e.parent, (waiting.get(e.parent) ?? 0) + 1);
       if (!seen.has(e.parent)) seen.add(e.parent) && todo.push(e.parent);
     }
   }
-  return fractionsDown(start, edges);
+  const fraction = new Map([[start, 1]]);
+  const ready = [start];
+  while (ready.length) {
+    const id = ready.pop()!;
+    if (!passesOn(id)) continue;
+    const [share, contentIn] = [fraction.get(id) ?? 0, ancestry.lots.get(id)!.contentIn];
+    for (const e of ancestry.parentsOf.get(id) ?? []) {
+      fraction.set(e.parent, (fraction.get(e.parent) ?? 0) + (share * e.weight) / contentIn);
+      const left = waiting.get(e.parent)! - 1;
+      waiting.set(e.parent, left);
+      if (left === 0) ready.push(e.parent);
+    }
+  }
+  return fraction;
 }
 
 /** Lots of one kind behind `start` with the fraction they gave, as `ancestorsOfKind` answers. */
