@@ -6,7 +6,7 @@ import { POST as postCommit } from "../../app/api/import/commit/route";
 import { POST as postPreview } from "../../app/api/import/preview/route";
 import { GET as getLotRoute } from "../../app/api/lots/[code]/route";
 import { GET as getLotEvents } from "../../app/api/lots/[code]/events/route";
-import { createLineCollector, type ImportKind } from "@/lib/validation/csv";
+import { createLineCollector, MAX_IMPORT_ROWS, type ImportKind } from "@/lib/validation/csv";
 import { POST as postEvent } from "../../app/api/events/route";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 
@@ -98,7 +98,7 @@ describe("harvest import", () => {
     const res = await call(postPreview, jsonRequest("/api/import/preview", { cookie: grower, body: { kind: "harvests", header: ["field", "variety", "cropYear", "brownKg", "moisture", "grade", "bags"], rows } }));
     expect(res.status).toBe(422);
     expect(res.body.error.fields.header).toEqual(['Unknown column "moisture".', "Missing columns: moisturePct."]);
-    const many = Array.from({ length: 5_001 }, (_, i) => ({ line: i + 2, cells: rows[0]!.cells }));
+    const many = Array.from({ length: MAX_IMPORT_ROWS + 1 }, (_, i) => ({ line: i + 2, cells: rows[0]!.cells }));
     const tooMany = await call(postPreview, jsonRequest("/api/import/preview", { cookie: grower, body: { kind: "harvests", header: fileRows("harvests-good.csv").header, rows: many } }));
     expect(tooMany.status).toBe(422);
     expect(tooMany.body.error.fields.rows).toBeDefined();

@@ -10,7 +10,7 @@ import { eventInputSchema, eventSchema, harvestSchema, lotCode } from "./events"
 export const IMPORT_KINDS = ["harvests", "receipts"] as const;
 export type ImportKind = (typeof IMPORT_KINDS)[number];
 
-export const MAX_IMPORT_ROWS = 5_000;
+export const MAX_IMPORT_ROWS = 10_000;
 export const MAX_IMPORT_BYTES = 2 * 1024 * 1024;
 
 /** Columns of each import, in template order; the optional ones may be left out of the header. */
