@@ -5,7 +5,8 @@
 import { beforeAll, describe, expect, it, vi } from "vitest";
 import type { FormState } from "@/lib/form-state";
 import { getSqlite } from "@/server/platform/db";
-import { loadRecall } from "@/server/trace/recall";
+import { loadRecall, recallRows, shipmentsToBuyers } from "@/server/trace/recall";
+import { pageOfLots, RECALL_PAGE_SIZE, recallHref, type ReachedLot } from "../../app/(office)/recall/table-view";
 import { correctEventAction, shipToBuyerAction } from "../../app/(office)/lots/[code]/actions";
 import { submit } from "../support/action-scope";
 import { signInAs } from "../support/api";
@@ -99,8 +100,35 @@ describe("the recall against a reference walk", () => {
         for (const line of [...e.inputs, ...e.outputs]) expect(recall.refs.get(line.lot)?.code).toBe(line.lot);
       });
       corrections += recall.events.filter((e) => e.step === "correcting").length;
+
+      // The page reads the shipping events only, the hold action no event: the same lots, the same shipments.
+      const shippingOnly = loadRecall(office, head.code, ["shipping"]);
+      expect(shippingOnly.lots).toEqual(recall.lots);
+      expect(shipmentsToBuyers(recallRows(shippingOnly))).toEqual(shipmentsToBuyers(recallRows(recall)));
+      expect(loadRecall(office, head.code, []).lots).toEqual(recall.lots);
     }
     // The shipment's return, at least, reached from every lot above the bottles.
     expect(corrections).toBeGreaterThan(0);
+  });
+});
+
+describe("the page's table of reached lots", () => {
+  const lot = (i: number, shippedToBuyer = false): ReachedLot => ({ code: `L-${i}`, kind: "bottled", unit: "bottle", fraction: 0.1, onHand: 1, holder: "Brewery", recalled: i === 0, shippedToBuyer, hold: null });
+  const lots = Array.from({ length: 2 * RECALL_PAGE_SIZE + 7 }, (_, i) => lot(i, i % 10 === 3));
+
+  it("shows a page at a time, every lot on exactly one page, the page number kept within the table", () => {
+    const pages = [1, 2, 3].map((page) => pageOfLots(lots, { code: "H1", page, onlyShipped: false }));
+    expect(pages.flatMap((p) => p.rows)).toEqual(lots);
+    expect(pages.map((p) => [p.from, p.to, p.pages])).toEqual([[1, 50, 3], [51, 100, 3], [101, 107, 3]]);
+    expect(pageOfLots(lots, { code: "H1", page: 99, onlyShipped: false }).page).toBe(3);
+    for (const odd of [Number.NaN, -4, 0, 1.5]) expect(pageOfLots(lots, { code: "H1", page: odd, onlyShipped: false }).page).toBe(1);
+    expect(pageOfLots([], { code: "H1", page: 1, onlyShipped: false })).toMatchObject({ rows: [], from: 0, to: 0, total: 0, pages: 1 });
+  });
+
+  it("shows only the lots shipped to buyers when asked, and keeps the view in the address", () => {
+    const shipped = pageOfLots(lots, { code: "H1", page: 1, onlyShipped: true });
+    expect(shipped.rows).toEqual(lots.filter((l) => l.shippedToBuyer));
+    expect(recallHref({ code: "H21-0003", page: 2, onlyShipped: true })).toBe("/recall?code=H21-0003&shipped=1&page=2");
+    expect(recallHref({ code: "H21-0003", page: 1, onlyShipped: false })).toBe("/recall?code=H21-0003");
   });
 });

@@ -1,25 +1,25 @@
-"use client";
-
 import Link from "next/link";
-import { useState } from "react";
-import { useFormatter, useTranslations } from "next-intl";
-import { useQuantity } from "@/lib/use-quantity";
+import { getFormatter, getTranslations } from "next-intl/server";
+import { getQuantity } from "@/lib/get-quantity";
+import { pageOfLots, recallHref, type ReachedLot, type TableView } from "./table-view";
 
-export type ReachedLot = { code: string; kind: string; unit: string; fraction: number; onHand: number; holder: string; recalled: boolean; shippedToBuyer: boolean; hold: string | null };
-
-/** The lots a recall reached; those shipped to a buyer stand out, and can be shown alone. */
-export function ReachedLotsTable({ lots }: { lots: ReachedLot[] }) {
-  const t = useTranslations();
-  const format = useFormatter();
-  const amount = useQuantity();
-  const [onlyShipped, setOnlyShipped] = useState(false);
-  const shown = onlyShipped ? lots.filter((l) => l.shippedToBuyer) : lots;
+/**
+ * The lots a recall reached, a page at a time, rendered on the server only (no copy of the rows
+ * for the browser); those shipped to a buyer stand out, and can be shown alone.
+ */
+export async function ReachedLotsTable({ lots, view }: { lots: ReachedLot[]; view: TableView }) {
+  const t = await getTranslations();
+  const format = await getFormatter();
+  const amount = await getQuantity();
+  const { rows, page, pages, from, to, total } = pageOfLots(lots, view);
   return (
     <div className="space-y-3">
-      <label className="flex items-center gap-2 text-sm">
-        <input type="checkbox" checked={onlyShipped} onChange={(e) => setOnlyShipped(e.target.checked)} />
-        {t("recall.onlyShipped")}
-      </label>
+      <p className="flex flex-wrap items-center gap-3 text-sm">
+        <Link href={recallHref({ ...view, page: 1, onlyShipped: !view.onlyShipped })} className="btn-quiet" data-testid="recall-only-shipped" aria-pressed={view.onlyShipped}>
+          {view.onlyShipped ? t("recall.showAllLots") : t("recall.onlyShipped")}
+        </Link>
+        <span data-testid="recall-lots-range">{t("recall.tableRange", { from, to, total })}</span>
+      </p>
       <div className="overflow-x-auto rounded-lg border-2 border-paper-deep bg-white">
         <table className="w-full border-collapse text-sm" aria-label={t("recall.reachedTitle")} data-testid="recall-lots">
           <thead className="bg-paper-deep text-left">
@@ -33,7 +33,7 @@ export function ReachedLotsTable({ lots }: { lots: ReachedLot[] }) {
             </tr>
           </thead>
           <tbody>
-            {shown.map((lot) => (
+            {rows.map((lot) => (
               <tr key={lot.code} className={`border-t border-paper-deep ${lot.shippedToBuyer ? "bg-persimmon-pale font-semibold" : ""}`} data-shipped={lot.shippedToBuyer || undefined}>
                 <td className="px-3 py-2">
                   <Link href={`/lots/${encodeURIComponent(lot.code)}`} className="code-chip no-underline">{lot.code}</Link>
@@ -50,6 +50,13 @@ export function ReachedLotsTable({ lots }: { lots: ReachedLot[] }) {
           </tbody>
         </table>
       </div>
+      {pages > 1 ? (
+        <nav className="flex items-center gap-3 text-sm" aria-label={t("recall.reachedTitle")} data-testid="recall-pages">
+          {page > 1 ? <Link href={recallHref({ ...view, page: page - 1 })} className="btn-quiet" rel="prev">{t("recall.previousPage")}</Link> : null}
+          <span>{t("recall.pageOf", { page, pages })}</span>
+          {page < pages ? <Link href={recallHref({ ...view, page: page + 1 })} className="btn-quiet" rel="next">{t("recall.nextPage")}</Link> : null}
+        </nav>
+      ) : null}
     </div>
   );
 }

@@ -8,7 +8,8 @@ import { canReadRecall, loadRecall, recallRows, shipmentsToBuyers, type Recall }
 import { heldLots } from "@/server/trace/holds";
 import { canHoldLots } from "@/domain/permissions";
 import { HoldPanel } from "./hold-panel";
-import { ReachedLotsTable, type ReachedLot } from "./components";
+import { ReachedLotsTable } from "./components";
+import { countByKind, type ReachedLot } from "./table-view";
 import { PageHeader } from "@/components/page-header";
 import { getQuantity } from "@/lib/get-quantity";
 import { CsvDownloadLinks } from "@/components/csv-download-links";
@@ -17,17 +18,21 @@ export async function generateMetadata() {
   return { title: (await getTranslations("recall"))("title") };
 }
 
-export default async function RecallPage({ searchParams }: { searchParams: Promise<{ code?: string | string[] }> }) {
+type Search = { code?: string | string[]; page?: string | string[]; shipped?: string | string[] };
+const first = (value: string | string[] | undefined) => (Array.isArray(value) ? value[0] : value);
+
+export default async function RecallPage({ searchParams }: { searchParams: Promise<Search> }) {
   const user = await requirePageUser();
   if (!canReadRecall(user)) forbidden();
   const t = await getTranslations();
   const amount = await getQuantity();
-  const raw = (await searchParams).code;
-  const code = normaliseLotCode((Array.isArray(raw) ? raw[0] : raw) ?? "");
+  const search = await searchParams;
+  const code = normaliseLotCode(first(search.code) ?? "");
   let recall: Recall | null = null;
   if (code) {
     try {
-      recall = loadRecall(user, code);
+      // The page lists shipments only; the CSV and EPCIS downloads carry every event.
+      recall = loadRecall(user, code, ["shipping"]);
     } catch (error) {
       if (!(error instanceof AppError && error.code === "not_found")) throw error;
     }
@@ -48,6 +53,11 @@ export default async function RecallPage({ searchParams }: { searchParams: Promi
           <section className="space-y-2">
             <h2 className="text-2xl font-bold">{t("recall.heading", { code: recall.lot.code, kind: t(`lot.kinds.${recall.lot.kind}`) })}</h2>
             <p>{t("recall.summary", { lots: recall.lots.length - 1, shipments: shipments.length })}</p>
+            <ul className="flex flex-wrap gap-x-4 gap-y-1 text-sm" aria-label={t("recall.byKindTitle")} data-testid="recall-by-kind">
+              {countByKind(lots).map(([kind, count]) => (
+                <li key={kind}>{t("recall.kindCount", { kind: t(`lot.kinds.${kind}`), count })}</li>
+              ))}
+            </ul>
           </section>
           <section className="space-y-2" aria-labelledby="recall-shipments">
             <h3 id="recall-shipments" className="text-xl font-bold">{t("recall.shipmentsTitle")}</h3>
@@ -68,7 +78,7 @@ export default async function RecallPage({ searchParams }: { searchParams: Promi
           <HoldPanel code={recall.lot.code} reached={lots.length} held={holds.size} mayHold={canHoldLots(user)} />
           <section className="space-y-2">
             <h3 className="text-xl font-bold">{t("recall.reachedTitle")}</h3>
-            <ReachedLotsTable lots={lots} />
+            <ReachedLotsTable lots={lots} view={{ code: recall.lot.code, page: Number(first(search.page)) || 1, onlyShipped: first(search.shipped) === "1" }} />
           </section>
           <section className="panel space-y-3">
             <h3 className="text-xl font-bold">{t("recall.downloadsTitle")}</h3>
