@@ -29,7 +29,7 @@ export function listLotEvents(actor: SessionUser, code: string) {
     .map((r) => r.id);
   // A correction of one of these events belongs on the lot page too.
   const ids = [...new Set([...touching, ...db.select({ id: events.id }).from(events).where(inArray(events.corrects, touching.length ? touching : [-1])).all().map((r) => r.id)])];
-  return loadEvents(ids).map(({ inputs, outputs, measurements, attributes, ...e }) => ({
+  return loadEvents(ids, OWNED).map(({ inputs, outputs, measurements, attributes, ...e }) => ({
     ...e,
     ...showEvent({ inputs, outputs, measurements, attributes }, (lot) => canSeeLot(actor, lot)),
   }));
@@ -38,18 +38,29 @@ export type ShownLotEvent = ReturnType<typeof listLotEvents>[number];
 
 /** Events in full, every lot named: for readers of all records only (recall, EPCIS, brew days). */
 export function describeEvents(ids: number[]) {
-  return loadEvents(ids).map(({ inputs, outputs, measurements, ...e }) => ({
-    ...e,
-    inputs: inputs.map(({ owner: _o, ...i }) => i),
-    outputs: outputs.map(({ owner: _o, ...o }) => o),
-    measurements: measurements.map(({ owner: _o, ...m }) => m),
-  }));
+  return loadEvents(ids, NAMED);
 }
 
 type Lot = typeof lots.$inferSelect;
 type Owner = Pick<Lot, "partyId" | "originPartyId" | "inTransitTo">;
 type EventRow = { id: number; step: (typeof events.$inferSelect)["step"]; at: number; recordedAt: number; userId: string; userName: string; partyId: string; partyName: string; counterpartyId: string | null; counterpartyName: string | null; place: string; referenceDoc: string; note: string; corrects: number | null; reason: string; attributes: string };
 type LineRow = { eventId: number; code: string; kind: Lot["kind"]; quantity: number; unit: Lot["unit"]; use: (typeof eventInputs.$inferSelect)["use"] } & Owner;
+
+type MeasurementRow = { eventId: number; name: string; value: number; unit: string; owner: Owner | null };
+/** How each line of an event is built: with whose lot it is (to hide another party's), or without. */
+type Shape<I, O, M> = { input: (r: LineRow) => I; output: (r: LineRow) => O; measurement: (r: MeasurementRow) => M };
+
+const ownerOfRow = ({ partyId, originPartyId, inTransitTo }: Owner): Owner => ({ partyId, originPartyId, inTransitTo });
+const OWNED = {
+  input: (i: LineRow) => ({ lot: i.code, quantity: i.quantity, unit: i.unit, use: i.use, owner: ownerOfRow(i) }),
+  output: (o: LineRow) => ({ lot: o.code, kind: o.kind, quantity: o.quantity, unit: o.unit, owner: ownerOfRow(o) }),
+  measurement: ({ name, value, unit, owner }: MeasurementRow) => ({ name, value, unit, owner }),
+};
+const NAMED = {
+  input: (i: LineRow) => ({ lot: i.code, quantity: i.quantity, unit: i.unit, use: i.use }),
+  output: (o: LineRow) => ({ lot: o.code, kind: o.kind, quantity: o.quantity, unit: o.unit }),
+  measurement: ({ name, value, unit }: MeasurementRow) => ({ name, value, unit }),
+};
 
 /** Rows grouped by their event, in the order read. */
 function byEvent<T extends { eventId: number }>(rows: T[]): Map<number, T[]> {
@@ -62,7 +73,7 @@ function byEvent<T extends { eventId: number }>(rows: T[]): Map<number, T[]> {
  * The events with, on each lot they name, whose it is. Plain SQL with the ids as one JSON
  * parameter, and lines grouped by event once: a recall reads thousands of events at a time.
  */
-function loadEvents(ids: number[]) {
+function loadEvents<I, O, M>(ids: number[], shape: Shape<I, O, M>) {
   if (ids.length === 0) return [];
   const db = getDb();
   const list = JSON.stringify(ids);
@@ -91,7 +102,6 @@ function loadEvents(ids: number[]) {
   const correctedBy = new Map(
     db.all<{ id: number; corrects: number }>(sql`select id, corrects from events where corrects in (select value from json_each(${list}))`).map((r) => [r.corrects, r.id]),
   );
-  const ownerOfRow = ({ partyId, originPartyId, inTransitTo }: Owner): Owner => ({ partyId, originPartyId, inTransitTo });
   return rows.map((e) => ({
     id: e.id,
     step: e.step,
@@ -107,9 +117,9 @@ function loadEvents(ids: number[]) {
     correctedBy: correctedBy.get(e.id) ?? null,
     reason: e.reason,
     attributes: JSON.parse(e.attributes) as Record<string, unknown>,
-    inputs: (ins.get(e.id) ?? []).map((i) => ({ lot: i.code, quantity: i.quantity, unit: i.unit, use: i.use, owner: ownerOfRow(i) })),
-    outputs: (outs.get(e.id) ?? []).map((o) => ({ lot: o.code, kind: o.kind, quantity: o.quantity, unit: o.unit, owner: ownerOfRow(o) })),
-    measurements: (ms.get(e.id) ?? []).map(({ name, value, unit, owner }) => ({ name, value, unit, owner })),
+    inputs: (ins.get(e.id) ?? []).map(shape.input),
+    outputs: (outs.get(e.id) ?? []).map(shape.output),
+    measurements: (ms.get(e.id) ?? []).map(shape.measurement),
   }));
 }
 export type LotEvent = ReturnType<typeof describeEvents>[number];

@@ -50,7 +50,7 @@ export function loadRecall(actor: SessionUser, code: string, steps: "all" | read
     const partyMap = new Map(
       tx.all<RecallParty>(sql`select id, kind, name, address from parties where id in (select value from json_each(${JSON.stringify([...partyIds])}))`).map((p) => [p.id, p]),
     );
-    const refs = new Map(rows.map(({ attributes, onHand: _o, holderId: _h, ...r }) => [r.code, { ...r, gtin: gtinOf(attributes) }]));
+    const refs = new Map<string, LotRef>(rows.map((r) => [r.code, { code: r.code, kind: r.kind, unit: r.unit, variety: r.variety, cropYear: r.cropYear, grade: r.grade, gtin: gtinOf(r.attributes) }]));
     const byCode = new Map(rows.map((r) => [r.code, r]));
     // In the order of `fractions`: the recalled lot, then the reached lots as they were made.
     const recallLots = [...fractions].flatMap(([code, fraction]) => {
