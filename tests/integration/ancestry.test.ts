@@ -90,4 +90,19 @@ describe("the walk of distinct lots behind a lot", () => {
     expect(claims.tanks.map((t) => [t.code, t.polishingRatioPct])).toEqual([["AX-T1", 60], ["AX-T2", 60]]);
     expect(claims.tanks[1]!.kojiRatioPct).toBeCloseTo(20, 12);
   });
+
+  it("reads the lineage again once an event is recorded, and a lot's figures every time", () => {
+    const db = getSqlite();
+    const bottle = idOf("AX-BT");
+    expect(lotsOfKindUp(ancestryOf(bottle), bottle, "polished").map((l) => l.code)).toEqual(["AX-P1", "AX-P2"]);
+    // The corrected link is recorded once more, by a new event: AX-P3 is behind the bottle again.
+    const { user_id: user, party_id: party } = db.prepare("select user_id, party_id from events order by id desc limit 1").get() as { user_id: string; party_id: string };
+    const event = db.prepare("insert into events (step, at, recorded_at, user_id, party_id) values ('mash-addition', 0, 0, ?, ?)").run(user, party).lastInsertRowid;
+    db.prepare("insert into lineage_edges (event_id, parent_lot_id, child_lot_id, weight) values (?, ?, ?, 100)").run(event, idOf("AX-P3"), idOf("AX-T2"));
+    const again = lotsOfKindUp(ancestryOf(bottle), bottle, "polished");
+    expect(again.map((l) => l.code)).toEqual(["AX-P1", "AX-P2", "AX-P3"]);
+    expect(again.map((l) => l.fraction)).toEqual(pathByPath(bottle, "polished").map((l) => expect.closeTo(l.fraction, 12)));
+    db.prepare("update lots set polishing_ratio_pct = 55 where code = 'AX-P2'").run();
+    expect(lotsOfKindUp(ancestryOf(bottle), bottle, "polished").map((l) => l.polishingRatioPct)).toEqual([50, 55, 70]);
+  });
 });

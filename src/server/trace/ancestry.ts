@@ -5,18 +5,27 @@ import { getDb } from "../platform/db";
 /** A lot behind another; code, attributes and polishing ratio are read for tanks and polished lots only. */
 export type AncestorLot = { id: number; code: string; kind: string; contentIn: number; attributes: string | null; polishingRatioPct: number | null };
 
-/** The distinct lots behind a lot and the edges among them. */
-export type Ancestry = { lots: Map<number, AncestorLot>; parentsOf: Map<number, { parent: number; weight: number }[]> };
+type Lineage = {
+  lots: Map<number, { kind: string; contentIn: number }>;
+  parentsOf: Map<number, { parent: number; weight: number }[]>;
+  /** Tanks and polished lots, whose codes and figures are read with every answer. */
+  described: number[];
+  /** Walks already made over this lineage, by start and stop kinds. */
+  walks: Map<string, Map<number, number>>;
+};
+
+/** The distinct lots behind a lot and the edges among them, with the tanks' and polished lots' current details. */
+export type Ancestry = Lineage & { details: Map<number, { code: string; attributes: string | null; polishingRatioPct: number | null }> };
 
 /**
  * Everything behind a lot up to its harvest lots, read in one statement: each lot once, however
  * many routes lead to it (a blend of blends reaches its rice by tens of thousands of paths).
  * Lots with no content pass nothing on, so the walk stops there as the fraction walks do.
  */
-export function ancestryOf(lotId: number): Ancestry {
+function readLineage(lotId: number): Lineage {
   // Handed over as a few flat JSON arrays built inside SQLite: thousands of rows cost more to
-  // pass to JavaScript one by one than the walk itself. Codes and figures only where read.
-  const row = getDb().get<Record<"ids" | "kinds" | "contents" | "details" | "children" | "parents" | "weights", string>>(sql`
+  // pass to JavaScript one by one than the walk itself.
+  const row = getDb().get<Record<"ids" | "kinds" | "contents" | "children" | "parents" | "weights", string>>(sql`
     with recursive up(lot_id) as (
       select ${lotId}
       union
@@ -24,23 +33,50 @@ export function ancestryOf(lotId: number): Ancestry {
       where c.kind <> 'harvest' and c.content_in > 0
     )
     select * from
-      (select json_group_array(c.id) as ids, json_group_array(c.kind) as kinds, json_group_array(c.content_in) as contents,
-         json_group_array(json_array(c.id, c.code, case when c.kind = 'tank' then c.attributes end, c.polishing_ratio_pct)) filter (where c.kind in ('tank', 'polished')) as details
+      (select json_group_array(c.id) as ids, json_group_array(c.kind) as kinds, json_group_array(c.content_in) as contents
        from up join lots c on c.id = up.lot_id),
       (select json_group_array(e.child_lot_id) as children, json_group_array(e.parent_lot_id) as parents, json_group_array(e.weight) as weights
        from up join lots c on c.id = up.lot_id join lineage_edges e on e.child_lot_id = c.id
        where c.kind <> 'harvest' and c.content_in > 0)`)!;
   const [ids, kinds, contents] = [JSON.parse(row.ids) as number[], JSON.parse(row.kinds) as string[], JSON.parse(row.contents) as number[]];
-  const lots = new Map<number, AncestorLot>();
-  ids.forEach((id, n) => lots.set(id, { id, code: "", kind: kinds[n]!, contentIn: contents[n]!, attributes: null, polishingRatioPct: null }));
-  for (const [id, code, attributes, polishingRatioPct] of JSON.parse(row.details) as [number, string, string | null, number | null][]) {
-    Object.assign(lots.get(id)!, { code, attributes, polishingRatioPct });
-  }
+  const lots = new Map(ids.map((id, n) => [id, { kind: kinds[n]!, contentIn: contents[n]! }]));
   // Every edge as recorded: a link and its reversal both pass, and cancel in the sums.
   const [children, parents, weights] = [JSON.parse(row.children) as number[], JSON.parse(row.parents) as number[], JSON.parse(row.weights) as number[]];
   const parentsOf = new Map<number, { parent: number; weight: number }[]>();
   children.forEach((child, n) => (parentsOf.get(child) ?? parentsOf.set(child, []).get(child)!).push({ parent: parents[n]!, weight: weights[n]! }));
-  return { lots, parentsOf };
+  const described = ids.filter((_, n) => kinds[n] === "tank" || kinds[n] === "polished");
+  return { lots, parentsOf, described, walks: new Map() };
+}
+
+/**
+ * Edges and contents change only when an event is recorded (a correction is an event too), so a
+ * lineage read stays true until the newest event or edge changes. A bottle's page is opened by
+ * everyone who scans its batch; the few latest lineages are kept for them.
+ */
+const recent = new Map<number, { version: string; lineage: Lineage }>();
+const KEEP = 16;
+
+function ledgerVersion(): string {
+  const row = getDb().get<{ e: number | null; l: number | null }>(sql`select (select max(id) from events) as e, (select max(id) from lineage_edges) as l`);
+  return `${row?.e}/${row?.l}`;
+}
+
+export function ancestryOf(lotId: number): Ancestry {
+  const version = ledgerVersion();
+  const kept = recent.get(lotId);
+  const lineage = kept?.version === version ? kept.lineage : readLineage(lotId);
+  recent.delete(lotId);
+  recent.set(lotId, { version, lineage });
+  if (recent.size > KEEP) recent.delete(recent.keys().next().value!);
+  // Codes, tank attributes and ratios are read fresh every time: they are not tied to events.
+  const details = new Map(
+    getDb()
+      .all<{ id: number; code: string; attributes: string | null; polishingRatioPct: number | null }>(sql`
+        select id, code, case when kind = 'tank' then attributes end as attributes, polishing_ratio_pct as polishingRatioPct
+        from lots where id in (select value from json_each(${JSON.stringify(lineage.described)}))`)
+      .map(({ id, ...d }) => [id, d]),
+  );
+  return { ...lineage, details };
 }
 
 /**
@@ -49,6 +85,15 @@ export function ancestryOf(lotId: number): Ancestry {
  * each net edge is multiplied once, in topological order; reversed edges cancel in the sums.
  */
 export function fractionsUp(ancestry: Ancestry, start: number, stop: readonly string[]): Map<number, number> {
+  const key = `${start}:${stop.join(",")}`;
+  const made = ancestry.walks.get(key);
+  if (made) return made;
+  const fractions = walkUp(ancestry, start, stop);
+  ancestry.walks.set(key, fractions);
+  return fractions;
+}
+
+function walkUp(ancestry: Ancestry, start: number, stop: readonly string[]): Map<number, number> {
   const passesOn = (id: number) => {
     const lot = ancestry.lots.get(id);
     return lot !== undefined && lot.kind !== "harvest" && !stop.includes(lot.kind) && lot.contentIn > 0;
@@ -81,10 +126,10 @@ export function fractionsUp(ancestry: Ancestry, start: number, stop: readonly st
   return fraction;
 }
 
-/** Lots of one kind behind `start` with the fraction they gave, as `ancestorsOfKind` answers. */
+/** Lots of one kind behind `start` with the fraction they gave, as the path-by-path walk answers. */
 export function lotsOfKindUp(ancestry: Ancestry, start: number, kind: "tank" | "polished"): (AncestorLot & { fraction: number })[] {
   return [...fractionsUp(ancestry, start, [kind])]
     .filter(([id, f]) => ancestry.lots.get(id)?.kind === kind && Math.abs(f) > 1e-9)
-    .map(([id, fraction]) => ({ ...ancestry.lots.get(id)!, fraction }))
+    .map(([id, fraction]) => ({ id, ...ancestry.lots.get(id)!, ...ancestry.details.get(id)!, fraction }))
     .sort((a, b) => a.id - b.id);
 }
