@@ -2,11 +2,12 @@
 
 import "@xyflow/react/dist/style.css";
 import Link from "next/link";
-import { createContext, useContext, useMemo, useState, useSyncExternalStore, type ReactNode } from "react";
+import { createContext, useContext, useMemo, useRef, useState, useSyncExternalStore, type ReactNode } from "react";
 import { Background, Controls, Handle, MarkerType, MiniMap, Position, ReactFlow, type Edge, type Node, type NodeProps } from "@xyflow/react";
 import { useFormatter, useTranslations } from "next-intl";
 import { useQuantity } from "@/lib/use-quantity";
-import { collapseStages, defaultCollapsed, layoutStages, STAGE_ORDER, type LineageGraph, type PlacedNode, type StageKind } from "@/domain/lineage-layout";
+import { STAGE_ORDER, type LineageGraph, type StageKind } from "@/domain/lineage-layout";
+import type { GraphView, PlacedNode } from "@/domain/lineage-placement";
 
 type StageFlowNode = Node<{ node: PlacedNode }, StageKind>;
 
@@ -51,14 +52,17 @@ function StageNode({ data: { node } }: NodeProps<StageFlowNode>) {
   const folded = node.id.startsWith("group:");
   const paint = node.visible ? shape.paint : `${HIDDEN_PAINT} opacity-80`;
   const title = folded ? t(`groups.${node.kind}`, { count: node.count }) : node.visible ? node.label : t("hiddenLot");
+  // A folded stage is read from afar (the overview fits at about 0.6), so its words are larger.
   const body = (
     <span className={`relative flex h-full w-full flex-col items-center justify-center px-2 text-center leading-tight ${shape.pad} ${node.visible ? shape.text : "text-ink-soft"}`}>
-      <span className="text-[10px] font-semibold tracking-wide uppercase">{t(`kinds.${node.kind}`)}</span>
-      <span className={`text-xs font-bold ${node.code ? "font-[family-name:var(--font-code)]" : ""}`}>{title}</span>
+      <span className={folded ? "text-sm font-semibold" : "text-[10px] font-semibold tracking-wide uppercase"}>{t(`kinds.${node.kind}`)}</span>
+      <span className={`${folded ? "text-base" : "text-xs"} font-bold ${node.code ? "font-[family-name:var(--font-code)]" : ""}`}>{title}</span>
       {node.detail ? <span className="text-[10px]">{node.detail}</span> : null}
       {node.quantity !== null && node.unit ? <span className="text-[10px]">{amount(node.quantity, node.unit)}</span> : null}
     </span>
   );
+  // React Flow turns pointer events off on nodes nobody can select or drag; the links and
+  // buttons inside take them back, so a lot opens and a folded stage unfolds on a click.
   return (
     <div className="relative h-full w-full" data-kind={node.kind} data-current={node.current || undefined}>
       <Handle type="target" position={Position.Left} isConnectable={false} style={{ opacity: 0 }} />
@@ -67,9 +71,9 @@ function StageNode({ data: { node } }: NodeProps<StageFlowNode>) {
       {node.current ? <Silhouette kind={node.kind} paint="fill-none stroke-persimmon" className="scale-110" /> : null}
       {node.current ? <span className="absolute -top-6 left-1/2 -translate-x-1/2 rounded bg-persimmon px-2 text-[10px] font-bold whitespace-nowrap text-paper">{t("thisLot")}</span> : null}
       {folded ? (
-        <button type="button" className="nodrag absolute inset-0 cursor-pointer" onClick={() => expand(node.kind)} title={t("expandGroup")}>{body}</button>
+        <button type="button" className="nodrag pointer-events-auto absolute inset-0 cursor-pointer" onClick={() => expand(node.kind)} title={t("expandGroup")}>{body}</button>
       ) : node.visible && node.code ? (
-        <Link href={`/lots/${encodeURIComponent(node.code)}`} className="nodrag absolute inset-0 no-underline" aria-label={t("openLot", { code: node.code })}>{body}</Link>
+        <Link href={`/lots/${encodeURIComponent(node.code)}`} className="nodrag pointer-events-auto absolute inset-0 no-underline" aria-label={t("openLot", { code: node.code })}>{body}</Link>
       ) : (
         <span className="absolute inset-0" title={node.visible ? undefined : t("hiddenTitle")}>{body}</span>
       )}
@@ -90,20 +94,31 @@ function useWideScreen(): boolean {
 }
 
 /** The lineage of one lot as a pannable, zoomable drawing, stages foldable one by one. */
-export function LineageGraphView({ graph, code }: { graph: LineageGraph; code: string }) {
+export function LineageGraphView({ graph, code, initial }: { graph: LineageGraph; code: string; initial: GraphView }) {
   const t = useTranslations("graph");
   const format = useFormatter();
   const amount = useQuantity();
   const wide = useWideScreen();
-  const [collapsed, setCollapsed] = useState<Set<StageKind>>(() => defaultCollapsed(graph.nodes.length));
+  const [view, setView] = useState(initial);
+  const asked = useRef(0);
   const counts = useMemo(() => STAGE_ORDER.map((kind) => [kind, graph.nodes.filter((n) => n.kind === kind).length] as const).filter(([, n]) => n > 0), [graph]);
-  const placed = useMemo(() => layoutStages(collapseStages(graph, collapsed)), [graph, collapsed]);
-  const toggle = (kind: StageKind, fold?: boolean) =>
-    setCollapsed((prev) => { const next = new Set(prev); (fold ?? !prev.has(kind)) ? next.add(kind) : next.delete(kind); return next; });
+  const { placed } = view;
+  const collapsed = new Set(view.folded);
+  // The layout code (dagre) loads only when someone folds or unfolds; the first drawing came laid out.
+  const refold = (next: Set<StageKind>) => {
+    const ask = ++asked.current;
+    void import("@/domain/lineage-placement").then(({ placeView }) => { if (ask === asked.current) setView(placeView(graph, next)); });
+  };
+  const toggle = (kind: StageKind, fold?: boolean) => {
+    const next = new Set(collapsed);
+    if (fold ?? !collapsed.has(kind)) next.add(kind); else next.delete(kind);
+    refold(next);
+  };
 
   const nameOf = new Map(placed.nodes.map((n) => [n.id, `${t(`kinds.${n.kind}`)} ${n.id.startsWith("group:") ? t(`groups.${n.kind}`, { count: n.count }) : n.visible ? n.label : t("hiddenLot")}`]));
   const nodes: StageFlowNode[] = placed.nodes.map((n) => ({ id: n.id, type: n.kind, position: { x: n.x, y: n.y }, width: n.width, height: n.height, data: { node: n }, draggable: false, selectable: false, ariaLabel: nameOf.get(n.id) }));
   const hiddenIds = new Set(placed.nodes.filter((n) => !n.visible).map((n) => n.id));
+  const foldedIds = new Set(placed.nodes.filter((n) => n.id.startsWith("group:")).map((n) => n.id));
   const edges: Edge[] = placed.edges.map((e) => {
     const field = e.source.startsWith("field-");
     const parts = [
@@ -112,7 +127,8 @@ export function LineageGraphView({ graph, code }: { graph: LineageGraph; code: s
     ].filter(Boolean);
     const muted = hiddenIds.has(e.source) || hiddenIds.has(e.target);
     return {
-      id: e.id, source: e.source, target: e.target, label: parts.join(" · ") || undefined,
+      id: e.id, source: e.source, target: e.target,
+      label: (placed.overview && (foldedIds.has(e.source) || foldedIds.has(e.target))) || !parts.length ? undefined : parts.join(" · "),
       ariaLabel: `${nameOf.get(e.source)} → ${nameOf.get(e.target)}${parts.length ? `: ${parts.join(" · ")}` : ""}`,
       markerEnd: { type: MarkerType.ArrowClosed, color: muted ? "var(--color-husk)" : "var(--color-cedar)", width: 14, height: 14, markerUnits: "userSpaceOnUse" },
       style: { stroke: muted ? "var(--color-husk)" : "var(--color-cedar)", strokeWidth: 1.5 + 3 * Math.min(1, e.share ?? 0.3), strokeDasharray: muted ? "6 4" : undefined },
@@ -135,11 +151,11 @@ export function LineageGraphView({ graph, code }: { graph: LineageGraph; code: s
             {t(`kinds.${kind}`)} <span className="font-normal">({n})</span>
           </button>
         ))}
-        {collapsed.size ? <button type="button" className="btn-quiet px-3 py-1 text-sm" onClick={() => setCollapsed(new Set())}>{t("expandAll")}</button> : null}
+        {collapsed.size ? <button type="button" className="btn-quiet px-3 py-1 text-sm" onClick={() => refold(new Set())}>{t("expandAll")}</button> : null}
       </div>
       <div role="region" aria-label={t("canvasLabel", { code })} className="h-[70vh] min-h-96 overflow-hidden rounded-lg border-2 border-paper-deep bg-white/70 print:hidden">
         <ExpandContext value={(kind) => toggle(kind, false)}>
-          <ReactFlow key={`${wide}:${[...collapsed].sort().join()}`} nodes={nodes} edges={edges} nodeTypes={NODE_TYPES} fitView fitViewOptions={focus} minZoom={0.1} maxZoom={2}
+          <ReactFlow key={`${wide}:${view.folded.join()}`} nodes={nodes} edges={edges} nodeTypes={NODE_TYPES} fitView fitViewOptions={focus} minZoom={0.1} maxZoom={2}
             nodesDraggable={false} nodesConnectable={false} elementsSelectable={false}>
             <Background gap={24} color="var(--color-paper-deep)" />
             <Controls showInteractive={false} />

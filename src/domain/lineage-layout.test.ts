@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { assignLayers, collapseStages, defaultCollapsed, layoutStages, readingOrder, STAGE_ORDER, type LineageGraph, type LineageNode, type StageKind } from "./lineage-layout";
+import { assignLayers, collapseStages, defaultCollapsed, readingOrder, STAGE_ORDER, type LineageGraph, type LineageNode, type StageKind } from "./lineage-layout";
+import { firstView, layoutStages } from "./lineage-placement";
 
 // A small brew in the shape of ../shared/product.md ("The model"): a paddy, two harvest lots
 // polished together, a koji soak and a mash soak, the mash rice steamed and split into a
@@ -85,7 +86,7 @@ describe("collapseStages", () => {
 
 describe("layoutStages", () => {
   it("draws left to right: every edge ends to the right of where it starts", () => {
-    for (const folded of [new Set<StageKind>(), new Set<StageKind>(["soaked", "steamed"])]) {
+    for (const folded of [new Set<StageKind>(), new Set<StageKind>(["soaked", "steamed"]), new Set<StageKind>(STAGE_ORDER)]) {
       const placed = layoutStages(collapseStages(graph(), folded));
       const at = new Map(placed.nodes.map((n) => [n.id, n]));
       for (const e of placed.edges) expect(at.get(e.target)!.x).toBeGreaterThan(at.get(e.source)!.x + at.get(e.source)!.width);
@@ -103,9 +104,40 @@ describe("layoutStages", () => {
 });
 
 describe("defaultCollapsed", () => {
-  it("folds soaking and steaming only above 60 nodes", () => {
+  it("folds every stage, and only above 60 nodes", () => {
     expect([...defaultCollapsed(60)]).toEqual([]);
-    expect([...defaultCollapsed(61)].sort()).toEqual(["soaked", "steamed"]);
+    expect([...defaultCollapsed(61)]).toEqual(STAGE_ORDER);
+  });
+});
+
+describe("firstView", () => {
+  // The fixture's 16 lots repeated in five brews, as a large blend's lineage repeats its steps.
+  const large = (): LineageGraph => {
+    const copy = (n: number) => (id: string) => (n === 0 ? id : `${id}-${n}`);
+    const brews = [0, 1, 2, 3, 4].map(copy);
+    return {
+      rootId: "b1", truncated: false,
+      nodes: brews.flatMap((c) => NODES.map((n) => ({ ...n, id: c(n.id) }))),
+      edges: brews.flatMap((c) => graph().edges.map((e) => ({ ...e, source: c(e.source), target: c(e.target) }))),
+    };
+  };
+
+  it("draws a small lineage lot by lot", () => {
+    const view = firstView(graph());
+    expect(view.folded).toEqual([]);
+    expect(view.placed.nodes).toHaveLength(16);
+    expect(view.placed.overview).toBe(false);
+  });
+
+  it("draws a large lineage as one column per stage and step, with the current lot on its own", () => {
+    const view = firstView(large());
+    expect(view.placed.overview).toBe(true);
+    expect(view.placed.nodes.map((n) => [n.kind, n.count])).toEqual([
+      ["field", 5], ["harvest", 10], ["polished", 5], ["soaked", 10], ["steamed", 10], ["steamed", 15], ["koji", 5], ["starter", 5], ["tank", 5], ["sake", 5], ["bottled", 1], ["bottled", 4],
+    ]);
+    expect(view.placed.nodes.find((n) => n.current)).toMatchObject({ id: "b1", count: 1 });
+    // Twelve columns close together fit a 1,200 px canvas at 0.6 and more.
+    expect(1200 / view.placed.width).toBeGreaterThanOrEqual(0.6);
   });
 });
 

@@ -1,4 +1,3 @@
-import dagre from "@dagrejs/dagre";
 import type { LotKind } from "./steps";
 
 /** A lot kind, or the paddy (field) a harvest lot was grown on. */
@@ -36,28 +35,15 @@ const STAGE_COLUMN: Record<StageKind, number> = {
   field: 0, harvest: 1, polished: 2, bran: 3, soaked: 3, steamed: 4, koji: 6, starter: 7, tank: 8, sake: 9, lees: 10, blend: 10, bottled: 11,
 };
 
-/** Drawn sizes in px: a tank is tall, a paddy a low strip, a bottle upright. */
-export const NODE_SIZE: Record<StageKind, { width: number; height: number }> = {
-  field: { width: 176, height: 56 },
-  harvest: { width: 132, height: 92 },
-  polished: { width: 150, height: 72 },
-  bran: { width: 120, height: 56 },
-  soaked: { width: 144, height: 76 },
-  steamed: { width: 156, height: 84 },
-  koji: { width: 144, height: 76 },
-  starter: { width: 120, height: 96 },
-  tank: { width: 112, height: 140 },
-  sake: { width: 124, height: 116 },
-  lees: { width: 120, height: 64 },
-  blend: { width: 124, height: 116 },
-  bottled: { width: 104, height: 156 },
-};
-
-/** Graphs larger than this start with soaking and steaming folded away. */
+/**
+ * Graphs larger than this start with every stage folded, the current lot excepted: one
+ * node per stage and step with its count, few enough to fit the view at a zoom whose
+ * labels can be read (a 500-lot blend draws as 12 stage columns instead of 169 nodes).
+ */
 export const LARGE_GRAPH_NODES = 60;
 
 export function defaultCollapsed(nodeCount: number): Set<StageKind> {
-  return new Set<StageKind>(nodeCount > LARGE_GRAPH_NODES ? ["soaked", "steamed"] : []);
+  return new Set<StageKind>(nodeCount > LARGE_GRAPH_NODES ? STAGE_ORDER : []);
 }
 
 /**
@@ -145,28 +131,6 @@ function rewire(edges: LineageEdge[], repOf: Map<string, string>, groups: Map<st
     seen.quantity = seen.quantity !== null && e.quantity !== null && seen.unit === e.unit ? seen.quantity + e.quantity : null;
   }
   return [...merged.values()];
-}
-
-export type PlacedNode = StageNode & { x: number; y: number; width: number; height: number };
-
-/**
- * Left-to-right layered drawing with dagre. Each edge asks for at least as many ranks as
- * the layers it spans, so that stages stay in their columns as far as the graph allows.
- * Positions are the top-left corners, as @xyflow/react expects them.
- */
-export function layoutStages(graph: StageGraph): { nodes: PlacedNode[]; edges: StageEdge[]; width: number; height: number } {
-  const g = new dagre.graphlib.Graph<{ rankdir: "LR" }, { width: number; height: number; x?: number; y?: number }, { minlen: number }>();
-  g.setGraph({ rankdir: "LR", ranksep: 128, nodesep: 32, marginx: 16, marginy: 16 } as never);
-  const layerOf = new Map(graph.nodes.map((n) => [n.id, n.layer]));
-  for (const n of graph.nodes) g.setNode(n.id, { ...NODE_SIZE[n.kind] });
-  for (const e of graph.edges) g.setEdge(e.source, e.target, { minlen: Math.max(1, layerOf.get(e.target)! - layerOf.get(e.source)!) });
-  dagre.layout(g as never);
-  const label = g.graph() as unknown as { width?: number; height?: number };
-  const nodes = graph.nodes.map((n) => {
-    const { width, height, x = 0, y = 0 } = g.node(n.id);
-    return { ...n, width, height, x: x - width / 2, y: y - height / 2 };
-  });
-  return { nodes, edges: graph.edges, width: label.width ?? 0, height: label.height ?? 0 };
 }
 
 export type ReadingItem = { node: LineageNode; layer: number; current: boolean; from: { edge: LineageEdge; source: LineageNode }[] };

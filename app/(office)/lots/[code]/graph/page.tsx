@@ -4,6 +4,7 @@ import { getFormatter, getTranslations } from "next-intl/server";
 import { getQuantity } from "@/lib/get-quantity";
 import { LineageGraphView } from "@/components/lineage-graph";
 import { readingOrder, type LineageEdge, type LineageNode } from "@/domain/lineage-layout";
+import { firstView } from "@/domain/lineage-placement";
 import { normaliseLotCode } from "@/domain/lot-code";
 import { lineageGraph } from "@/server/trace/lineage-graph";
 import { findLotId } from "@/server/ledger/lots";
@@ -32,7 +33,7 @@ export default async function LotGraphPage({ params }: { params: Promise<{ code:
       </div>
       <p className="max-w-3xl text-ink-soft">{t("intro")}</p>
       {graph.truncated ? <p className="notice-warn" role="status">{t("truncated", { max: MAX_NODES })}</p> : null}
-      <LineageGraphView graph={graph} code={code} />
+      <LineageGraphView graph={graph} code={code} initial={firstView(graph)} />
       <LineageText items={readingOrder(graph)} />
     </div>
   );
