@@ -6,6 +6,7 @@ import { beforeAll, describe, expect, it, vi } from "vitest";
 import type { FormState } from "@/lib/form-state";
 import { getSqlite } from "@/server/platform/db";
 import { loadRecall, recallRows, shipmentsToBuyers } from "@/server/trace/recall";
+import { recallLines } from "@/server/trace/recall-lines";
 import { pageOfLots, RECALL_PAGE_SIZE, recallHref, type ReachedLot } from "../../app/(office)/recall/table-view";
 import { correctEventAction, shipToBuyerAction } from "../../app/(office)/lots/[code]/actions";
 import { submit } from "../support/action-scope";
@@ -100,6 +101,9 @@ describe("the recall against a reference walk", () => {
         for (const line of [...e.inputs, ...e.outputs]) expect(recall.refs.get(line.lot)?.code).toBe(line.lot);
       });
       corrections += recall.events.filter((e) => e.step === "correcting").length;
+
+      // The spreadsheet's lines, read straight from SQLite, are the ones built from the events above.
+      expect(recallLines(office, head.code), head.code).toEqual(recallRows(recall));
 
       // The page reads the shipping events only, the hold action no event: the same lots, the same shipments.
       const shippingOnly = loadRecall(office, head.code, ["shipping"]);

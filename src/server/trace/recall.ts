@@ -128,11 +128,9 @@ export function recallRows(recall: Recall): RecallRow[] {
     for (const o of e.outputs) if (!createdBy.has(o.lot) || createdBy.get(o.lot)! > e.id) createdBy.set(o.lot, e.id);
   }
   const rows: RecallRow[] = [];
-  const time = new Map<RecallRow, number>();
   for (const e of recall.events) {
     if (e.step === "measuring") continue;
     const at = timeAtOffset(new Date(e.at));
-    const ms = Date.parse(e.at);
     const party = recall.parties.get(e.party.id);
     const counterparty = e.counterparty ? recall.parties.get(e.counterparty.id) : undefined;
     const correction = e.step === "correcting";
@@ -160,7 +158,6 @@ export function recallRows(recall: Recall): RecallRow[] {
         reason: e.reason,
       };
       rows.push(row);
-      time.set(row, ms);
     };
     for (const i of e.inputs) {
       if (!byLot.has(i.lot) || i.use === "observe") continue;
@@ -172,7 +169,12 @@ export function recallRows(recall: Recall): RecallRow[] {
       line(o.lot, o.quantity, correction ? "returned" : createdBy.get(o.lot) === e.id ? "created" : "added");
     }
   }
-  // The instants and the collator are taken once: a wide recall sorts thousands of lines.
+  return sortRecallRows(rows);
+}
+
+/** By time, then lot, then event; lines that tie keep their order. The instants and the collator are taken once: a wide recall sorts thousands of lines. */
+export function sortRecallRows(rows: RecallRow[]): RecallRow[] {
+  const time = new Map(rows.map((r) => [r, Date.parse(r.at)]));
   return rows.sort((a, b) => time.get(a)! - time.get(b)! || byCode.compare(a.lot, b.lot) || a.eventId - b.eventId);
 }
 

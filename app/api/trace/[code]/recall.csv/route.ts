@@ -2,7 +2,8 @@ import { normaliseLotCode } from "@/domain/lot-code";
 import { csvDownload, csvEncodingOf } from "@/server/records/csv-download";
 import { forbidden } from "@/server/platform/errors";
 import { handle, requireApiUser } from "@/server/platform/http";
-import { canReadRecall, loadRecall, recallCsv, recallRows } from "@/server/trace/recall";
+import { canReadRecall, recallCsv } from "@/server/trace/recall";
+import { recallLines } from "@/server/trace/recall-lines";
 
 /** Everything a lot reached, one line per event and lot, as a sortable spreadsheet (../shared/api.md, "Trace"). */
 export const GET = handle(async (request, { params, t }) => {
@@ -10,6 +11,6 @@ export const GET = handle(async (request, { params, t }) => {
   if (!canReadRecall(actor)) throw forbidden();
   const encoding = csvEncodingOf(request, t);
   const code = normaliseLotCode(params.code ?? "");
-  const csv = recallCsv(recallRows(loadRecall(actor, code)), t);
+  const csv = recallCsv(recallLines(actor, code), t);
   return csvDownload(csv, encoding, `grainline-recall-${encodeURIComponent(code)}.csv`, t);
 });
