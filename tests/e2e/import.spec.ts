@@ -26,16 +26,16 @@ test("a good harvest CSV commits every row at once", async ({ page }) => {
   expect(codes.every((c) => /^H2\d-\d{4}$/.test(c))).toBe(true);
 });
 
-test("a 5,000-row harvest file (the most a file may hold): the bar advances while the server checks the rows, and every row is imported", async ({ page }) => {
-  // Generous: under the suite's two workers the check of 5,000 rows has taken over a minute; the time goal is bench:jobs's (bench/JOBS.md).
+test("a 10,000-row harvest file (the most a file may hold): the bar advances while the server checks the rows, and every row is imported", async ({ page }) => {
+  // Generous for a loaded CI machine; the time goal (10 s) is bench:jobs's (bench/JOBS.md).
   test.setTimeout(300_000);
   await signInAndLand(page, "grower@example.com");
   await page.goto("/import");
   // Harvested in 2019, a year no other journey uses: the lots take H19 codes and stay out of this season's lists.
   const lines = ["field,variety,cropYear,brownKg,moisturePct,grade,bags,harvestedOn"];
-  for (let i = 0; i < 5_000; i++) lines.push(`field-ikeda-terrace,Yamada Nishiki,2019,${300 + (i % 40) * 30},14.5,${["tokuto", "1", "2", "3"][i % 4]},${10 + (i % 40)},2019-09-20`);
+  for (let i = 0; i < 10_000; i++) lines.push(`field-ikeda-terrace,Yamada Nishiki,2019,${300 + (i % 40) * 30},14.5,${["tokuto", "1", "2", "3"][i % 4]},${10 + (i % 40)},2019-09-20`);
   const started = Date.now();
-  await page.getByLabel("CSV file").setInputFiles({ name: "harvests-5000.csv", mimeType: "text/csv", buffer: Buffer.from(lines.join("\n")) });
+  await page.getByLabel("CSV file").setInputFiles({ name: "harvests-10000.csv", mimeType: "text/csv", buffer: Buffer.from(lines.join("\n")) });
   const seen: number[] = [];
   await expect(async () => {
     // A short timeout: the bar leaves the page when the check ends, and a locator waits for its element.
@@ -46,9 +46,12 @@ test("a 5,000-row harvest file (the most a file may hold): the bar advances whil
   const checking = seen.filter((v) => v > 0 && v < 1);
   expect(checking.length, `bar values while checking: ${seen.join(", ")}`).toBeGreaterThan(1);
   expect(new Set(checking).size).toBeGreaterThan(1);
-  await page.getByRole("button", { name: "Commit 5,000 rows" }).click();
-  await expect(page.getByText("5,000 rows imported.")).toBeVisible({ timeout: 120_000 });
+  await page.getByRole("button", { name: "Commit 10,000 rows" }).click();
+  await expect(page.getByText("10,000 rows imported.")).toBeVisible({ timeout: 120_000 });
   const seconds = (Date.now() - started) / 1000;
-  test.info().annotations.push({ type: "5,000-row import", description: `${seconds.toFixed(1)} s from choosing the file to the import done` });
+  test.info().annotations.push({ type: "10,000-row import", description: `${seconds.toFixed(1)} s from choosing the file to the import done` });
   await expect(page.getByTestId("import-created").getByRole("link").first()).toHaveText(/^H19-\d{4,}$/);
+  // A link a lot for the first 500; the page says how many more were made.
+  await expect(page.getByTestId("import-created").getByRole("link")).toHaveCount(500);
+  await expect(page.getByText("Showing the first 500 of 10,000 rows.")).toBeVisible();
 });

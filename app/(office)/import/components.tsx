@@ -294,12 +294,14 @@ function Committed({ report, onAgain }: { report: ImportReport; onAgain: () => v
       <p className="font-semibold">{t("committed", { count: report.rows })}</p>
       <h2 className="text-lg font-bold">{report.kind === "harvests" ? t("createdLots") : t("receivedLots")}</h2>
       <ul className="flex flex-wrap gap-2" data-testid="import-created">
-        {report.created.map((c) => (
+        {/* One link a lot: thousands would hold the page, so a long file shows its first. */}
+        {report.created.slice(0, SHOWN_ROWS).map((c) => (
           <li key={`${c.line}-${c.code}`}>
             <Link href={`/lots/${c.code}`} className="code-chip no-underline">{c.code}</Link>
           </li>
         ))}
       </ul>
+      {report.created.length > SHOWN_ROWS ? <p className="text-sm text-ink-soft">{t("shown", { shown: SHOWN_ROWS, total: report.created.length })}</p> : null}
       <button type="button" className="btn-quiet" onClick={onAgain}>{t("startOver")}</button>
     </section>
   );
