@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { getSqlite } from "@/server/platform/db";
 import { kojiFraction } from "@/server/floor/tanks";
-import { ancestryOf, lotsOfKindUp } from "@/server/trace/ancestry";
+import { ancestryOf, lotsOfKindUp, lotsUpThrough } from "@/server/trace/ancestry";
 import { claimsForLot } from "@/server/trace/claims";
 
 // A branching ledger written row by row: two tanks from koji, steamed and polished rice, their
@@ -43,6 +43,22 @@ function pathByPath(lotId: number, kind: "tank" | "polished") {
       where l.kind = ? group by l.id having abs(sum(up.frac)) > 1e-9 order by l.id`,
     )
     .all(lotId, kind, kind) as { id: number; fraction: number }[];
+}
+
+/** The lots the key dates are read for, as the provenance card's recursive read found them before. */
+function datedLotsBySql(lotId: number) {
+  const rows = getSqlite()
+    .prepare(
+      `with recursive up(lot_id) as (
+        select ?
+        union
+        select e.parent_lot_id from up join lineage_edges e on e.child_lot_id = up.lot_id
+        join lots c on c.id = up.lot_id where c.kind in ('bottled', 'blend', 'sake', 'tank')
+      )
+      select lot_id as id from up order by lot_id`,
+    )
+    .all(lotId) as { id: number }[];
+  return rows.map((r) => r.id);
 }
 
 const idOf = (code: string) => (getSqlite().prepare("select id from lots where code = ?").get(code) as { id: number }).id;
@@ -89,6 +105,15 @@ describe("the walk of distinct lots behind a lot", () => {
     }
     expect(claims.tanks.map((t) => [t.code, t.polishingRatioPct])).toEqual([["AX-T1", 60], ["AX-T2", 60]]);
     expect(claims.tanks[1]!.kojiRatioPct).toBeCloseTo(20, 12);
+  });
+
+  it("finds the lots behind a lot through bottlings, blends, sake and tanks as the recursive read does", () => {
+    for (const [code] of lots) {
+      const got = lotsUpThrough(ancestryOf(idOf(code)), idOf(code), ["bottled", "blend", "sake", "tank"]);
+      expect([...got!].sort((a, b) => a - b), `behind ${code}`).toEqual(datedLotsBySql(idOf(code)));
+    }
+    // The reversed link P3 → T2 is still an edge the read follows, as SQLite's walk does.
+    expect(lotsUpThrough(ancestryOf(idOf("AX-BT")), idOf("AX-BT"), ["bottled", "blend", "sake", "tank"])).toContain(idOf("AX-P3"));
   });
 
   it("reads the lineage again once an event is recorded, and a lot's figures every time", () => {

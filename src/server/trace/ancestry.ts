@@ -7,11 +7,20 @@ export type AncestorLot = { id: number; code: string; kind: string; contentIn: n
 
 type Lineage = {
   lots: Map<number, { kind: string; contentIn: number }>;
-  parentsOf: Map<number, { parent: number; weight: number }[]>;
+  /** Lots by position (ids, kinds, contents) and each lot's recorded edges as a slice of `parent`/`weight` (from `first[n]` to `first[n + 1]`). */
+  at: Map<number, number>;
+  ids: number[];
+  kinds: string[];
+  contents: number[];
+  first: Int32Array;
+  parent: Int32Array;
+  weight: Float64Array;
   /** Tanks and polished lots, whose codes and figures are read with every answer. */
   described: number[];
   /** Walks already made over this lineage, by start and stop kinds. */
   walks: Map<string, Map<number, number>>;
+  /** Per-lot counters of a walk, made once per lineage and cleared after each walk (a blend's 144 tanks are 288 walks). */
+  scratch: { waiting: Int32Array; seen: Uint8Array; share: Float64Array; given: Uint8Array };
 };
 
 /** The distinct lots behind a lot and the edges among them, with the tanks' and polished lots' current details. */
@@ -24,28 +33,39 @@ export type Ancestry = Lineage & { details: Map<number, { code: string; attribut
  */
 function readLineage(lotId: number): Lineage {
   // Handed over as a few flat JSON arrays built inside SQLite: thousands of rows cost more to
-  // pass to JavaScript one by one than the walk itself.
+  // pass to JavaScript one by one than the walk itself. Each lot's kind and content come with
+  // it from the step that reached it, so the lots are not looked up a second time.
   const row = getDb().get<Record<"ids" | "kinds" | "contents" | "children" | "parents" | "weights", string>>(sql`
-    with recursive up(lot_id) as (
-      select ${lotId}
+    with recursive up(lot_id, kind, content_in) as (
+      select id, kind, content_in from lots where id = ${lotId}
       union
-      select e.parent_lot_id from up join lots c on c.id = up.lot_id join lineage_edges e on e.child_lot_id = up.lot_id
-      where c.kind <> 'harvest' and c.content_in > 0
+      select p.id, p.kind, p.content_in from up join lineage_edges e on e.child_lot_id = up.lot_id join lots p on p.id = e.parent_lot_id
+      where up.kind <> 'harvest' and up.content_in > 0
     )
     select * from
-      (select json_group_array(c.id) as ids, json_group_array(c.kind) as kinds, json_group_array(c.content_in) as contents
-       from up join lots c on c.id = up.lot_id),
+      (select json_group_array(lot_id) as ids, json_group_array(kind) as kinds, json_group_array(content_in) as contents from up),
       (select json_group_array(e.child_lot_id) as children, json_group_array(e.parent_lot_id) as parents, json_group_array(e.weight) as weights
-       from up join lots c on c.id = up.lot_id join lineage_edges e on e.child_lot_id = c.id
-       where c.kind <> 'harvest' and c.content_in > 0)`)!;
+       from up join lineage_edges e on e.child_lot_id = up.lot_id
+       where up.kind <> 'harvest' and up.content_in > 0)`)!;
   const [ids, kinds, contents] = [JSON.parse(row.ids) as number[], JSON.parse(row.kinds) as string[], JSON.parse(row.contents) as number[]];
+  const at = new Map(ids.map((id, n) => [id, n]));
   const lots = new Map(ids.map((id, n) => [id, { kind: kinds[n]!, contentIn: contents[n]! }]));
-  // Every edge as recorded: a link and its reversal both pass, and cancel in the sums.
+  // Every edge as recorded: a link and its reversal both pass, and cancel in the sums. Kept in
+  // the order read, per child, so that the sums add up in the same order as before.
   const [children, parents, weights] = [JSON.parse(row.children) as number[], JSON.parse(row.parents) as number[], JSON.parse(row.weights) as number[]];
-  const parentsOf = new Map<number, { parent: number; weight: number }[]>();
-  children.forEach((child, n) => (parentsOf.get(child) ?? parentsOf.set(child, []).get(child)!).push({ parent: parents[n]!, weight: weights[n]! }));
+  const first = new Int32Array(ids.length + 1);
+  for (const child of children) first[at.get(child)! + 1]!++;
+  for (let n = 0; n < ids.length; n++) first[n + 1]! += first[n]!;
+  const next = first.slice(0, ids.length);
+  const [parent, weight] = [new Int32Array(children.length), new Float64Array(children.length)];
+  children.forEach((child, n) => {
+    const slot = next[at.get(child)!]!++;
+    parent[slot] = at.get(parents[n]!)!;
+    weight[slot] = weights[n]!;
+  });
   const described = ids.filter((_, n) => kinds[n] === "tank" || kinds[n] === "polished");
-  return { lots, parentsOf, described, walks: new Map() };
+  const scratch = { waiting: new Int32Array(ids.length), seen: new Uint8Array(ids.length), share: new Float64Array(ids.length), given: new Uint8Array(ids.length) };
+  return { lots, at, ids, kinds, contents, first, parent, weight, described, walks: new Map(), scratch };
 }
 
 /**
@@ -94,36 +114,43 @@ export function fractionsUp(ancestry: Ancestry, start: number, stop: readonly st
 }
 
 function walkUp(ancestry: Ancestry, start: number, stop: readonly string[]): Map<number, number> {
-  const passesOn = (id: number) => {
-    const lot = ancestry.lots.get(id);
-    return lot !== undefined && lot.kind !== "harvest" && !stop.includes(lot.kind) && lot.contentIn > 0;
-  };
+  const { at, ids, kinds, contents, first, parent, weight } = ancestry;
+  const passesOn = (n: number) => kinds[n] !== "harvest" && !stop.includes(kinds[n]!) && contents[n]! > 0;
+  const from = at.get(start);
+  if (from === undefined) return new Map([[start, 1]]);
+  const { waiting, seen, share, given } = ancestry.scratch;
   // Edges counted only from lots the walk passes through, so that Kahn's order is not held back by lots it never reaches.
-  const waiting = new Map<number, number>();
-  const seen = new Set([start]);
-  const todo = [start];
+  seen[from] = 1;
+  const todo = [from];
+  const touched = [from];
   while (todo.length) {
-    const id = todo.pop()!;
-    if (!passesOn(id)) continue;
-    for (const e of ancestry.parentsOf.get(id) ?? []) {
-      waiting.set(e.parent, (waiting.get(e.parent) ?? 0) + 1);
-      if (!seen.has(e.parent)) seen.add(e.parent) && todo.push(e.parent);
+    const n = todo.pop()!;
+    if (!passesOn(n)) continue;
+    for (let e = first[n]!; e < first[n + 1]!; e++) {
+      const p = parent[e]!;
+      waiting[p]!++;
+      if (!seen[p]) (seen[p] = 1), todo.push(p), touched.push(p);
     }
   }
-  const fraction = new Map([[start, 1]]);
-  const ready = [start];
+  // Fractions by position; `reached` keeps the order each lot was first given one, as the Map of before did.
+  const reached = [from];
+  share[from] = 1;
+  given[from] = 1;
+  const ready = [from];
   while (ready.length) {
-    const id = ready.pop()!;
-    if (!passesOn(id)) continue;
-    const [share, contentIn] = [fraction.get(id) ?? 0, ancestry.lots.get(id)!.contentIn];
-    for (const e of ancestry.parentsOf.get(id) ?? []) {
-      fraction.set(e.parent, (fraction.get(e.parent) ?? 0) + (share * e.weight) / contentIn);
-      const left = waiting.get(e.parent)! - 1;
-      waiting.set(e.parent, left);
-      if (left === 0) ready.push(e.parent);
+    const n = ready.pop()!;
+    if (!passesOn(n)) continue;
+    const [own, contentIn] = [share[n]!, contents[n]!];
+    for (let e = first[n]!; e < first[n + 1]!; e++) {
+      const p = parent[e]!;
+      share[p] = share[p]! + (own * weight[e]!) / contentIn;
+      if (!given[p]) (given[p] = 1), reached.push(p);
+      if (--waiting[p]! === 0) ready.push(p);
     }
   }
-  return fraction;
+  const fractions = new Map(reached.map((n) => [ids[n]!, share[n]!]));
+  for (const n of touched) (waiting[n] = 0), (seen[n] = 0), (share[n] = 0), (given[n] = 0);
+  return fractions;
 }
 
 /** Lots of one kind behind `start` with the fraction they gave, as the path-by-path walk answers. */
@@ -132,4 +159,29 @@ export function lotsOfKindUp(ancestry: Ancestry, start: number, kind: "tank" | "
     .filter(([id, f]) => ancestry.lots.get(id)?.kind === kind && Math.abs(f) > 1e-9)
     .map(([id, fraction]) => ({ id, ...ancestry.lots.get(id)!, ...ancestry.details.get(id)!, fraction }))
     .sort((a, b) => a.id - b.id);
+}
+
+/**
+ * `start` and the lots behind it, going up only through lots of the `through` kinds (every
+ * recorded edge, reversed ones too), as a recursive read of the edges would give. Null when
+ * the way passes a lot whose edges the lineage did not read (one with no content).
+ */
+export function lotsUpThrough(ancestry: Ancestry, start: number, through: readonly string[]): number[] | null {
+  const { at, ids, kinds, contents, first, parent } = ancestry;
+  const from = at.get(start);
+  if (from === undefined) return null;
+  const seen = new Uint8Array(ids.length);
+  seen[from] = 1;
+  const todo = [from];
+  const reached = [start];
+  while (todo.length) {
+    const n = todo.pop()!;
+    if (!through.includes(kinds[n]!)) continue;
+    if (!(contents[n]! > 0)) return null;
+    for (let e = first[n]!; e < first[n + 1]!; e++) {
+      const p = parent[e]!;
+      if (!seen[p]) (seen[p] = 1), todo.push(p), reached.push(ids[p]!);
+    }
+  }
+  return reached;
 }

@@ -2,7 +2,7 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import { originsByWeight, originStatement, sharesBy } from "@/domain/origin";
 import type { Translate } from "@/lib/validation/field-errors";
-import { ancestryOf, lotsOfKindUp, type Ancestry } from "./ancestry";
+import { ancestryOf, lotsOfKindUp, lotsUpThrough, type Ancestry } from "./ancestry";
 import { claimsForLot } from "./claims";
 import { getDb } from "../platform/db";
 import { notFound } from "../platform/errors";
@@ -14,16 +14,23 @@ const CLAIMABLE = ["tank", "sake", "blend", "bottled"];
 
 type Head = { id: number; code: string; kind: string; contentIn: number };
 
+/** Lots of these kinds pass their parents' dates on: a bottling's blends, sake and tanks, up to each tank's additions. */
+const DATED_THROUGH = ["bottled", "blend", "sake", "tank"];
+
 /** Dates that matter to a buyer: mash additions of the tanks behind a lot, pressing, bottling. */
-function keyDates(lotId: number) {
+function keyDates(lotId: number, ancestry: Ancestry) {
+  // The lots come from the lineage already read; SQLite walks them itself only where that read stopped short.
+  const lots = lotsUpThrough(ancestry, lotId, DATED_THROUGH);
+  const up = lots
+    ? sql`select value as lot_id from json_each(${JSON.stringify(lots)})`
+    : sql`with recursive up(lot_id) as (
+        select ${lotId}
+        union
+        select e.parent_lot_id from up join lineage_edges e on e.child_lot_id = up.lot_id
+        join lots c on c.id = up.lot_id where c.kind in ('bottled', 'blend', 'sake', 'tank')
+      ) select lot_id from up`;
   const rows = getDb().all<{ step: string; at: number }>(sql`
-    with recursive up(lot_id) as (
-      select ${lotId}
-      union
-      select e.parent_lot_id from up join lineage_edges e on e.child_lot_id = up.lot_id
-      join lots c on c.id = up.lot_id where c.kind in ('bottled', 'blend', 'sake', 'tank')
-    )
-    select ev.step, min(ev.at) as at from up
+    select ev.step, min(ev.at) as at from (${up}) up
     join event_outputs o on o.lot_id = up.lot_id
     join events ev on ev.id = o.event_id
     where ev.step in ('mash-addition', 'pressing', 'bottling') and not exists (select 1 from events c where c.corrects = ev.id)
@@ -59,7 +66,7 @@ export function provenanceOf(head: Head, t: Translate, claims: ReturnType<typeof
     kojiRatioPct: claims?.kojiRatioPct ?? null,
     categories: claims ? claims.categories.filter((c) => c.eligible).map((c) => c.name) : [],
     product: productOfLot(head.id, claims ? claims.categories.filter((c) => c.eligible).map((c) => c.name) : null),
-    ...keyDates(head.id),
+    ...keyDates(head.id, ancestry),
     shares: sources.length,
   };
 }
