@@ -13,11 +13,7 @@ import {
 } from "@tanstack/react-table";
 import { useState } from "react";
 import { useTranslations } from "next-intl";
-
-// The CSV writer (papaparse, and zod through the import schemas beside it) and the Shift_JIS
-// table load on the first download, not with every page that shows a table.
-const csvTools = () => import("@/lib/validation/csv");
-const shiftJisTools = () => import("@/lib/shift-jis");
+import { CsvButtons, useCsvSave } from "./csv-buttons";
 
 type Props<T> = {
   data: T[];
@@ -33,10 +29,7 @@ type Props<T> = {
 /** The office's table: sortable headers, one filter box over every column, pages, and a CSV of what it shows. */
 export function DataTable<T>({ data, columns, pageSize = 25, label, testId, exportName = "grainline-export", rowId }: Props<T>) {
   const t = useTranslations("table");
-  const tc = useTranslations("csv");
-  const te = useTranslations("errors");
   const [sorting, setSorting] = useState<SortingState>([]);
-  const [csvProblem, setCsvProblem] = useState<string | null>(null);
   const [globalFilter, setGlobalFilter] = useState("");
   const table = useReactTable({
     data,
@@ -52,19 +45,7 @@ export function DataTable<T>({ data, columns, pageSize = 25, label, testId, expo
     initialState: { pagination: { pageSize } },
   });
   const rows = table.getRowModel().rows;
-  // As the server's Shift_JIS downloads: a value Shift_JIS cannot hold is named, never written as "?".
-  async function download() {
-    const { csvText, saveCsvFile } = await csvTools();
-    saveCsvFile(`${exportName}.csv`, tableCsv(table, csvText));
-  }
-  async function downloadShiftJis() {
-    const [{ csvText, saveCsvFile }, { encodeShiftJis, firstMisfitCell, fitsShiftJis }] = await Promise.all([csvTools(), shiftJisTools()]);
-    const text = tableCsv(table, csvText).replace(/^\uFEFF/, "");
-    const bytes = encodeShiftJis(text);
-    const misfit = bytes ? null : firstMisfitCell(text, fitsShiftJis);
-    setCsvProblem(misfit ? te("csvNotShiftJis", misfit) : null);
-    if (bytes) saveCsvFile(`${exportName}-sjis.csv`, bytes, "Shift_JIS");
-  }
+  const save = useCsvSave(exportName, (csvText) => tableCsv(table, csvText));
   const pages = Math.max(1, table.getPageCount());
 
   return (
@@ -76,15 +57,10 @@ export function DataTable<T>({ data, columns, pageSize = 25, label, testId, expo
         </label>
         <div className="flex items-center gap-3">
           <p className="text-sm text-ink-soft">{t("rows", { count: table.getFilteredRowModel().rows.length })}</p>
-          <button type="button" className="btn-quiet" title={tc("downloadTitle")} onClick={download}>
-            {tc("download")}
-          </button>
-          <button type="button" className="text-sm underline" title={tc("encodings.shiftJisTitle")} aria-label={tc("encodings.shiftJisOf", { label: tc("download") })} data-testid={testId ? `${testId}-csv-sjis` : undefined} onClick={downloadShiftJis}>
-            {tc("encodings.shiftJis")}
-          </button>
+          <CsvButtons save={save} testId={testId} />
         </div>
       </div>
-      {csvProblem ? <p role="alert" className="notice-warn">{csvProblem}</p> : null}
+      {save.problem ? <p role="alert" className="notice-warn">{save.problem}</p> : null}
       <div className="overflow-x-auto rounded-lg border-2 border-paper-deep bg-white">
         <table className="w-full border-collapse text-sm" aria-label={label}>
           <thead className="bg-paper-deep text-left">

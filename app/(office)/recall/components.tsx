@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { getFormatter, getTranslations } from "next-intl/server";
 import { getQuantity } from "@/lib/get-quantity";
+import { PageLinks } from "@/components/page-links";
 import { pageOfLots, recallHref, type ReachedLot, type TableView } from "./table-view";
 
 /**
@@ -50,13 +51,7 @@ export async function ReachedLotsTable({ lots, view }: { lots: ReachedLot[]; vie
           </tbody>
         </table>
       </div>
-      {pages > 1 ? (
-        <nav className="flex items-center gap-3 text-sm" aria-label={t("recall.reachedTitle")} data-testid="recall-pages">
-          {page > 1 ? <Link href={recallHref({ ...view, page: page - 1 })} className="btn-quiet" rel="prev">{t("recall.previousPage")}</Link> : null}
-          <span>{t("recall.pageOf", { page, pages })}</span>
-          {page < pages ? <Link href={recallHref({ ...view, page: page + 1 })} className="btn-quiet" rel="next">{t("recall.nextPage")}</Link> : null}
-        </nav>
-      ) : null}
+      <PageLinks page={page} pages={pages} href={(p) => recallHref({ ...view, page: p })} label={t("recall.reachedTitle")} testId="recall-pages" words={{ previous: t("recall.previousPage"), next: t("recall.nextPage"), pageOf: t("recall.pageOf", { page, pages }) }} />
     </div>
   );
 }

@@ -1,5 +1,7 @@
 /** The recall page's table of reached lots: what a page of it shows, and the address of each view. */
 
+import { pageOf } from "@/lib/paging";
+
 export type ReachedLot = { code: string; kind: string; unit: string; fraction: number; onHand: number; holder: string; recalled: boolean; shippedToBuyer: boolean; hold: string | null };
 
 /** Rows of the lots table a page shows: a wide recall reaches thousands; the CSV carries them all. */
@@ -17,11 +19,7 @@ export function recallHref({ code, page, onlyShipped }: TableView): string {
 
 /** The page of lots to show, the page number kept within the table. */
 export function pageOfLots(lots: ReachedLot[], view: TableView) {
-  const shown = view.onlyShipped ? lots.filter((l) => l.shippedToBuyer) : lots;
-  const pages = Math.max(1, Math.ceil(shown.length / RECALL_PAGE_SIZE));
-  const page = Math.min(Math.max(1, Math.floor(view.page) || 1), pages);
-  const from = (page - 1) * RECALL_PAGE_SIZE;
-  return { rows: shown.slice(from, from + RECALL_PAGE_SIZE), page, pages, from: shown.length ? from + 1 : 0, to: Math.min(from + RECALL_PAGE_SIZE, shown.length), total: shown.length };
+  return pageOf(view.onlyShipped ? lots.filter((l) => l.shippedToBuyer) : lots, view.page, RECALL_PAGE_SIZE);
 }
 
 /** How many lots of each kind the recall reached (the recalled lot left out), in the order first met. */

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { forbidden, notFound } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { AccountTable, BalancePanel, StatementsTable } from "@/components/supplier-account";
-import { DeliveriesTable, RunsTable } from "@/components/supplier-activity";
+import { RunsTable } from "@/components/supplier-activity";
 import { can } from "@/domain/permissions";
 import { dayIn, nextDay } from "@/i18n/dates";
 import { actionTranslator } from "@/server/platform/action";
@@ -19,8 +19,13 @@ import { getParty } from "@/server/ledger/parties";
 import { ContractsTable, GrowerContractForm, MillContractForm } from "./contract-forms";
 import { AdjustmentForm, InvoiceNumberForm, StatementForm } from "./components";
 import { PaymentForm, PaymentsList } from "./payment-forms";
+import { DeliveriesPagedTable } from "./deliveries-table";
+import { deliveriesHref, isUnpriced, type DeliveriesView } from "./deliveries-view";
 
-export default async function SupplierPage({ params }: { params: Promise<{ partyId: string }> }) {
+type Search = { page?: string | string[]; unpriced?: string | string[] };
+const first = (value: string | string[] | undefined) => (Array.isArray(value) ? value[0] : value);
+
+export default async function SupplierPage({ params, searchParams }: { params: Promise<{ partyId: string }>; searchParams: Promise<Search> }) {
   const user = await requirePageUser();
   if (!can(user, "ledger:read-all")) forbidden();
   const { partyId } = await params;
@@ -32,7 +37,9 @@ export default async function SupplierPage({ params }: { params: Promise<{ party
   const ledger = ledgerOf(getDb(), partyId);
   const deliveries = party.kind === "grower" ? deliveriesOf(partyId) : [];
   const runs = party.kind === "mill" ? runsOf(partyId) : [];
-  const unpriced = deliveries.filter((d) => d.amountYen === null && !d.reversed);
+  const unpriced = deliveries.filter(isUnpriced);
+  const search = await searchParams;
+  const view: DeliveriesView = { partyId, page: Number(first(search.page)) || 1, unpricedOnly: first(search.unpriced) === "1" };
   const unpricedRuns = runs.filter((r) => r.feeYen === null && !r.reversed);
   const zone = breweryTimeZone();
   const payments = manage ? paymentLines(ledger, translate, zone) : [];
@@ -70,14 +77,22 @@ export default async function SupplierPage({ params }: { params: Promise<{ party
         <h2 className="text-xl font-bold">{party.kind === "grower" ? t("detail.unpriced") : t("detail.unpricedRuns")}</h2>
         {party.kind === "grower" ? <p className="max-w-3xl text-sm text-ink-soft">{t("detail.unpricedIntro")}</p> : null}
         {unpriced.length || unpricedRuns.length ? (
-          party.kind === "grower" ? <DeliveriesTable rows={unpriced} testId="unpriced-table" /> : <RunsTable rows={unpricedRuns} testId="unpriced-table" />
+          // A grower's unpriced deliveries are listed once, in the deliveries table below, marked there and shown alone on a click.
+          party.kind === "grower" ? (
+            <p className="flex flex-wrap items-center gap-3" data-testid="unpriced-count">
+              {t("detail.unpricedCount", { count: unpriced.length })}
+              {view.unpricedOnly ? null : <Link href={deliveriesHref({ ...view, page: 1, unpricedOnly: true })} className="btn-quiet">{t("detail.showUnpriced")}</Link>}
+            </p>
+          ) : (
+            <RunsTable rows={unpricedRuns} testId="unpriced-table" />
+          )
         ) : (
           <p className="notice">{party.kind === "grower" ? t("detail.unpricedNone") : t("detail.unpricedRunsNone")}</p>
         )}
       </section>
-      <section className="space-y-3">
+      <section className="space-y-3" id="deliveries">
         <h2 className="text-xl font-bold">{party.kind === "grower" ? t("detail.deliveries") : t("detail.runs")}</h2>
-        {party.kind === "grower" ? <DeliveriesTable rows={deliveries} /> : <RunsTable rows={runs} />}
+        {party.kind === "grower" ? <DeliveriesPagedTable deliveries={deliveries} view={view} /> : <RunsTable rows={runs} />}
       </section>
       <section className="space-y-3">
         <h2 className="text-xl font-bold">{t("detail.entries")}</h2>

@@ -1,0 +1,69 @@
+import Link from "next/link";
+import { getFormatter, getTranslations } from "next-intl/server";
+import { RowsCsvButtons } from "@/components/csv-buttons";
+import { PageLinks } from "@/components/page-links";
+import type { Delivery } from "@/server/suppliers/supplier-portal";
+import { deliveriesCsvRows, deliveriesHref, pageOfDeliveries, type DeliveriesView } from "./deliveries-view";
+
+/**
+ * A grower's deliveries and what each was priced at, a page at a time, rendered on the server
+ * only (the rows are not sent again for the browser to draw); "no contract price" where none was.
+ */
+export async function DeliveriesPagedTable({ deliveries, view }: { deliveries: Delivery[]; view: DeliveriesView }) {
+  const t = await getTranslations("suppliers");
+  const tl = await getTranslations("lot");
+  const tt = await getTranslations("table");
+  const format = await getFormatter();
+  const yen = (v: number) => format.number(v, { style: "currency", currency: "JPY" });
+  const { shown, rows, page, pages, from, to, total } = pageOfDeliveries(deliveries, view);
+  const headers = [t("columns.date"), t("columns.lot"), t("columns.variety"), t("columns.cropYear"), t("columns.grade"), t("columns.kg"), t("columns.slip"), t("columns.receiver"), t("columns.amount"), t("columns.status")];
+  return (
+    <div className="space-y-3" data-testid="deliveries-table">
+      <div className="flex flex-wrap items-center justify-between gap-3 text-sm">
+        <p className="flex flex-wrap items-center gap-3">
+          <Link href={deliveriesHref({ ...view, page: 1, unpricedOnly: !view.unpricedOnly })} className="btn-quiet" data-testid="deliveries-unpriced-only" aria-pressed={view.unpricedOnly}>
+            {view.unpricedOnly ? t("detail.showAllDeliveries") : t("detail.showUnpriced")}
+          </Link>
+          <span data-testid="deliveries-range">{t("detail.deliveriesRange", { from, to, total })}</span>
+        </p>
+        <div className="flex items-center gap-3">
+          <RowsCsvButtons headers={headers} rows={deliveriesCsvRows(shown, t("reversed"))} exportName="grainline-deliveries" testId="deliveries-table" />
+        </div>
+      </div>
+      <div className="overflow-x-auto rounded-lg border-2 border-paper-deep bg-white">
+        <table className="w-full border-collapse text-sm" aria-label={t("detail.deliveries")}>
+          <thead className="bg-paper-deep text-left">
+            <tr>
+              {headers.map((h) => (
+                <th key={h} scope="col" className="px-3 py-2 font-semibold">{h}</th>
+              ))}
+            </tr>
+          </thead>
+          <tbody>
+            {rows.length === 0 ? (
+              <tr>
+                <td colSpan={headers.length} className="px-3 py-6 text-center text-ink-soft">{tt("empty")}</td>
+              </tr>
+            ) : (
+              rows.map((d) => (
+                <tr key={`${d.eventId}-${d.code}`} className="border-t border-paper-deep odd:bg-paper/40" data-unpriced={d.amountYen === null || undefined}>
+                  <td className="px-3 py-2">{format.dateTime(d.at, "day")}</td>
+                  <td className="px-3 py-2"><Link className="code-chip no-underline" href={`/lots/${d.code}`}>{d.code}</Link></td>
+                  <td className="px-3 py-2">{d.variety}</td>
+                  <td className="px-3 py-2">{d.cropYear}</td>
+                  <td className="px-3 py-2">{d.grade ? tl(`grades.${d.grade}`) : ""}</td>
+                  <td className="px-3 py-2">{format.number(d.kg, { maximumFractionDigits: 1 })}</td>
+                  <td className="px-3 py-2">{d.slip}</td>
+                  <td className="px-3 py-2">{d.receiver}</td>
+                  <td className="px-3 py-2">{d.amountYen === null ? <span className="text-persimmon">{t("noPrice")}</span> : yen(d.amountYen)}</td>
+                  <td className="px-3 py-2">{d.reversed ? t("reversed") : ""}</td>
+                </tr>
+              ))
+            )}
+          </tbody>
+        </table>
+      </div>
+      <PageLinks page={page} pages={pages} href={(p) => deliveriesHref({ ...view, page: p })} label={t("detail.deliveries")} testId="deliveries-pages" words={{ previous: tt("previous"), next: tt("next"), pageOf: tt("page", { page, pages }) }} />
+    </div>
+  );
+}
