@@ -27,41 +27,68 @@ type Lineage = {
 export type Ancestry = Lineage & { details: Map<number, { code: string; attributes: string | null; polishingRatioPct: number | null }> };
 
 /**
- * Everything behind a lot up to its harvest lots, read in one statement: each lot once, however
- * many routes lead to it (a blend of blends reaches its rice by tens of thousands of paths).
- * Lots with no content pass nothing on, so the walk stops there as the fraction walks do.
+ * Everything behind a lot up to its harvest lots: each lot once, however many routes lead to it
+ * (a blend of blends reaches its rice by tens of thousands of paths). Lots with no content pass
+ * nothing on, so the walk stops there as the fraction walks do.
  */
 function readLineage(lotId: number): Lineage {
-  // Handed over as a few flat JSON arrays built inside SQLite: thousands of rows cost more to
-  // pass to JavaScript one by one than the walk itself. Each lot's kind and content come with
-  // it from the step that reached it, so the lots are not looked up a second time.
-  const row = getDb().get<Record<"ids" | "kinds" | "contents" | "children" | "parents" | "weights", string>>(sql`
-    with recursive up(lot_id, kind, content_in) as (
-      select id, kind, content_in from lots where id = ${lotId}
-      union
-      select p.id, p.kind, p.content_in from up join lineage_edges e on e.child_lot_id = up.lot_id join lots p on p.id = e.parent_lot_id
-      where up.kind <> 'harvest' and up.content_in > 0
-    )
-    select * from
-      (select json_group_array(lot_id) as ids, json_group_array(kind) as kinds, json_group_array(content_in) as contents from up),
-      (select json_group_array(e.child_lot_id) as children, json_group_array(e.parent_lot_id) as parents, json_group_array(e.weight) as weights
-       from up join lineage_edges e on e.child_lot_id = up.lot_id
-       where up.kind <> 'harvest' and up.content_in > 0)`)!;
-  const [ids, kinds, contents] = [JSON.parse(row.ids) as number[], JSON.parse(row.kinds) as string[], JSON.parse(row.contents) as number[]];
+  const head = getDb().get<{ kind: string; contentIn: number }>(sql`select kind, content_in as contentIn from lots where id = ${lotId}`);
+  const ids: number[] = [];
+  const kinds: string[] = [];
+  const contents: number[] = [];
+  const at = new Map<number, number>();
+  const found = (id: number, kind: string, contentIn: number) => (at.set(id, ids.length), ids.push(id), kinds.push(kind), contents.push(contentIn));
+  if (head) found(lotId, head.kind, head.contentIn);
+  // Every edge as recorded: a link and its reversal both pass, and cancel in the sums.
+  const [children, parents, weights]: [number[], number[], number[]] = [[], [], []];
+  // One step up at a time, each lot's edges read once: one recursive statement read every edge
+  // twice (to find the lots, then to hand the edges over) and kept a sorted copy of the lots.
+  for (let step = ids.slice(); step.length; ) {
+    const open = step.filter((id) => kinds[at.get(id)!] !== "harvest" && contents[at.get(id)!]! > 0);
+    step = [];
+    if (!open.length) break;
+    const edges = parentsStep(open);
+    edges.children.forEach((child, n) => {
+      const parent = edges.parents[n]!;
+      children.push(child), parents.push(parent), weights.push(edges.weights[n]!);
+      if (!at.has(parent)) found(parent, edges.kinds[n]!, edges.contents[n]!), step.push(parent);
+    });
+  }
+  return indexed(ids, kinds, contents, { children, parents, weights });
+}
+
+/**
+ * The recorded edges into these lots, each with its parent's kind and content. Handed over as
+ * flat JSON arrays built inside SQLite: thousands of rows cost more to pass to JavaScript one
+ * by one than the walk itself.
+ */
+function parentsStep(lotIds: number[]) {
+  const row = getDb().get<Record<"children" | "parents" | "weights" | "kinds" | "contents", string>>(sql`
+    select json_group_array(e.child_lot_id) as children, json_group_array(e.parent_lot_id) as parents, json_group_array(e.weight) as weights,
+      json_group_array(p.kind) as kinds, json_group_array(p.content_in) as contents
+    from json_each(${JSON.stringify(lotIds)}) c join lineage_edges e on e.child_lot_id = c.value join lots p on p.id = e.parent_lot_id`)!;
+  return {
+    children: JSON.parse(row.children) as number[],
+    parents: JSON.parse(row.parents) as number[],
+    weights: JSON.parse(row.weights) as number[],
+    kinds: JSON.parse(row.kinds) as string[],
+    contents: JSON.parse(row.contents) as number[],
+  };
+}
+
+/** Each lot's edges as a slice of two typed arrays, in the order read, so that the sums add up in the same order every time. */
+function indexed(ids: number[], kinds: string[], contents: number[], edges: { children: number[]; parents: number[]; weights: number[] }): Lineage {
   const at = new Map(ids.map((id, n) => [id, n]));
   const lots = new Map(ids.map((id, n) => [id, { kind: kinds[n]!, contentIn: contents[n]! }]));
-  // Every edge as recorded: a link and its reversal both pass, and cancel in the sums. Kept in
-  // the order read, per child, so that the sums add up in the same order as before.
-  const [children, parents, weights] = [JSON.parse(row.children) as number[], JSON.parse(row.parents) as number[], JSON.parse(row.weights) as number[]];
   const first = new Int32Array(ids.length + 1);
-  for (const child of children) first[at.get(child)! + 1]!++;
+  for (const child of edges.children) first[at.get(child)! + 1]!++;
   for (let n = 0; n < ids.length; n++) first[n + 1]! += first[n]!;
   const next = first.slice(0, ids.length);
-  const [parent, weight] = [new Int32Array(children.length), new Float64Array(children.length)];
-  children.forEach((child, n) => {
+  const [parent, weight] = [new Int32Array(edges.children.length), new Float64Array(edges.children.length)];
+  edges.children.forEach((child, n) => {
     const slot = next[at.get(child)!]!++;
-    parent[slot] = at.get(parents[n]!)!;
-    weight[slot] = weights[n]!;
+    parent[slot] = at.get(edges.parents[n]!)!;
+    weight[slot] = edges.weights[n]!;
   });
   const described = ids.filter((_, n) => kinds[n] === "tank" || kinds[n] === "polished");
   const scratch = { waiting: new Int32Array(ids.length), seen: new Uint8Array(ids.length), share: new Float64Array(ids.length), given: new Uint8Array(ids.length) };
