@@ -39,7 +39,11 @@ export default async function LotGraphPage({ params }: { params: Promise<{ code:
   );
 }
 
-/** The same nodes and edges as an ordered list: for screen readers, printing and search. */
+/**
+ * The same nodes and edges as an ordered list: for screen readers, printing and search.
+ * Plain anchors, not <Link>: a 500-lot list of client links doubled the page's payload and
+ * its hydration, and held the graph's first drawing back (bench/JOBS.md).
+ */
 async function LineageText({ items }: { items: ReturnType<typeof readingOrder> }) {
   const t = await getTranslations("graph");
   const format = await getFormatter();
@@ -55,7 +59,7 @@ async function LineageText({ items }: { items: ReturnType<typeof readingOrder> }
         {items.map(({ node, current, from }) => (
           <li key={node.id} className={current ? "font-semibold" : undefined}>
             <span className="mr-2">{t(`kinds.${node.kind}`)}</span>
-            {node.visible && node.code ? <Link href={`/lots/${encodeURIComponent(node.code)}`} className="code-chip no-underline">{node.code}</Link> : <span>{name(node)}</span>}
+            {node.visible && node.code ? <a href={`/lots/${encodeURIComponent(node.code)}`} className="code-chip no-underline">{node.code}</a> : <span>{name(node)}</span>}
             {node.code && node.label !== node.code ? <span className="ml-2">{node.label}</span> : null}
             {[node.detail, amount(node.quantity, node.unit)].filter(Boolean).map((x) => <span key={x} className="ml-2 text-sm text-ink-soft">{x}</span>)}
             {current ? <span className="ml-2 text-sm text-persimmon">{t("thisLot")}</span> : null}
