@@ -17,7 +17,7 @@ const ATTRIBUTE_WRITERS: [string, RegExp][] = [
   ["src/server/ledger/polishing-runs.ts", /\battributes: \{/g],
   ["src/server/ledger/bottling-product.ts", /\battributes: \{/g],
   ["src/server/ledger/receipts.ts", /attributes: JSON\.stringify\(\{/g],
-  ["src/server/ledger/harvests.ts", /attributes: JSON\.stringify\(\{/g],
+  ["src/server/ledger/harvests.ts", /\battributes = JSON\.stringify\(\{/g],
 ];
 /** Ids and nested structures: shown by their own panels (band charts, portions, koji checks), never as one figure. */
 const NOT_FIGURES = new Set(["dispatch", "productId", "band", "bandCheck", "portions", "kojiChecks"]);
