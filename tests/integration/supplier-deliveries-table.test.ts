@@ -59,11 +59,12 @@ describe("the supplier account's deliveries table", () => {
     deliveries = manyDeliveries();
   });
 
-  it("shows every delivery, in the order read, 50 a page, the page number kept within the table", () => {
+  it("shows every delivery, in the order read, a page at a time, the page number kept within the table", () => {
     const view = { partyId: "grower-ikeda", page: 1, unpricedOnly: false };
     const pages = [1, 2, 3].map((page) => pageOfDeliveries(deliveries, { ...view, page }));
     expect(pages.flatMap((p) => p.rows)).toEqual(deliveries);
-    expect(pages.map((p) => [p.from, p.to, p.pages, p.total])).toEqual([[1, 50, 3, 107], [51, 100, 3, 107], [101, 107, 3, 107]]);
+    const size = DELIVERIES_PAGE_SIZE;
+    expect(pages.map((p) => [p.from, p.to, p.pages, p.total])).toEqual([[1, size, 3, 2 * size + 7], [size + 1, 2 * size, 3, 2 * size + 7], [2 * size + 1, 2 * size + 7, 3, 2 * size + 7]]);
     expect(pageOfDeliveries(deliveries, { ...view, page: 99 }).page).toBe(3);
     for (const odd of [Number.NaN, -4, 0, 1.5]) expect(pageOfDeliveries(deliveries, { ...view, page: odd }).page).toBe(1);
     expect(pageOfDeliveries([], view)).toMatchObject({ rows: [], from: 0, to: 0, total: 0, pages: 1 });

@@ -31,7 +31,8 @@ export async function DeliveriesPagedTable({ deliveries, view }: { deliveries: D
         </div>
       </div>
       <div className="overflow-x-auto rounded-lg border-2 border-paper-deep bg-white">
-        <table className="w-full border-collapse text-sm" aria-label={t("detail.deliveries")}>
+        {/* The rows' and cells' look is set once here, not on each: every row is written twice, in the HTML and in the page's payload. */}
+        <table className="w-full border-collapse text-sm [&_td]:px-3 [&_td]:py-2 [&_tbody_tr]:border-t [&_tbody_tr]:border-paper-deep [&_tbody_tr:nth-child(odd)]:bg-paper/40" aria-label={t("detail.deliveries")}>
           <thead className="bg-paper-deep text-left">
             <tr>
               {headers.map((h) => (
@@ -42,21 +43,21 @@ export async function DeliveriesPagedTable({ deliveries, view }: { deliveries: D
           <tbody>
             {rows.length === 0 ? (
               <tr>
-                <td colSpan={headers.length} className="px-3 py-6 text-center text-ink-soft">{tt("empty")}</td>
+                <td colSpan={headers.length} className="py-6! text-center text-ink-soft">{tt("empty")}</td>
               </tr>
             ) : (
               rows.map((d) => (
-                <tr key={`${d.eventId}-${d.code}`} className="border-t border-paper-deep odd:bg-paper/40" data-unpriced={d.amountYen === null || undefined}>
-                  <td className="px-3 py-2">{format.dateTime(d.at, "day")}</td>
-                  <td className="px-3 py-2"><Link className="code-chip no-underline" href={`/lots/${d.code}`}>{d.code}</Link></td>
-                  <td className="px-3 py-2">{d.variety}</td>
-                  <td className="px-3 py-2">{d.cropYear}</td>
-                  <td className="px-3 py-2">{d.grade ? tl(`grades.${d.grade}`) : ""}</td>
-                  <td className="px-3 py-2">{format.number(d.kg, { maximumFractionDigits: 1 })}</td>
-                  <td className="px-3 py-2">{d.slip}</td>
-                  <td className="px-3 py-2">{d.receiver}</td>
-                  <td className="px-3 py-2">{d.amountYen === null ? <span className="text-persimmon">{t("noPrice")}</span> : yen(d.amountYen)}</td>
-                  <td className="px-3 py-2">{d.reversed ? t("reversed") : ""}</td>
+                <tr key={`${d.eventId}-${d.code}`} data-unpriced={d.amountYen === null || undefined}>
+                  <td>{format.dateTime(d.at, "day")}</td>
+                  <td><Link className="code-chip no-underline" href={`/lots/${d.code}`}>{d.code}</Link></td>
+                  <td>{d.variety}</td>
+                  <td>{d.cropYear}</td>
+                  <td>{d.grade ? tl(`grades.${d.grade}`) : ""}</td>
+                  <td>{format.number(d.kg, { maximumFractionDigits: 1 })}</td>
+                  <td>{d.slip}</td>
+                  <td>{d.receiver}</td>
+                  <td>{d.amountYen === null ? <span className="text-persimmon">{t("noPrice")}</span> : yen(d.amountYen)}</td>
+                  <td>{d.reversed ? t("reversed") : ""}</td>
                 </tr>
               ))
             )}

@@ -3,8 +3,8 @@
 import { pageOf } from "@/lib/paging";
 import type { Delivery } from "@/server/suppliers/supplier-portal";
 
-/** Rows a page of the table shows; the CSV carries every delivery of the view. */
-export const DELIVERIES_PAGE_SIZE = 50;
+/** Rows a page of the table shows (as the browser table it replaced); the CSV carries every delivery of the view. */
+export const DELIVERIES_PAGE_SIZE = 25;
 
 /** Which page, and whether only the deliveries without a contract price: both in the address, so links and reloads keep them. */
 export type DeliveriesView = { partyId: string; page: number; unpricedOnly: boolean };
