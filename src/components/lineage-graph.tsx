@@ -2,7 +2,7 @@
 
 import "@xyflow/react/dist/style.css";
 import Link from "next/link";
-import { createContext, useContext, useMemo, useRef, useState, useSyncExternalStore, type ReactNode } from "react";
+import { createContext, useContext, useRef, useState, useSyncExternalStore, type ReactNode } from "react";
 import { Background, Controls, Handle, MarkerType, MiniMap, Position, ReactFlow, type Edge, type Node, type NodeProps } from "@xyflow/react";
 import { useFormatter, useTranslations } from "next-intl";
 import { useQuantity } from "@/lib/use-quantity";
@@ -93,21 +93,39 @@ function useWideScreen(): boolean {
   );
 }
 
+type Props = {
+  code: string;
+  rootId: string;
+  /** How many lots each stage holds, in stage order: the fold buttons. */
+  counts: (readonly [StageKind, number])[];
+  /** The first drawing, laid out on the server. */
+  initial: GraphView;
+  /** Every lot and link, when the first drawing already shows them all; otherwise asked for on the first fold or unfold. */
+  graph?: LineageGraph;
+};
+
 /** The lineage of one lot as a pannable, zoomable drawing, stages foldable one by one. */
-export function LineageGraphView({ graph, code, initial }: { graph: LineageGraph; code: string; initial: GraphView }) {
+export function LineageGraphView({ code, rootId, counts, initial, graph }: Props) {
   const t = useTranslations("graph");
   const format = useFormatter();
   const amount = useQuantity();
   const wide = useWideScreen();
   const [view, setView] = useState(initial);
   const asked = useRef(0);
-  const counts = useMemo(() => STAGE_ORDER.map((kind) => [kind, graph.nodes.filter((n) => n.kind === kind).length] as const).filter(([, n]) => n > 0), [graph]);
+  // A large lineage's whole graph (137 KB for 474 lots) is not in the page: it held the first drawing back.
+  const whole = useRef<Promise<LineageGraph> | null>(graph ? Promise.resolve(graph) : null);
+  const wholeGraph = () =>
+    (whole.current ??= fetch(`/api/lots/${encodeURIComponent(code)}/lineage`).then((r) => (r.ok ? (r.json() as Promise<LineageGraph>) : Promise.reject(new Error(`lineage ${r.status}`)))));
   const { placed } = view;
   const collapsed = new Set(view.folded);
-  // The layout code (dagre) loads only when someone folds or unfolds; the first drawing came laid out.
+  // The layout code (dagre) and, for a large lineage, every lot load only when someone folds or
+  // unfolds; the first drawing came laid out. A failed request is asked again on the next click.
   const refold = (next: Set<StageKind>) => {
     const ask = ++asked.current;
-    void import("@/domain/lineage-placement").then(({ placeView }) => { if (ask === asked.current) setView(placeView(graph, next)); });
+    Promise.all([wholeGraph(), import("@/domain/lineage-placement")]).then(
+      ([g, { placeView }]) => { if (ask === asked.current) setView(placeView(g, next)); },
+      () => { if (!graph) whole.current = null; },
+    );
   };
   const toggle = (kind: StageKind, fold?: boolean) => {
     const next = new Set(collapsed);
@@ -138,8 +156,8 @@ export function LineageGraphView({ graph, code, initial }: { graph: LineageGraph
   });
 
   // A phone shows the current lot and its neighbours at a readable size; a desk, the whole flow.
-  const near = placed.edges.filter((e) => e.source === graph.rootId || e.target === graph.rootId).flatMap((e) => [e.source, e.target]);
-  const focus = wide ? { padding: 0.05 } : { nodes: [graph.rootId, ...near].map((id) => ({ id })), padding: 0.2, maxZoom: 1 };
+  const near = placed.edges.filter((e) => e.source === rootId || e.target === rootId).flatMap((e) => [e.source, e.target]);
+  const focus = wide ? { padding: 0.05 } : { nodes: [rootId, ...near].map((id) => ({ id })), padding: 0.2, maxZoom: 1 };
 
   return (
     <div className="space-y-3">
@@ -159,7 +177,7 @@ export function LineageGraphView({ graph, code, initial }: { graph: LineageGraph
             nodesDraggable={false} nodesConnectable={false} elementsSelectable={false}>
             <Background gap={24} color="var(--color-paper-deep)" />
             <Controls showInteractive={false} />
-            {wide ? <MiniMap pannable zoomable nodeColor={(n) => (n.id === graph.rootId ? "var(--color-persimmon)" : "var(--color-husk)")} /> : null}
+            {wide ? <MiniMap pannable zoomable nodeColor={(n) => (n.id === rootId ? "var(--color-persimmon)" : "var(--color-husk)")} /> : null}
           </ReactFlow>
         </ExpandContext>
       </div>

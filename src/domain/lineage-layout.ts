@@ -46,6 +46,13 @@ export function defaultCollapsed(nodeCount: number): Set<StageKind> {
   return new Set<StageKind>(nodeCount > LARGE_GRAPH_NODES ? STAGE_ORDER : []);
 }
 
+/** How many lots each stage holds, in stage order, leaving out the stages with none. */
+export function stageCounts(nodes: Pick<LineageNode, "kind">[]): (readonly [StageKind, number])[] {
+  const count = new Map<StageKind, number>();
+  for (const n of nodes) count.set(n.kind, (count.get(n.kind) ?? 0) + 1);
+  return STAGE_ORDER.filter((kind) => count.has(kind)).map((kind) => [kind, count.get(kind)!] as const);
+}
+
 /**
  * Layer of each node: never before its stage's column and always after each of its
  * parents (longest path, Kahn's order). Nodes caught in a cycle, which the ledger

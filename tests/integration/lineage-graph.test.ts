@@ -1,12 +1,13 @@
 import { describe, expect, it } from "vitest";
 import { composition } from "@/domain/composition";
-import type { LineageGraph } from "@/domain/lineage-layout";
+import { STAGE_ORDER, stageCounts, type LineageGraph } from "@/domain/lineage-layout";
 import { getSqlite } from "@/server/platform/db";
 import { AppError } from "@/server/platform/errors";
 import { lineageGraph } from "@/server/trace/lineage-graph";
 import { DEMO_USERS } from "@/server/records/seed";
 import type { SessionUser } from "@/server/accounts/session";
 import { traceBackward } from "@/server/trace/trace";
+import { call, jsonRequest, signInAs } from "../support/api";
 
 // Figures from the seeded 2024–25 season (src/server/records/seed-brewing.ts): P24 run one polished
 // 1500 kg of the Terrace Paddy harvest and 500 kg of the North Basin harvest; Tank 1 took
@@ -16,6 +17,8 @@ const actor = (email: string) => DEMO_USERS.find((u) => u.email === email)! as S
 const sales = actor("sales@example.com");
 const codeOf = (query: string) => (getSqlite().prepare(query).get() as { code: string }).code;
 const bottled = () => codeOf("select code from lots where kind = 'bottled' order by id limit 1");
+/** grower2's own 2024 harvest from River Flat. */
+const own = () => codeOf("select code from lots where kind = 'harvest' and field_id = 'field-nakase-river' and crop_year = 2024");
 const byCode = (g: LineageGraph, code: string) => g.nodes.find((n) => n.code === code)!;
 const into = (g: LineageGraph, id: string) => g.edges.filter((e) => e.target === id);
 
@@ -78,7 +81,6 @@ describe("the lineage graph of a bottling, as sales sees it", () => {
 
 describe("what another grower sees", () => {
   const grower2 = actor("grower2@example.com");
-  const own = () => codeOf("select code from lots where kind = 'harvest' and field_id = 'field-nakase-river' and crop_year = 2024");
 
   it("shows the rest of the flow as anonymous nodes with no code, quantity or paddy", () => {
     const g = lineageGraph(grower2, own());
@@ -129,5 +131,33 @@ describe("corrections and size", () => {
     const ids = new Set(g.nodes.map((n) => n.id));
     expect(ids.has(g.rootId)).toBe(true);
     expect(g.edges.every((e) => ids.has(e.source) && ids.has(e.target))).toBe(true);
+  });
+});
+
+describe("GET /api/lots/{code}/lineage, asked by the graph page on the first unfolding", () => {
+  it("answers the page's graph, as the viewer may see it, and its stage counts match the nodes", async () => {
+    const { GET } = await import("../../app/api/lots/[code]/lineage/route");
+    for (const [email, code] of [["sales@example.com", bottled()], ["grower2@example.com", own()]] as const) {
+      const cookie = await signInAs(email);
+      const res = await call(GET, jsonRequest(`/api/lots/${encodeURIComponent(code)}/lineage`, { cookie }), { code });
+      expect(res.status).toBe(200);
+      const g = lineageGraph(actor(email), code);
+      expect(res.body).toEqual(JSON.parse(JSON.stringify(g)));
+      const counts = stageCounts(g.nodes);
+      expect(counts.reduce((a, [, n]) => a + n, 0)).toBe(g.nodes.length);
+      for (const [kind, n] of counts) expect(g.nodes.filter((x) => x.kind === kind)).toHaveLength(n);
+      expect(counts.map(([kind]) => kind)).toEqual(STAGE_ORDER.filter((k) => g.nodes.some((x) => x.kind === k)));
+    }
+  });
+
+  it("answers 404 in the error shape for a lot the viewer may not see, an unknown or hostile code, and 401 without a session", async () => {
+    const { GET } = await import("../../app/api/lots/[code]/lineage/route");
+    const cookie = await signInAs("grower2@example.com");
+    for (const code of [bottled(), "NO-SUCH-1", "'; drop table lots; --", "../../etc/passwd", "🍶".repeat(300), ""]) {
+      const res = await call(GET, jsonRequest(`/api/lots/${encodeURIComponent(code)}/lineage`, { cookie }), { code });
+      expect(res.status, code).toBe(404);
+      expect(res.body.error.code).toBeTypeOf("string");
+    }
+    expect((await call(GET, jsonRequest(`/api/lots/${bottled()}/lineage`), { code: bottled() })).status).toBe(401);
   });
 });

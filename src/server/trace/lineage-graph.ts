@@ -98,12 +98,15 @@ function toNode(row: LotRow, id: string): LineageNode {
   return { id, code: row.code, kind: row.kind, label: row.tankName ?? row.code, detail: detail || null, quantity: row.quantity, unit: row.unit, onHand: row.onHand, visible: true };
 }
 
+/** Room for a blend of about 500 lots, drawn whole with its stages grouped (bench/JOBS.md times it). */
+export const GRAPH_MAX_NODES = 600;
+
 /**
  * The lineage graph of a lot, paddy to bottle, for drawing. Lots the viewer may not see
  * stay in the graph (the shape of the flow is not theirs to lose) but carry no code, no
  * quantities and an id that says nothing; their paddies are left out.
  */
-export function lineageGraph(actor: SessionUser, code: string, { maxNodes = 400 }: { maxNodes?: number } = {}): LineageGraph {
+export function lineageGraph(actor: SessionUser, code: string, { maxNodes = GRAPH_MAX_NODES }: { maxNodes?: number } = {}): LineageGraph {
   const rootId = findLotId(actor, code);
   if (rootId === null) throw notFound({ key: "errors.lotNotFound", values: { code } });
   const { ids, truncated } = pickIds(rootId, reach(rootId, maxNodes + 1), maxNodes);

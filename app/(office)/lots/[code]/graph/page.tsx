@@ -1,17 +1,15 @@
 import Link from "next/link";
+import { Suspense } from "react";
 import { notFound } from "next/navigation";
 import { getFormatter, getTranslations } from "next-intl/server";
 import { getQuantity } from "@/lib/get-quantity";
 import { LineageGraphView } from "@/components/lineage-graph";
-import { readingOrder, type LineageEdge, type LineageNode } from "@/domain/lineage-layout";
+import { readingOrder, stageCounts, type LineageEdge, type LineageNode } from "@/domain/lineage-layout";
 import { firstView } from "@/domain/lineage-placement";
 import { normaliseLotCode } from "@/domain/lot-code";
-import { lineageGraph } from "@/server/trace/lineage-graph";
+import { GRAPH_MAX_NODES, lineageGraph } from "@/server/trace/lineage-graph";
 import { findLotId } from "@/server/ledger/lots";
 import { requirePageUser } from "@/server/accounts/page-guard";
-
-// Room for a blend of about 500 lots, drawn whole with its stages grouped (bench/JOBS.md times it).
-const MAX_NODES = 600;
 
 export async function generateMetadata({ params }: { params: Promise<{ code: string }> }) {
   const t = await getTranslations("graph");
@@ -22,7 +20,8 @@ export default async function LotGraphPage({ params }: { params: Promise<{ code:
   const user = await requirePageUser();
   const code = normaliseLotCode(decodeURIComponent((await params).code));
   if (findLotId(user, code) === null) notFound();
-  const graph = lineageGraph(user, code, { maxNodes: MAX_NODES });
+  const graph = lineageGraph(user, code, { maxNodes: GRAPH_MAX_NODES });
+  const initial = firstView(graph);
   const t = await getTranslations("graph");
 
   return (
@@ -32,9 +31,13 @@ export default async function LotGraphPage({ params }: { params: Promise<{ code:
         <Link href={`/lots/${encodeURIComponent(code)}`} className="btn-quiet print:hidden">{t("backToLot")}</Link>
       </div>
       <p className="max-w-3xl text-ink-soft">{t("intro")}</p>
-      {graph.truncated ? <p className="notice-warn" role="status">{t("truncated", { max: MAX_NODES })}</p> : null}
-      <LineageGraphView graph={graph} code={code} initial={firstView(graph)} />
-      <LineageText items={readingOrder(graph)} />
+      {graph.truncated ? <p className="notice-warn" role="status">{t("truncated", { max: GRAPH_MAX_NODES })}</p> : null}
+      {/* A folded first view leaves the whole graph out of the page: the browser asks for it on unfolding. */}
+      <LineageGraphView code={code} rootId={graph.rootId} counts={stageCounts(graph.nodes)} initial={initial} graph={initial.folded.length ? undefined : graph} />
+      {/* Its own boundary: React hydrates the 500-row list after the graph is drawn, not before. */}
+      <Suspense>
+        <LineageText items={readingOrder(graph)} />
+      </Suspense>
     </div>
   );
 }
@@ -42,7 +45,8 @@ export default async function LotGraphPage({ params }: { params: Promise<{ code:
 /**
  * The same nodes and edges as an ordered list: for screen readers, printing and search.
  * Plain anchors, not <Link>: a 500-lot list of client links doubled the page's payload and
- * its hydration, and held the graph's first drawing back (bench/JOBS.md).
+ * its hydration, and held the graph's first drawing back (bench/JOBS.md). For the same reason
+ * each row is few elements, spaced by text and styled from the list, not element by element.
  */
 async function LineageText({ items }: { items: ReturnType<typeof readingOrder> }) {
   const t = await getTranslations("graph");
@@ -55,24 +59,25 @@ async function LineageText({ items }: { items: ReturnType<typeof readingOrder> }
     <section className="panel" data-testid="lineage-text">
       <h2 className="text-xl font-bold">{t("listTitle")}</h2>
       <p className="mb-4 text-sm text-ink-soft">{t("listIntro")}</p>
-      <ol className="list-decimal space-y-3 pl-6">
-        {items.map(({ node, current, from }) => (
-          <li key={node.id} className={current ? "font-semibold" : undefined}>
-            <span className="mr-2">{t(`kinds.${node.kind}`)}</span>
-            {node.visible && node.code ? <a href={`/lots/${encodeURIComponent(node.code)}`} className="code-chip no-underline">{node.code}</a> : <span>{name(node)}</span>}
-            {node.code && node.label !== node.code ? <span className="ml-2">{node.label}</span> : null}
-            {[node.detail, amount(node.quantity, node.unit)].filter(Boolean).map((x) => <span key={x} className="ml-2 text-sm text-ink-soft">{x}</span>)}
-            {current ? <span className="ml-2 text-sm text-persimmon">{t("thisLot")}</span> : null}
-            {from.length ? (
-              <div className="mt-1 text-sm font-normal">
-                <span className="text-ink-soft">{t("madeFrom")}</span>
-                <ul className="ml-4 list-disc pl-4">
-                  {from.map(({ edge, source }) => <li key={source.id}>{t("fromLine", { source: `${t(`kinds.${source.kind}`)} ${source.visible ? (source.code ?? source.label ?? "") : t("hiddenLot")}`, amounts: via(edge) })}</li>)}
-                </ul>
-              </div>
-            ) : null}
-          </li>
-        ))}
+      <ol className="list-decimal space-y-3 pl-6 [&_small]:text-sm [&_small]:text-ink-soft [&_ul]:ml-4 [&_ul]:list-disc [&_ul]:pl-4">
+        {items.map(({ node, current, from }) => {
+          const about = [node.detail, amount(node.quantity, node.unit)].filter(Boolean).join(" · ");
+          return (
+            <li key={node.id} className={current ? "font-semibold" : undefined}>
+              {t(`kinds.${node.kind}`)}{" "}
+              {node.visible && node.code ? <a href={`/lots/${encodeURIComponent(node.code)}`} className="code-chip no-underline">{node.code}</a> : name(node)}
+              {node.code && node.label !== node.code ? ` ${node.label}` : null}
+              {about ? <> <small>{about}</small></> : null}
+              {current ? <> <small className="text-persimmon!">{t("thisLot")}</small></> : null}
+              {from.length ? (
+                <div className="mt-1 text-sm font-normal">
+                  <small>{t("madeFrom")}</small>
+                  <ul>{from.map(({ edge, source }) => <li key={source.id}>{t("fromLine", { source: `${t(`kinds.${source.kind}`)} ${source.visible ? (source.code ?? source.label ?? "") : t("hiddenLot")}`, amounts: via(edge) })}</li>)}</ul>
+                </div>
+              ) : null}
+            </li>
+          );
+        })}
       </ol>
     </section>
   );
