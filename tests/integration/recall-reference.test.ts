@@ -123,7 +123,7 @@ describe("the page's table of reached lots", () => {
   it("shows a page at a time, every lot on exactly one page, the page number kept within the table", () => {
     const pages = [1, 2, 3].map((page) => pageOfLots(lots, { code: "H1", page, onlyShipped: false }));
     expect(pages.flatMap((p) => p.rows)).toEqual(lots);
-    expect(pages.map((p) => [p.from, p.to, p.pages])).toEqual([[1, 50, 3], [51, 100, 3], [101, 107, 3]]);
+    expect(pages.map((p) => [p.from, p.to, p.pages])).toEqual([[1, 25, 3], [26, 50, 3], [51, 57, 3]]);
     expect(pageOfLots(lots, { code: "H1", page: 99, onlyShipped: false }).page).toBe(3);
     for (const odd of [Number.NaN, -4, 0, 1.5]) expect(pageOfLots(lots, { code: "H1", page: odd, onlyShipped: false }).page).toBe(1);
     expect(pageOfLots([], { code: "H1", page: 1, onlyShipped: false })).toMatchObject({ rows: [], from: 0, to: 0, total: 0, pages: 1 });

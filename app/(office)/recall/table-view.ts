@@ -4,8 +4,8 @@ import { pageOf } from "@/lib/paging";
 
 export type ReachedLot = { code: string; kind: string; unit: string; fraction: number; onHand: number; holder: string; recalled: boolean; shippedToBuyer: boolean; hold: string | null };
 
-/** Rows of the lots table a page shows: a wide recall reaches thousands; the CSV carries them all. */
-export const RECALL_PAGE_SIZE = 50;
+/** Rows of the lots table a page shows (25, as every office table): a wide recall reaches thousands; the CSV carries them all. */
+export const RECALL_PAGE_SIZE = 25;
 
 /** Which page of the table, and whether only lots shipped to buyers: both in the address, so links and reloads keep them. */
 export type TableView = { code: string; page: number; onlyShipped: boolean };
