@@ -6,7 +6,8 @@
 import { beforeAll, describe, expect, it, vi } from "vitest";
 import { translator } from "@/i18n/messages";
 import type { FormState } from "@/lib/form-state";
-import { getSqlite } from "@/server/platform/db";
+import { getDb, getSqlite } from "@/server/platform/db";
+import { currentHold, holdsByCode } from "@/server/trace/holds";
 import { POST as postEvent } from "../../app/api/events/route";
 import { POST as postHarvest } from "../../app/api/harvests/route";
 import { GET as getLotRoute } from "../../app/api/lots/[code]/route";
@@ -110,6 +111,18 @@ describe("releasing", () => {
     expect((await event(brewer, { step: "shipping", counterpartyId: "buyer-minato", referenceDoc: "INV-AFTER", inputs: [{ lot: bottles800, quantity: 10 }] })).status).toBe(201);
     // Releasing it again: nothing to release.
     expect(state(await submit(admin, releaseLotAction, { code: bottles800, reason: "Again" })).message).toBe(en("errors.conflict"));
+  });
+
+  it("the recall table's holds by code (one statement) say what each lot's newest hold row says", () => {
+    // Reference: the per-lot read every drawing step uses, currentHold, on every lot of the ledger.
+    const everyLot = all("select id, code from lots").map((r) => ({ id: r.id as number, code: r.code as string }));
+    const expected = new Map(everyLot.flatMap((l) => {
+      const hold = currentHold(getDb(), l.id);
+      return hold ? [[l.code, hold] as const] : [];
+    }));
+    expect(expected.size).toBeGreaterThan(0);
+    expect(holdsByCode(getDb(), everyLot.map((l) => l.code))).toEqual(expected);
+    expect(holdsByCode(getDb(), ["ZZ99-0001"])).toEqual(new Map());
   });
 
   it("all of a recall at once, audited; the history keeps every hold and release", async () => {

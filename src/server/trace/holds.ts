@@ -1,7 +1,7 @@
 import "server-only";
 import { desc, eq, inArray, sql } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
-import { lotHolds, lots, users } from "@/db/schema";
+import { lotHolds, users } from "@/db/schema";
 import type { Translate } from "@/lib/validation/field-errors";
 import { getDb } from "../platform/db";
 import { AppError } from "../platform/errors";
@@ -63,12 +63,17 @@ export function refuseIfHeld(db: DbOrTx, lot: { id: number; code: string }, fiel
   throw new AppError("conflict", { key: "errors.onHold", values }, { [field]: [t("errors.onHold", values)] });
 }
 
-/** Current holds by lot code (pages that list lots by code: the recall). */
+/**
+ * Current holds by lot code (pages that list lots by code: the recall, hundreds of lots).
+ * One statement: the codes go in as one JSON list, and only each lot's newest row comes back.
+ */
 export function holdsByCode(db: DbOrTx, codes: string[]): Map<string, Hold> {
   if (!codes.length) return new Map();
-  const ids = db.select({ id: lots.id, code: lots.code }).from(lots).where(inArray(lots.code, codes)).all();
-  const held = currentHolds(db, ids.map((l) => l.id));
-  return new Map(ids.flatMap((l) => (held.has(l.id) ? [[l.code, held.get(l.id)!] as const] : [])));
+  const rows = db.all<{ code: string; action: string; reason: string; recallCode: string; at: number }>(sql`
+    select l.code, h.action, h.reason, h.recall_code as recallCode, h.at
+    from lots l join lot_holds h on h.id = (select max(id) from lot_holds where lot_id = l.id)
+    where l.code in (select value from json_each(${JSON.stringify(codes)}))`);
+  return new Map(rows.filter((r) => r.action === "hold").map((r) => [r.code, { reason: r.reason, at: new Date(r.at).toISOString(), recallCode: r.recallCode }]));
 }
 
 /** The same, on the server's own connection: for pages. */
