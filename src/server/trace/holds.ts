@@ -1,5 +1,5 @@
 import "server-only";
-import { desc, eq, inArray, sql } from "drizzle-orm";
+import { desc, eq, sql } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { lotHolds, users } from "@/db/schema";
 import type { Translate } from "@/lib/validation/field-errors";
@@ -27,20 +27,21 @@ export function currentHold(db: DbOrTx, lotId: number): Hold | null {
   return latest?.action === "hold" ? { reason: latest.reason, at: latest.at.toISOString(), recallCode: latest.recallCode } : null;
 }
 
-/** The current holds of many lots at once (the recall's table), by lot id. */
+/**
+ * The current holds of many lots at once (a recall reaches hundreds): one statement, the lots
+ * named as one JSON list by id or by code, each with only its newest hold row.
+ */
+function latestHolds(db: DbOrTx, by: "id" | "code", keys: (number | string)[]) {
+  const rows = db.all<{ id: number; code: string; action: string; reason: string; recallCode: string; at: number }>(sql`
+    select l.id, l.code, h.action, h.reason, h.recall_code as recallCode, h.at
+    from lots l join lot_holds h on h.id = (select max(id) from lot_holds where lot_id = l.id)
+    where ${by === "id" ? sql`l.id` : sql`l.code`} in (select value from json_each(${JSON.stringify(keys)}))`);
+  return rows.filter((r) => r.action === "hold").map((r) => ({ id: r.id, code: r.code, hold: { reason: r.reason, at: new Date(r.at).toISOString(), recallCode: r.recallCode } }));
+}
+
+/** The current holds of many lots at once, by lot id (read again inside a hold's write lock). */
 export function currentHolds(db: DbOrTx, lotIds: number[]): Map<number, Hold> {
-  if (!lotIds.length) return new Map();
-  const rows = db
-    .select({ lotId: lotHolds.lotId, action: lotHolds.action, reason: lotHolds.reason, recallCode: lotHolds.recallCode, at: lotHolds.at })
-    .from(lotHolds)
-    .where(inArray(lotHolds.lotId, lotIds))
-    .orderBy(lotHolds.id)
-    .all();
-  const latest = new Map<number, (typeof rows)[number]>();
-  for (const row of rows) latest.set(row.lotId, row);
-  const held = new Map<number, Hold>();
-  for (const [lotId, row] of latest) if (row.action === "hold") held.set(lotId, { reason: row.reason, at: row.at.toISOString(), recallCode: row.recallCode });
-  return held;
+  return new Map(lotIds.length ? latestHolds(db, "id", lotIds).map((r) => [r.id, r.hold]) : []);
 }
 
 /** A lot's holds and releases, oldest first, with who recorded each. */
@@ -63,17 +64,9 @@ export function refuseIfHeld(db: DbOrTx, lot: { id: number; code: string }, fiel
   throw new AppError("conflict", { key: "errors.onHold", values }, { [field]: [t("errors.onHold", values)] });
 }
 
-/**
- * Current holds by lot code (pages that list lots by code: the recall, hundreds of lots).
- * One statement: the codes go in as one JSON list, and only each lot's newest row comes back.
- */
+/** Current holds by lot code (pages that list lots by code: the recall). */
 export function holdsByCode(db: DbOrTx, codes: string[]): Map<string, Hold> {
-  if (!codes.length) return new Map();
-  const rows = db.all<{ code: string; action: string; reason: string; recallCode: string; at: number }>(sql`
-    select l.code, h.action, h.reason, h.recall_code as recallCode, h.at
-    from lots l join lot_holds h on h.id = (select max(id) from lot_holds where lot_id = l.id)
-    where l.code in (select value from json_each(${JSON.stringify(codes)}))`);
-  return new Map(rows.filter((r) => r.action === "hold").map((r) => [r.code, { reason: r.reason, at: new Date(r.at).toISOString(), recallCode: r.recallCode }]));
+  return new Map(codes.length ? latestHolds(db, "code", codes).map((r) => [r.code, r.hold]) : []);
 }
 
 /** The same, on the server's own connection: for pages. */
