@@ -130,4 +130,34 @@ describe("the walk of distinct lots behind a lot", () => {
     db.prepare("update lots set polishing_ratio_pct = 55 where code = 'AX-P2'").run();
     expect(lotsOfKindUp(ancestryOf(bottle), bottle, "polished").map((l) => l.polishingRatioPct)).toEqual([50, 55, 70]);
   });
+  it("keeps a lineage while events touch other lots, and reads it again when one touches a lot in it", () => {
+    const db = getSqlite();
+    const bottle = idOf("AX-BT");
+    const { user_id: user, party_id: party } = db.prepare("select user_id, party_id from events order by id desc limit 1").get() as { user_id: string; party_id: string };
+    const event = (step: string) => db.prepare("insert into events (step, at, recorded_at, user_id, party_id) values (?, 0, 0, ?, ?)").run(step, user, party).lastInsertRowid;
+    const kept = ancestryOf(bottle).first;
+    // Elsewhere on the floor: a new lot made from one outside the lineage, and a lot of it drawn.
+    const lot = db.prepare("insert into lots (code, kind, unit, party_id, origin_party_id, content_in, quantity_in, on_hand, created_at) values (?, ?, 'kg', ?, ?, 10, 10, 10, 0)");
+    lot.run("AX-H9", "harvest", party, party);
+    lot.run("AX-ELSE", "polished", party, party);
+    const made = event("polishing");
+    db.prepare("insert into event_outputs (event_id, lot_id, quantity, content) values (?, ?, 10, 10)").run(made, idOf("AX-ELSE"));
+    db.prepare("insert into lineage_edges (event_id, parent_lot_id, child_lot_id, weight) values (?, ?, ?, 10)").run(made, idOf("AX-H9"), idOf("AX-ELSE"));
+    db.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) values (?, ?, 1, 1, 'draw')").run(event("soaking"), idOf("AX-ELSE"));
+    expect(ancestryOf(bottle).first, "kept across events on other lots").toBe(kept);
+    // More comes out into a tank of the lineage (its content grows): the fractions change, and are read again.
+    const added = event("mash-addition");
+    db.prepare("insert into event_outputs (event_id, lot_id, quantity, content) values (?, ?, 100, 100)").run(added, idOf("AX-T1"));
+    db.prepare("update lots set content_in = content_in + 100 where code = 'AX-T1'").run();
+    const grown = ancestryOf(bottle);
+    expect(grown.first).not.toBe(kept);
+    expect(lotsOfKindUp(grown, bottle, "polished").map((l) => l.fraction)).toEqual(pathByPath(bottle, "polished").map((l) => expect.closeTo(l.fraction, 12)));
+    // A correction takes it back: it draws from the tank, and the lineage is read again.
+    const correction = event("correcting");
+    db.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) values (?, ?, 100, 100, 'draw')").run(correction, idOf("AX-T1"));
+    db.prepare("update lots set content_in = content_in - 100 where code = 'AX-T1'").run();
+    const back = ancestryOf(bottle);
+    expect(back.first).not.toBe(grown.first);
+    expect(lotsOfKindUp(back, bottle, "polished").map((l) => l.fraction)).toEqual(pathByPath(bottle, "polished").map((l) => expect.closeTo(l.fraction, 12)));
+  });
 });

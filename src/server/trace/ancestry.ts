@@ -96,24 +96,43 @@ function indexed(ids: number[], kinds: string[], contents: number[], edges: { ch
 }
 
 /**
- * Edges and contents change only when an event is recorded (a correction is an event too), so a
- * lineage read stays true until the newest event or edge changes. A bottle's page is opened by
- * everyone who scans its batch; the few latest lineages are kept for them.
+ * Edges and contents change only when an event is recorded (a correction is an event too): a
+ * lot's content grows with the events it comes out of and shrinks when one is corrected (the
+ * correction draws it), and new lots join a lineage only by a new edge into it. So a lineage
+ * read stays true until an event touches one of its lots. A bottle's page is opened by
+ * everyone who scans its batch, while the floor records events all day on other lots; the few
+ * latest lineages are kept for them.
  */
-const recent = new Map<number, { version: string; lineage: Lineage }>();
+const recent = new Map<number, { seen: LedgerMark; lineage: Lineage }>();
 const KEEP = 16;
+/** More lots touched than this since a lineage was read, and it is read again rather than checked. */
+const CHECK_AT_MOST = 20_000;
 
-function ledgerVersion(): string {
+type LedgerMark = { event: number; edge: number };
+
+function ledgerMark(): LedgerMark {
   const row = getDb().get<{ e: number | null; l: number | null }>(sql`select (select max(id) from events) as e, (select max(id) from lineage_edges) as l`);
-  return `${row?.e}/${row?.l}`;
+  return { event: row?.e ?? 0, edge: row?.l ?? 0 };
+}
+
+/** Whether no event recorded after `seen` came out of, drew from or linked into a lot of the lineage. */
+function untouched(lineage: Lineage, seen: LedgerMark, now: LedgerMark): boolean {
+  if (seen.event === now.event && seen.edge === now.edge) return true;
+  const row = getDb().get<{ lots: string; n: number }>(sql`
+    select json_group_array(lot_id) as lots, count(*) as n from (
+      select lot_id from event_outputs where event_id > ${seen.event}
+      union select lot_id from event_inputs where event_id > ${seen.event}
+      union select child_lot_id from lineage_edges where id > ${seen.edge})`)!;
+  if (row.n > CHECK_AT_MOST) return false;
+  return !(JSON.parse(row.lots) as number[]).some((id) => lineage.at.has(id));
 }
 
 export function ancestryOf(lotId: number): Ancestry {
-  const version = ledgerVersion();
+  const now = ledgerMark();
   const kept = recent.get(lotId);
-  const lineage = kept?.version === version ? kept.lineage : readLineage(lotId);
+  const lineage = kept && untouched(kept.lineage, kept.seen, now) ? kept.lineage : readLineage(lotId);
   recent.delete(lotId);
-  recent.set(lotId, { version, lineage });
+  recent.set(lotId, { seen: now, lineage });
   if (recent.size > KEEP) recent.delete(recent.keys().next().value!);
   // Codes, tank attributes and ratios are read fresh every time: they are not tied to events.
   const details = new Map(
