@@ -233,7 +233,8 @@ async function graph(cookie: string, code: string) {
           }).length;
           const transform = document.querySelector<HTMLElement>(".react-flow__viewport")!.style.transform;
           return {
-            lots: document.querySelectorAll("[data-testid=lineage-text] > ol > li").length,
+            // The list under the graph shows 25 lots a page; its section carries how many it holds in all.
+            lots: Number(document.querySelector<HTMLElement>("[data-testid=lineage-text]")?.dataset.total ?? 0),
             drawn: nodes.length,
             groups: nodes.filter((n) => n.dataset.id?.startsWith("group:")).length,
             outside,

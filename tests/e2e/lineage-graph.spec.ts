@@ -23,7 +23,10 @@ test("a blend's lineage draws lot by lot, folds into stage columns that fit and 
   const canvas = page.getByRole("region", { name: `Lineage graph of ${CODE}. The same lots and links follow as a list.` });
   const nodes = canvas.locator(".react-flow__node");
   await expect(nodes).toHaveCount(31);
-  await expect(page.getByTestId("lineage-text").locator("ol > li")).toHaveCount(31);
+  // The list under the graph: 25 lots a page, numbered on across pages, or every lot on one page.
+  const list = page.getByTestId("lineage-text");
+  await expect(list.locator("ol > li")).toHaveCount(25);
+  await expect(list.getByTestId("lineage-range")).toHaveText("Lots 1–25 of 31");
   await expect.poll(async () => (await fit(page)).outside).toBe(0);
 
   // Fold every stage, one button at a time: one node per stage and step, the blend itself on its own.
@@ -46,4 +49,39 @@ test("a blend's lineage draws lot by lot, folds into stage columns that fit and 
   await expect(nodes).toHaveCount(12 - 2 + 12);
   await page.getByRole("button", { name: "Show every lot" }).click();
   await expect(nodes).toHaveCount(31);
+});
+
+test("the lineage's list pages on the server, keeps the graph's folds, and shows every lot on one page when asked", async ({ page }) => {
+  await signInAndLand(page, "admin@example.com");
+  await page.goto(`/lots/${CODE}/graph`);
+  const canvas = page.getByRole("region", { name: `Lineage graph of ${CODE}. The same lots and links follow as a list.` });
+  const nodes = canvas.locator(".react-flow__node");
+  const list = page.getByTestId("lineage-text");
+  const rows = list.locator("ol > li");
+  const firstPage = await rows.allTextContents();
+  await expect(nodes).toHaveCount(31);
+  // A fold made before paging stays: the graph is not drawn again from the server's first view.
+  const stages = page.getByRole("group", { name: "Fold a stage into one node per step" });
+  await stages.getByRole("button", { name: /Steamed rice/ }).click();
+  await expect(nodes).toHaveCount(31 - 12 + 2);
+
+  await list.getByTestId("lineage-pages").getByRole("link", { name: "Next" }).click();
+  await expect(page).toHaveURL(new RegExp(`/lots/${CODE}/graph\\?page=2#lineage-text$`));
+  await expect(rows).toHaveCount(6);
+  await expect(list.getByTestId("lineage-range")).toHaveText("Lots 26–31 of 31");
+  await expect(list.locator("ol")).toHaveAttribute("start", "26");
+  await expect(rows.last()).toContainText(/Bottled/);
+  await expect(nodes).toHaveCount(31 - 12 + 2);
+  const secondPage = await rows.allTextContents();
+
+  // Every lot on one page is the two pages, in order; and the address keeps the view on a reload.
+  await list.getByTestId("lineage-whole").click();
+  await expect(page).toHaveURL(new RegExp(`/lots/${CODE}/graph\\?list=all#lineage-text$`));
+  await expect(rows).toHaveCount(31);
+  expect(await rows.allTextContents()).toEqual([...firstPage, ...secondPage]);
+  await page.reload();
+  await expect(rows).toHaveCount(31);
+  await expect(list.getByTestId("lineage-pages")).toHaveCount(0);
+  await list.getByTestId("lineage-whole").click();
+  await expect(rows).toHaveCount(25);
 });
