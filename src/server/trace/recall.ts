@@ -43,14 +43,16 @@ export function loadRecall(actor: SessionUser, code: string, steps: "all" | read
     const recorded = describeEvents(eventsTouching(tx, [...fractions.keys()], steps));
 
     const codes = new Set([...fractions.keys(), ...recorded.flatMap((e) => [...e.inputs, ...e.outputs].map((x) => x.lot))]);
-    const rows = tx.all<LotRef & { attributes: string; onHand: number; holderId: string }>(sql`
-      select code, kind, unit, variety, crop_year as cropYear, grade, attributes, on_hand as onHand, party_id as holderId
+    // A GTIN counts only when it was recorded as text; SQLite picks it out, so the attributes are not parsed here.
+    const rows = tx.all<LotRef & { onHand: number; holderId: string }>(sql`
+      select code, kind, unit, variety, crop_year as cropYear, grade, case when json_type(attributes, '$.gtin') = 'text' then json_extract(attributes, '$.gtin') end as gtin,
+        on_hand as onHand, party_id as holderId
       from lots where code in (select value from json_each(${JSON.stringify([...codes])}))`);
     const partyIds = new Set([...rows.map((r) => r.holderId), ...recorded.flatMap((e) => [e.party.id, e.counterparty?.id ?? e.party.id])]);
     const partyMap = new Map(
       tx.all<RecallParty>(sql`select id, kind, name, address from parties where id in (select value from json_each(${JSON.stringify([...partyIds])}))`).map((p) => [p.id, p]),
     );
-    const refs = new Map<string, LotRef>(rows.map((r) => [r.code, { code: r.code, kind: r.kind, unit: r.unit, variety: r.variety, cropYear: r.cropYear, grade: r.grade, gtin: gtinOf(r.attributes) }]));
+    const refs = new Map<string, LotRef>(rows.map((r) => [r.code, { code: r.code, kind: r.kind, unit: r.unit, variety: r.variety, cropYear: r.cropYear, grade: r.grade, gtin: r.gtin }]));
     const byCode = new Map(rows.map((r) => [r.code, r]));
     // In the order of `fractions`: the recalled lot, then the reached lots as they were made.
     const recallLots = [...fractions].flatMap(([code, fraction]) => {
@@ -78,11 +80,6 @@ function eventsTouching(tx: Pick<ReturnType<typeof getDb>, "all">, codes: string
       ? tx.all<{ id: number }>(sql`${touching} select id from touching union select id from events where corrects in touching`)
       : tx.all<{ id: number }>(sql`${touching} select id from events where id in touching and step in (select value from json_each(${JSON.stringify(steps)}))`);
   return ids.map((r) => r.id);
-}
-
-function gtinOf(attributes: string): string | null {
-  const gtin = (JSON.parse(attributes) as { gtin?: unknown }).gtin;
-  return typeof gtin === "string" ? gtin : null;
 }
 
 export const RECALL_ENTRIES = ["created", "added", "drawn", "received", "shipped", "moved", "takenBack", "returned", "movedBack"] as const;
