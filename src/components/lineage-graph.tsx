@@ -84,14 +84,25 @@ function StageNode({ data: { node } }: NodeProps<StageFlowNode>) {
 
 const NODE_TYPES = Object.fromEntries(STAGE_ORDER.map((kind) => [kind, StageNode]));
 
+/**
+ * The office works at desks, so the server draws the desk's view; a phone switches after
+ * hydration. (Drawing the phone's on the server made every desk draw the graph twice.)
+ */
 function useWideScreen(): boolean {
   const query = "(min-width: 768px)";
   return useSyncExternalStore(
     (notify) => { const m = window.matchMedia(query); m.addEventListener("change", notify); return () => m.removeEventListener("change", notify); },
     () => window.matchMedia(query).matches,
-    () => false,
+    () => true,
   );
 }
+
+/**
+ * The canvas the server fits the first drawing into: a little smaller than a 1280 × 800 desk's
+ * (70vh high), so the page shows the whole flow, fitted, before any script has run. The browser
+ * fits it again to the real canvas once React Flow has measured it.
+ */
+const SERVER_CANVAS = { width: 1200, height: 520 };
 
 type Props = {
   code: string;
@@ -173,7 +184,7 @@ export function LineageGraphView({ code, rootId, counts, initial, graph }: Props
       </div>
       <div role="region" aria-label={t("canvasLabel", { code })} className="h-[70vh] min-h-96 overflow-hidden rounded-lg border-2 border-paper-deep bg-white/70 print:hidden">
         <ExpandContext value={(kind) => toggle(kind, false)}>
-          <ReactFlow key={`${wide}:${view.folded.join()}`} nodes={nodes} edges={edges} nodeTypes={NODE_TYPES} fitView fitViewOptions={focus} minZoom={0.1} maxZoom={2}
+          <ReactFlow key={`${wide}:${view.folded.join()}`} nodes={nodes} edges={edges} nodeTypes={NODE_TYPES} fitView fitViewOptions={focus} minZoom={0.1} maxZoom={2} {...SERVER_CANVAS}
             nodesDraggable={false} nodesConnectable={false} elementsSelectable={false}>
             <Background gap={24} color="var(--color-paper-deep)" />
             <Controls showInteractive={false} />

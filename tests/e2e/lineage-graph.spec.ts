@@ -85,3 +85,19 @@ test("the lineage's list pages on the server, keeps the graph's folds, and shows
   await list.getByTestId("lineage-whole").click();
   await expect(rows).toHaveCount(25);
 });
+
+test("the first drawing arrives fitted in the page itself, before any script has run", async ({ page }) => {
+  await signInAndLand(page, "admin@example.com");
+  // A 1280 × 800 desk, as bench/jobs-bench.ts times it; no script runs, so what shows is the server's drawing.
+  await page.setViewportSize({ width: 1280, height: 800 });
+  await page.route(/\/_next\/static\/.*\.js(\?.*)?$/, (route) => route.abort());
+  await page.goto(`/lots/${CODE}/graph`);
+  const canvas = page.getByRole("region", { name: `Lineage graph of ${CODE}. The same lots and links follow as a list.` });
+  await expect(canvas.locator(".react-flow__node")).toHaveCount(31);
+  await expect(canvas.locator(".react-flow__node[style*='visibility:hidden'], .react-flow__node[style*='visibility: hidden']")).toHaveCount(0);
+  const { outside, zoom } = await fit(page);
+  expect(outside).toBe(0);
+  // Fitted by the server: without it the page came at scale(1), the flow running off the canvas.
+  expect(zoom).toBeGreaterThan(0.1);
+  expect(zoom).toBeLessThan(1);
+});
