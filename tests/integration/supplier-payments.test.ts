@@ -102,6 +102,9 @@ describe("reversing a payment", () => {
     });
     // The payment itself is untouched.
     expect(row("select amount_yen as amount from supplier_entries where id = ?", paymentId)).toEqual({ amount: -paid });
+    // Dated when recorded, but never before the payment (dated noon on its day, which in the morning is still to come).
+    const at = (id: number) => row<{ at: number }>("select at from supplier_entries where id = ?", id).at;
+    expect(at(undone.body.id)).toBeGreaterThanOrEqual(Math.max(at(paymentId), Date.now() - 60_000));
     const after = await ledger("mill-shirotae");
     expect({ balanceYen: after.balanceYen, ageing: after.ageing }).toEqual({ balanceYen: before.balanceYen, ageing: before.ageing });
     expect(row<{ action: string }>("select action from audit_log order by id desc limit 1").action).toBe("payment.reversed");
