@@ -123,6 +123,9 @@ export function LineageGraphView({ code, rootId, counts, initial, graph }: Props
   const wide = useWideScreen();
   const [view, setView] = useState(initial);
   const asked = useRef(0);
+  // Marked once React Flow has started in the browser: until then the server's drawing shows, fitted,
+  // but does not pan, zoom or unfold (the jobs bench times both moments).
+  const canvas = useRef<HTMLDivElement>(null);
   // A large lineage's whole graph (137 KB for 474 lots) is not in the page: it held the first drawing back.
   const whole = useRef<Promise<LineageGraph> | null>(graph ? Promise.resolve(graph) : null);
   const wholeGraph = () =>
@@ -182,10 +185,10 @@ export function LineageGraphView({ code, rootId, counts, initial, graph }: Props
         ))}
         {collapsed.size ? <button type="button" className="btn-quiet px-3 py-1 text-sm" onClick={() => refold(new Set())}>{t("expandAll")}</button> : null}
       </div>
-      <div role="region" aria-label={t("canvasLabel", { code })} className="h-[70vh] min-h-96 overflow-hidden rounded-lg border-2 border-paper-deep bg-white/70 print:hidden">
+      <div role="region" aria-label={t("canvasLabel", { code })} className="h-[70vh] min-h-96 overflow-hidden rounded-lg border-2 border-paper-deep bg-white/70 print:hidden" data-testid="lineage-canvas" ref={canvas}>
         <ExpandContext value={(kind) => toggle(kind, false)}>
           <ReactFlow key={`${wide}:${view.folded.join()}`} nodes={nodes} edges={edges} nodeTypes={NODE_TYPES} fitView fitViewOptions={focus} minZoom={0.1} maxZoom={2} {...SERVER_CANVAS}
-            nodesDraggable={false} nodesConnectable={false} elementsSelectable={false}>
+            nodesDraggable={false} nodesConnectable={false} elementsSelectable={false} onInit={() => canvas.current?.setAttribute("data-interactive", "")}>
             <Background gap={24} color="var(--color-paper-deep)" />
             <Controls showInteractive={false} />
             {wide ? <MiniMap pannable zoomable nodeColor={(n) => (n.id === rootId ? "var(--color-persimmon)" : "var(--color-husk)")} /> : null}

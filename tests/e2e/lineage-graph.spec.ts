@@ -23,6 +23,8 @@ test("a blend's lineage draws lot by lot, folds into stage columns that fit and 
   const canvas = page.getByRole("region", { name: `Lineage graph of ${CODE}. The same lots and links follow as a list.` });
   const nodes = canvas.locator(".react-flow__node");
   await expect(nodes).toHaveCount(31);
+  // React Flow has started in the browser (the mark the jobs bench times "usable" by).
+  await expect(canvas).toHaveAttribute("data-interactive", "");
   // The list under the graph: 25 lots a page, numbered on across pages, or every lot on one page.
   const list = page.getByTestId("lineage-text");
   await expect(list.locator("ol > li")).toHaveCount(25);
@@ -100,4 +102,6 @@ test("the first drawing arrives fitted in the page itself, before any script has
   // Fitted by the server: without it the page came at scale(1), the flow running off the canvas.
   expect(zoom).toBeGreaterThan(0.1);
   expect(zoom).toBeLessThan(1);
+  // Shown, but not yet usable: nothing marks it started without its scripts.
+  await expect(canvas).not.toHaveAttribute("data-interactive");
 });
