@@ -3,11 +3,11 @@
 // the CSV hold what the browser table they replace held: its filter, every row, and the CSV
 // tanstack's table wrote from the same column accessors.
 import { beforeAll, describe, expect, it } from "vitest";
-import { createTable, getCoreRowModel, getFilteredRowModel, getPaginationRowModel, getSortedRowModel, type ColumnDef } from "@tanstack/react-table";
-import { tableCsv } from "@/components/data-table";
+import type { ColumnDef } from "@tanstack/react-table";
 import { getSqlite } from "@/server/platform/db";
 import { deliveriesOf, type Delivery } from "@/server/suppliers/supplier-portal";
 import { DELIVERIES_PAGE_SIZE, deliveriesCsvRows, deliveriesHref, isUnpriced, pageOfDeliveries } from "../../app/(office)/suppliers/[partyId]/deliveries-view";
+import { oldTableCsv } from "./old-table-csv";
 
 /** The columns of the browser table the page had (src/components/supplier-activity.tsx), values only. */
 const oldColumns: ColumnDef<Delivery, any>[] = [
@@ -23,23 +23,7 @@ const oldColumns: ColumnDef<Delivery, any>[] = [
   { id: "status", accessorFn: (r) => (r.reversed ? "reversed" : ""), header: "Status" },
 ];
 
-/** What the browser table's CSV held for these rows: its header line and cells, as csvText received them. */
-function oldCsv(rows: Delivery[]) {
-  const table = createTable<Delivery>({
-    data: rows,
-    columns: oldColumns,
-    state: { sorting: [], globalFilter: "", columnPinning: {}, columnVisibility: {}, columnOrder: [] },
-    onStateChange: () => {},
-    renderFallbackValue: null,
-    getCoreRowModel: getCoreRowModel(),
-    getSortedRowModel: getSortedRowModel(),
-    getFilteredRowModel: getFilteredRowModel(),
-    getPaginationRowModel: getPaginationRowModel(),
-  });
-  let written: { headers: string[]; rows: unknown[][] } | null = null;
-  tableCsv(table, (headers, cells) => ((written = { headers, rows: cells }), ""));
-  return written!;
-}
+const oldCsv = (rows: Delivery[]) => oldTableCsv(rows, oldColumns);
 
 /** Many deliveries: each seeded receipt of every grower, repeated to fill three pages, some reversed, some unpriced. */
 function manyDeliveries(): Delivery[] {

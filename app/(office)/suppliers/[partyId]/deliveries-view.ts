@@ -1,30 +1,16 @@
-/** The supplier account's table of a grower's deliveries: what a page of it shows, the address of each view, and its CSV. */
+/** The supplier account's table of a grower's deliveries: what a page of it shows, and its CSV. */
 
-import { pageOf } from "@/lib/paging";
 import type { Delivery } from "@/server/suppliers/supplier-portal";
+import { ACCOUNT_LIST_PAGE_SIZE, accountListHref, pageOfAccountList, type AccountListView } from "./account-list-view";
 
-/** Rows a page of the table shows (as the browser table it replaced); the CSV carries every delivery of the view. */
-export const DELIVERIES_PAGE_SIZE = 25;
-
-/** Which page, and whether only the deliveries without a contract price: both in the address, so links and reloads keep them. */
-export type DeliveriesView = { partyId: string; page: number; unpricedOnly: boolean };
-
-export function deliveriesHref({ partyId, page, unpricedOnly }: DeliveriesView): string {
-  const query = new URLSearchParams();
-  if (unpricedOnly) query.set("unpriced", "1");
-  if (page > 1) query.set("page", String(page));
-  const search = query.size ? `?${query}` : "";
-  return `/suppliers/${encodeURIComponent(partyId)}${search}#deliveries`;
-}
+export const DELIVERIES_PAGE_SIZE = ACCOUNT_LIST_PAGE_SIZE;
+export type DeliveriesView = AccountListView;
+export const deliveriesHref = accountListHref;
 
 /** A delivery received while no contract priced it (a reversed receipt owes nothing either way). */
 export const isUnpriced = (d: Delivery) => d.amountYen === null && !d.reversed;
 
-/** The deliveries the view holds, and the page of them to show, the page number kept within the table. */
-export function pageOfDeliveries(deliveries: Delivery[], view: DeliveriesView) {
-  const shown = view.unpricedOnly ? deliveries.filter(isUnpriced) : deliveries;
-  return { shown, ...pageOf(shown, view.page, DELIVERIES_PAGE_SIZE) };
-}
+export const pageOfDeliveries = (deliveries: Delivery[], view: DeliveriesView) => pageOfAccountList(deliveries, view, isUnpriced);
 
 /**
  * The CSV's cells, as the office table's CSV wrote them: each column's plain value (the grade's

@@ -1,0 +1,26 @@
+/**
+ * The supplier account's one list of what a supplier did (a grower's deliveries, a mill's
+ * polishing runs): the view the address holds, its address, and the page of it to show.
+ */
+
+import { pageOf } from "@/lib/paging";
+
+/** Rows a page of the list shows (as the browser tables it replaced); its CSV carries every row of the view. */
+export const ACCOUNT_LIST_PAGE_SIZE = 25;
+
+/** Which page, and whether only what no contract priced: both in the address, so links and reloads keep them. */
+export type AccountListView = { partyId: string; page: number; unpricedOnly: boolean };
+
+export function accountListHref({ partyId, page, unpricedOnly }: AccountListView): string {
+  const query = new URLSearchParams();
+  if (unpricedOnly) query.set("unpriced", "1");
+  if (page > 1) query.set("page", String(page));
+  const search = query.size ? `?${query}` : "";
+  return `/suppliers/${encodeURIComponent(partyId)}${search}#deliveries`;
+}
+
+/** The rows the view holds, and the page of them to show, the page number kept within the list. */
+export function pageOfAccountList<T>(all: T[], view: AccountListView, isUnpriced: (row: T) => boolean) {
+  const shown = view.unpricedOnly ? all.filter(isUnpriced) : all;
+  return { shown, ...pageOf(shown, view.page, ACCOUNT_LIST_PAGE_SIZE) };
+}
