@@ -2,7 +2,6 @@ import Link from "next/link";
 import { forbidden, notFound } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { AccountTable, BalancePanel, StatementsTable } from "@/components/supplier-account";
-import { RunsTable } from "@/components/supplier-activity";
 import { can } from "@/domain/permissions";
 import { dayIn, nextDay } from "@/i18n/dates";
 import { actionTranslator } from "@/server/platform/action";
@@ -20,7 +19,10 @@ import { ContractsTable, GrowerContractForm, MillContractForm } from "./contract
 import { AdjustmentForm, InvoiceNumberForm, StatementForm } from "./components";
 import { PaymentForm, PaymentsList } from "./payment-forms";
 import { DeliveriesPagedTable } from "./deliveries-table";
-import { deliveriesHref, isUnpriced, type DeliveriesView } from "./deliveries-view";
+import { accountListHref, type AccountListView } from "./account-list-view";
+import { isUnpriced } from "./deliveries-view";
+import { RunsPagedTable } from "./runs-table";
+import { isUnpricedRun } from "./runs-view";
 
 type Search = { page?: string | string[]; unpriced?: string | string[] };
 const first = (value: string | string[] | undefined) => (Array.isArray(value) ? value[0] : value);
@@ -37,10 +39,10 @@ export default async function SupplierPage({ params, searchParams }: { params: P
   const ledger = ledgerOf(getDb(), partyId);
   const deliveries = party.kind === "grower" ? deliveriesOf(partyId) : [];
   const runs = party.kind === "mill" ? runsOf(partyId) : [];
-  const unpriced = deliveries.filter(isUnpriced);
   const search = await searchParams;
-  const view: DeliveriesView = { partyId, page: Number(first(search.page)) || 1, unpricedOnly: first(search.unpriced) === "1" };
-  const unpricedRuns = runs.filter((r) => r.feeYen === null && !r.reversed);
+  const view: AccountListView = { partyId, page: Number(first(search.page)) || 1, unpricedOnly: first(search.unpriced) === "1" };
+  // A grower's deliveries or a mill's runs: either list is empty for the other kind.
+  const unpriced = deliveries.filter(isUnpriced).length + runs.filter(isUnpricedRun).length;
   const zone = breweryTimeZone();
   const payments = manage ? paymentLines(ledger, translate, zone) : [];
   const today = dayIn(new Date(), zone);
@@ -76,23 +78,19 @@ export default async function SupplierPage({ params, searchParams }: { params: P
       <section className="space-y-3" data-testid="unpriced">
         <h2 className="text-xl font-bold">{party.kind === "grower" ? t("detail.unpriced") : t("detail.unpricedRuns")}</h2>
         {party.kind === "grower" ? <p className="max-w-3xl text-sm text-ink-soft">{t("detail.unpricedIntro")}</p> : null}
-        {unpriced.length || unpricedRuns.length ? (
-          // A grower's unpriced deliveries are listed once, in the deliveries table below, marked there and shown alone on a click.
-          party.kind === "grower" ? (
-            <p className="flex flex-wrap items-center gap-3" data-testid="unpriced-count">
-              {t("detail.unpricedCount", { count: unpriced.length })}
-              {view.unpricedOnly ? null : <Link href={deliveriesHref({ ...view, page: 1, unpricedOnly: true })} className="btn-quiet">{t("detail.showUnpriced")}</Link>}
-            </p>
-          ) : (
-            <RunsTable rows={unpricedRuns} testId="unpriced-table" />
-          )
+        {unpriced ? (
+          // What no contract priced is listed once, in the table below, marked there and shown alone on a click.
+          <p className="flex flex-wrap items-center gap-3" data-testid="unpriced-count">
+            {party.kind === "grower" ? t("detail.unpricedCount", { count: unpriced }) : t("detail.unpricedRunsCount", { count: unpriced })}
+            {view.unpricedOnly ? null : <Link href={accountListHref({ ...view, page: 1, unpricedOnly: true })} className="btn-quiet">{party.kind === "grower" ? t("detail.showUnpriced") : t("detail.showUnpricedRuns")}</Link>}
+          </p>
         ) : (
           <p className="notice">{party.kind === "grower" ? t("detail.unpricedNone") : t("detail.unpricedRunsNone")}</p>
         )}
       </section>
       <section className="space-y-3" id="deliveries">
         <h2 className="text-xl font-bold">{party.kind === "grower" ? t("detail.deliveries") : t("detail.runs")}</h2>
-        {party.kind === "grower" ? <DeliveriesPagedTable deliveries={deliveries} view={view} /> : <RunsTable rows={runs} />}
+        {party.kind === "grower" ? <DeliveriesPagedTable deliveries={deliveries} view={view} /> : <RunsPagedTable runs={runs} view={view} />}
       </section>
       <section className="space-y-3">
         <h2 className="text-xl font-bold">{t("detail.entries")}</h2>

@@ -1,0 +1,30 @@
+import Link from "next/link";
+import { getFormatter, getTranslations } from "next-intl/server";
+import type { Run } from "@/server/suppliers/supplier-portal";
+import { AccountListTable } from "./account-list-table";
+import type { AccountListView } from "./account-list-view";
+import { pageOfRuns, runsCsvRows } from "./runs-view";
+
+/** A mill's polishing runs and the fee each earned, a page at a time; "no contract fee" where none was. */
+export async function RunsPagedTable({ runs, view }: { runs: Run[]; view: AccountListView }) {
+  const t = await getTranslations("suppliers");
+  const format = await getFormatter();
+  const yen = (v: number) => format.number(v, { style: "currency", currency: "JPY" });
+  const pct = (v: number | null) => (v === null ? "" : `${format.number(v, { maximumFractionDigits: 1 })} %`);
+  const { shown, rows, ...paging } = pageOfRuns(runs, view);
+  const headers = [t("columns.date"), t("columns.polished"), t("columns.brownKg"), t("columns.target"), t("columns.achieved"), t("columns.fee"), t("columns.status")];
+  const words = { unpricedOnly: t("detail.showUnpricedRuns"), all: t("detail.showAllRuns"), range: t("detail.runsRange", paging) };
+  return (
+    <AccountListTable view={view} name="runs" label={t("detail.runs")} headers={headers} csvRows={runsCsvRows(shown, t("reversed"))} paging={paging} words={words} rows={rows.map((r) => (
+      <tr key={r.eventId} data-unpriced={r.feeYen === null || undefined}>
+        <td>{format.dateTime(r.at, "day")}</td>
+        <td>{r.polished ? <Link className="code-chip no-underline" href={`/lots/${r.polished}`}>{r.polished}</Link> : ""}</td>
+        <td>{format.number(r.brownKg ?? 0, { maximumFractionDigits: 1 })}</td>
+        <td>{pct(r.targetPct)}</td>
+        <td>{pct(r.achievedPct)}</td>
+        <td>{r.feeYen === null ? <span className="text-persimmon">{t("noFee")}</span> : yen(r.feeYen)}</td>
+        <td>{r.reversed ? t("reversed") : ""}</td>
+      </tr>
+    ))} />
+  );
+}

@@ -1,0 +1,17 @@
+/** The supplier account's table of a mill's polishing runs: what a page of it shows, and its CSV. */
+
+import type { Run } from "@/server/suppliers/supplier-portal";
+import { pageOfAccountList, type AccountListView } from "./account-list-view";
+
+/** A run recorded while no contract set its fee (a reversed run earns nothing either way). */
+export const isUnpricedRun = (r: Run) => r.feeYen === null && !r.reversed;
+
+export const pageOfRuns = (runs: Run[], view: AccountListView) => pageOfAccountList(runs, view, isUnpricedRun);
+
+/**
+ * The CSV's cells, as the office table's CSV wrote them: each column's plain value (kg and
+ * ratios as numbers, the fee in yen or empty), dates as ISO 8601.
+ */
+export function runsCsvRows(runs: Run[], reversedLabel: string): unknown[][] {
+  return runs.map((r) => [r.at.toISOString(), r.polished ?? "", r.brownKg ?? "", r.targetPct ?? "", r.achievedPct ?? "", r.feeYen ?? "", r.reversed ? reversedLabel : ""]);
+}
