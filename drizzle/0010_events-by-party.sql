@@ -1,0 +1,1 @@
+CREATE INDEX `events_party_step_idx` ON `events` (`party_id`,`step`,`at`);
