@@ -57,9 +57,10 @@ async function prepareCopy(ledger: string) {
   const bottled = median("bottled", "and json_extract(attributes, '$.gtin') is not null");
   const gtin = one(`select json_extract(attributes, '$.gtin') as v from lots where code = '${bottled}'`);
   const grower = one("select id as v from parties where kind = 'grower' order by id limit 1");
+  const mill = one("select id as v from parties where kind = 'mill' order by id limit 1");
   sqlite.close();
-  if (!polished || !harvest || !bottled || !gtin || !grower) throw new Error("the ledger lacks a lot or grower the pages need");
-  return { polished, harvest, bottled, gtin: String(gtin).padStart(14, "0"), grower };
+  if (!polished || !harvest || !bottled || !gtin || !grower || !mill) throw new Error("the ledger lacks a lot, grower or mill the pages need");
+  return { polished, harvest, bottled, gtin: String(gtin).padStart(14, "0"), grower, mill };
 }
 
 async function signIn(): Promise<string> {
@@ -118,6 +119,8 @@ const pages: Page[] = [
   { name: "provenance card", path: `/01/${picks.gtin}/10/${picks.bottled}`, ua: PHONE_UA, signedIn: false },
   { name: "recall of a harvest lot", path: `/recall?code=${picks.harvest}`, ua: DESK_UA, signedIn: true },
   { name: "supplier account", path: `/suppliers/${picks.grower}`, ua: DESK_UA, signedIn: true },
+  // A mill's account lists its polishing runs (1,535 at bench-mill, all without a contract fee).
+  { name: "supplier account (mill)", path: `/suppliers/${picks.mill}`, ua: DESK_UA, signedIn: true },
   { name: "sign-in (reference)", path: "/sign-in", ua: PHONE_UA, signedIn: false },
   // Last, so that no page above sees the events these two record before each request (neither
   // changes an answer). After an event elsewhere: one with no lots, as the floor records all day
@@ -161,7 +164,7 @@ try {
 const loadAfter = load();
 
 console.log(`pages bench, ${new Date().toISOString()}, ${runs} sequential requests per page after ${warmup} warm-up; load average before ${loadBefore}, after ${loadAfter}`);
-console.log(`lots: polished ${picks.polished}, harvest ${picks.harvest}, bottled ${picks.bottled} (GTIN ${picks.gtin}), grower ${picks.grower}`);
+console.log(`lots: polished ${picks.polished}, harvest ${picks.harvest}, bottled ${picks.bottled} (GTIN ${picks.gtin}), grower ${picks.grower}, mill ${picks.mill}`);
 console.log("| page | path | server p50 ms | p95 ms | max ms | HTML kB | JS kB gzip | + noModule polyfill kB |");
 console.log("| --- | --- | ---: | ---: | ---: | ---: | ---: | ---: |");
 for (const r of results) {
