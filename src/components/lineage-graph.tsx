@@ -1,7 +1,7 @@
 "use client";
 
 import "@xyflow/react/dist/style.css";
-import Link from "next/link";
+import Link from "@/components/app-link";
 import { createContext, useContext, useRef, useState, useSyncExternalStore, type ReactNode } from "react";
 import { Background, Controls, Handle, MarkerType, MiniMap, Position, ReactFlow, type Edge, type Node, type NodeProps } from "@xyflow/react";
 import { useFormatter, useTranslations } from "next-intl";

@@ -1,4 +1,4 @@
-import Link from "next/link";
+import Link from "@/components/app-link";
 
 type Props = { page: number; pages: number; href: (page: number) => string; label: string; testId?: string; words: { previous: string; next: string; pageOf: string } };
 

@@ -1,4 +1,4 @@
-import Link from "next/link";
+import Link from "@/components/app-link";
 import { getTranslations } from "next-intl/server";
 import { ForgotPasswordForm } from "./components";
 

@@ -1,4 +1,4 @@
-import Link from "next/link";
+import Link from "@/components/app-link";
 import { redirect } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { HOME_FOR_ROLE } from "@/domain/permissions";

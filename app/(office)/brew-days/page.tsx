@@ -1,4 +1,4 @@
-import Link from "next/link";
+import Link from "@/components/app-link";
 import { getFormatter, getTranslations } from "next-intl/server";
 import { BREW_DAY_STEPS, listBrewDays } from "@/server/floor/brew-days";
 import { requirePagePermission } from "@/server/accounts/page-guard";

@@ -1,6 +1,6 @@
 "use client";
 
-import Link from "next/link";
+import Link from "@/components/app-link";
 import Papa from "papaparse";
 import { useRef, useState } from "react";
 import { useTranslations } from "next-intl";

@@ -1,4 +1,4 @@
-import Link from "next/link";
+import Link from "@/components/app-link";
 import { getTranslations } from "next-intl/server";
 import { LotCardView } from "@/components/lot-card-view";
 import { LotLookupForm } from "@/components/lot-lookup-form";

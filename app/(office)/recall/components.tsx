@@ -1,4 +1,4 @@
-import Link from "next/link";
+import Link from "@/components/app-link";
 import { getFormatter, getTranslations } from "next-intl/server";
 import { getQuantity } from "@/lib/get-quantity";
 import { PageLinks } from "@/components/page-links";

@@ -1,6 +1,6 @@
 "use client";
 
-import Link from "next/link";
+import Link from "@/components/app-link";
 import { useFormatter, useLocale, useTranslations } from "next-intl";
 import { formatAmount } from "@/lib/quantity";
 import { BandChart, type BandChartPoint, type BandChartText } from "@/components/band-chart";

@@ -1,4 +1,4 @@
-import Link from "next/link";
+import Link from "@/components/app-link";
 import { notFound } from "next/navigation";
 import { getFormatter, getTimeZone, getTranslations } from "next-intl/server";
 import { brewDaySummary, isCalendarDate, neighbourBrewDays } from "@/server/floor/brew-days";

@@ -1,4 +1,4 @@
-import Link from "next/link";
+import Link from "@/components/app-link";
 import { getFormatter, getLocale, getTranslations } from "next-intl/server";
 import { attributeLines } from "@/lib/event-figures";
 import { figureText, quantityText } from "@/lib/quantity";
