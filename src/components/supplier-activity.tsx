@@ -1,9 +1,9 @@
 "use client";
 
-import Link from "next/link";
+import Link from "@/components/app-link";
 import { useFormatter, useTranslations } from "next-intl";
 import type { ColumnDef } from "@tanstack/react-table";
-import type { Delivery, Receipt, Run } from "@/server/suppliers/supplier-portal";
+import type { Delivery, Receipt } from "@/server/suppliers/supplier-portal";
 import { DataTable } from "./data-table";
 import { useYen } from "./supplier-account";
 
@@ -28,23 +28,6 @@ export function DeliveriesTable({ rows, testId = "deliveries-table", linkLots = 
     { id: "status", accessorFn: (r) => (r.reversed ? t("reversed") : ""), header: t("columns.status") },
   ];
   return <DataTable data={rows} columns={columns} label={t("detail.deliveries")} testId={testId} exportName="grainline-deliveries" />;
-}
-
-export function RunsTable({ rows, testId = "runs-table" }: { rows: Run[]; testId?: string }) {
-  const t = useTranslations("suppliers");
-  const format = useFormatter();
-  const yen = useYen();
-  const pct = (v: number | null) => (v === null ? "" : `${format.number(v, { maximumFractionDigits: 1 })} %`);
-  const columns: ColumnDef<Run, any>[] = [
-    { accessorKey: "at", header: t("columns.date"), cell: (c) => format.dateTime(c.getValue(), "day") },
-    { accessorKey: "polished", header: t("columns.polished"), cell: (c) => lotLink(c.getValue(), true) },
-    { accessorKey: "brownKg", header: t("columns.brownKg"), cell: (c) => format.number(c.getValue() ?? 0, { maximumFractionDigits: 1 }) },
-    { accessorKey: "targetPct", header: t("columns.target"), cell: (c) => pct(c.getValue()) },
-    { accessorKey: "achievedPct", header: t("columns.achieved"), cell: (c) => pct(c.getValue()) },
-    { id: "fee", accessorFn: (r) => r.feeYen ?? "", header: t("columns.fee"), cell: (c) => (c.row.original.feeYen === null ? <span className="text-persimmon">{t("noFee")}</span> : yen(c.row.original.feeYen)) },
-    { id: "status", accessorFn: (r) => (r.reversed ? t("reversed") : ""), header: t("columns.status") },
-  ];
-  return <DataTable data={rows} columns={columns} label={t("detail.runs")} testId={testId} exportName="grainline-runs" />;
 }
 
 export function ReceiptsTable({ rows }: { rows: Receipt[] }) {

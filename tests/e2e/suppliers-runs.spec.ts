@@ -1,13 +1,14 @@
 import { readFile } from "node:fs/promises";
 import { expect, test, type Browser } from "@playwright/test";
-import { signInAndLand } from "./helpers";
+import { signInAndLand, signOut } from "./helpers";
 
 /*
  * Shirotae Polishing Works (mill-shirotae) is seeded with 7 polishing runs, every one with a
  * contract fee (seed-suppliers.ts prices every ratio). To fill more than one page of 25, the
  * miller records 20 small runs (1 kg each) from H26-0006, the co-op's rice at the mill; no other
- * browser test reads the mill's account. The supplier account lists the runs once, in a table
- * rendered on the server; the page and "without a contract fee only" are in the address.
+ * browser test reads the mill's account. The supplier account, and the mill's own account, list
+ * the runs once, in a table rendered on the server; the page and "without a contract fee only" are
+ * in the address.
  */
 async function recordSmallRuns(browser: Browser, baseURL: string, count: number) {
   const context = await browser.newContext({ baseURL });
@@ -59,4 +60,13 @@ test("the office pages through a mill's polishing runs from the address, shows t
   await page.getByTestId("runs-unpriced-only").click();
   await expect(page).toHaveURL(/\/suppliers\/mill-shirotae#deliveries$/);
   await expect(range).toHaveText(`Polishing runs 1–25 of ${total}`);
+
+  // The mill's own account lists the same runs, a page at a time, in its own address.
+  await signOut(page);
+  await signInAndLand(page, "miller@example.com");
+  await page.goto("/account");
+  await expect(range).toHaveText(`Polishing runs 1–25 of ${total}`);
+  await page.getByTestId("runs-pages").getByRole("link", { name: "Next" }).click();
+  await expect(page).toHaveURL(/\/account\?page=2#deliveries$/);
+  await expect(range).toHaveText(`Polishing runs 26–${Math.min(50, total)} of ${total}`);
 });

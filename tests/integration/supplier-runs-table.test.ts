@@ -6,11 +6,11 @@ import { beforeAll, describe, expect, it } from "vitest";
 import type { ColumnDef } from "@tanstack/react-table";
 import { getSqlite } from "@/server/platform/db";
 import { runsOf, type Run } from "@/server/suppliers/supplier-portal";
-import { ACCOUNT_LIST_PAGE_SIZE, accountListHref } from "../../app/(office)/suppliers/[partyId]/account-list-view";
-import { isUnpricedRun, pageOfRuns, runsCsvRows } from "../../app/(office)/suppliers/[partyId]/runs-view";
+import { ACCOUNT_LIST_PAGE_SIZE, accountListHref } from "@/components/supplier-lists/account-list-view";
+import { isUnpricedRun, pageOfRuns, runsCsvRows } from "@/components/supplier-lists/runs-view";
 import { oldTableCsv } from "./old-table-csv";
 
-/** The columns of the browser table the page had (RunsTable, src/components/supplier-activity.tsx), values only. */
+/** The columns of the browser table the page had (RunsTable, once in src/components/supplier-activity.tsx), values only. */
 const oldColumns: ColumnDef<Run, any>[] = [
   { accessorKey: "at", header: "Date" },
   { accessorKey: "polished", header: "Polished lot" },
@@ -77,5 +77,7 @@ describe("the supplier account's polishing runs table", () => {
   it("keeps the view in the address, in the same section as a grower's deliveries", () => {
     expect(accountListHref({ partyId: "mill-shirotae", page: 2, unpricedOnly: true })).toBe("/suppliers/mill-shirotae?unpriced=1&page=2#deliveries");
     expect(accountListHref({ partyId: "mill-shirotae", page: 1, unpricedOnly: false })).toBe("/suppliers/mill-shirotae#deliveries");
+    // The mill's own account (/account) keeps the view in its own address.
+    expect(accountListHref({ partyId: "mill-shirotae", page: 3, unpricedOnly: false, at: "/account" })).toBe("/account?page=3#deliveries");
   });
 });

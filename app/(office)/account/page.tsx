@@ -1,7 +1,7 @@
 import { forbidden } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { AccountTable, BalancePanel, StatementsTable } from "@/components/supplier-account";
-import { DeliveriesTable, ReceiptsTable, RunsTable } from "@/components/supplier-activity";
+import { DeliveriesTable, ReceiptsTable } from "@/components/supplier-activity";
 import { can } from "@/domain/permissions";
 import { actionTranslator } from "@/server/platform/action";
 import { requirePageUser } from "@/server/accounts/page-guard";
@@ -12,18 +12,22 @@ import { HarvestTrails, MyFields } from "./components";
 import { PageHeader } from "@/components/page-header";
 import { LanguageSetting } from "@/components/language-switch";
 import { setLanguageAction } from "../../(auth)/language/actions";
+import { RunsPagedTable } from "@/components/supplier-lists/runs-table";
+
+type Search = { page?: string | string[]; unpriced?: string | string[] };
+const first = (value: string | string[] | undefined) => (Array.isArray(value) ? value[0] : value);
 
 export async function generateMetadata() {
   return { title: (await getTranslations("nav"))("account") };
 }
 
 /** A supplier's own pages: the grower's rice and money, or the mill's runs and fees. Only their own party. */
-export default async function AccountPage() {
+export default async function AccountPage({ searchParams }: { searchParams: Promise<Search> }) {
   const user = await requirePageUser();
   if (!can(user, "ledger:read-own")) forbidden();
   const kind = getParty(user.partyId)?.kind;
   if (kind === "grower") return <GrowerAccount />;
-  if (kind === "mill") return <MillAccount />;
+  if (kind === "mill") return <MillAccount search={await searchParams} />;
   forbidden();
 }
 
@@ -44,8 +48,10 @@ async function GrowerAccount() {
   );
 }
 
-async function MillAccount() {
+async function MillAccount({ search }: { search: Search }) {
   const p = millPortal(await requirePageUser());
+  // The mill's runs a page at a time, as the office's account of the mill lists them; the address is this page's own.
+  const view = { partyId: p.party.id, page: Number(first(search.page)) || 1, unpricedOnly: first(search.unpriced) === "1", at: "/account" };
   const t = await getTranslations("suppliers");
   const rows = accountRows(p.ledger, await actionTranslator());
   return (
@@ -53,8 +59,8 @@ async function MillAccount() {
       <Section title={t("detail.receipts")}>
         <ReceiptsTable rows={p.receipts} />
       </Section>
-      <Section title={t("detail.runs")}>
-        <RunsTable rows={p.runs} />
+      <Section title={t("detail.runs")} id="deliveries">
+        <RunsPagedTable runs={p.runs} view={view} />
       </Section>
       <Section title={t("portal.fees")}>
         <AccountTable rows={rows.filter((r) => r.kind === "polishing-fee" || r.kind === "reversal")} testId="fees-table" exportName="grainline-fees" />
@@ -94,9 +100,9 @@ async function AccountFrame({ portal: p, rows, title, intro, children, after }: 
 }
 
 /** One titled block of an account page. */
-function Section({ title, children }: { title: string; children: React.ReactNode }) {
+function Section({ title, id, children }: { title: string; id?: string; children: React.ReactNode }) {
   return (
-    <section className="space-y-3">
+    <section className="space-y-3" id={id}>
       <h2 className="text-xl font-bold">{title}</h2>
       {children}
     </section>

@@ -1,7 +1,7 @@
-import Link from "next/link";
+import Link from "@/components/app-link";
 import { getFormatter, getTranslations } from "next-intl/server";
 import type { Delivery } from "@/server/suppliers/supplier-portal";
-import { AccountListTable } from "./account-list-table";
+import { AccountListTable } from "@/components/supplier-lists/account-list-table";
 import { deliveriesCsvRows, pageOfDeliveries, type DeliveriesView } from "./deliveries-view";
 
 /** A grower's deliveries and what each was priced at, a page at a time; "no contract price" where none was. */

@@ -1,7 +1,7 @@
 /** The supplier account's table of a grower's deliveries: what a page of it shows, and its CSV. */
 
 import type { Delivery } from "@/server/suppliers/supplier-portal";
-import { ACCOUNT_LIST_PAGE_SIZE, accountListHref, pageOfAccountList, type AccountListView } from "./account-list-view";
+import { ACCOUNT_LIST_PAGE_SIZE, accountListHref, pageOfAccountList, type AccountListView } from "@/components/supplier-lists/account-list-view";
 
 export const DELIVERIES_PAGE_SIZE = ACCOUNT_LIST_PAGE_SIZE;
 export type DeliveriesView = AccountListView;

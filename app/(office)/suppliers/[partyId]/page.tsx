@@ -1,4 +1,4 @@
-import Link from "next/link";
+import Link from "@/components/app-link";
 import { forbidden, notFound } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { AccountTable, BalancePanel, StatementsTable } from "@/components/supplier-account";
@@ -19,10 +19,10 @@ import { ContractsTable, GrowerContractForm, MillContractForm } from "./contract
 import { AdjustmentForm, InvoiceNumberForm, StatementForm } from "./components";
 import { PaymentForm, PaymentsList } from "./payment-forms";
 import { DeliveriesPagedTable } from "./deliveries-table";
-import { accountListHref, type AccountListView } from "./account-list-view";
+import { accountListHref, type AccountListView } from "@/components/supplier-lists/account-list-view";
 import { isUnpriced } from "./deliveries-view";
-import { RunsPagedTable } from "./runs-table";
-import { isUnpricedRun } from "./runs-view";
+import { RunsPagedTable } from "@/components/supplier-lists/runs-table";
+import { isUnpricedRun } from "@/components/supplier-lists/runs-view";
 
 type Search = { page?: string | string[]; unpriced?: string | string[] };
 const first = (value: string | string[] | undefined) => (Array.isArray(value) ? value[0] : value);

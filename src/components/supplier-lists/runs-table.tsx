@@ -1,4 +1,4 @@
-import Link from "next/link";
+import Link from "@/components/app-link";
 import { getFormatter, getTranslations } from "next-intl/server";
 import type { Run } from "@/server/suppliers/supplier-portal";
 import { AccountListTable } from "./account-list-table";

@@ -1,4 +1,4 @@
-import Link from "next/link";
+import Link from "@/components/app-link";
 import type { ReactNode } from "react";
 import { getTranslations } from "next-intl/server";
 import { RowsCsvButtons } from "@/components/csv-buttons";

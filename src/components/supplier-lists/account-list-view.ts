@@ -8,15 +8,19 @@ import { pageOf } from "@/lib/paging";
 /** Rows a page of the list shows (as the browser tables it replaced); its CSV carries every row of the view. */
 export const ACCOUNT_LIST_PAGE_SIZE = 25;
 
-/** Which page, and whether only what no contract priced: both in the address, so links and reloads keep them. */
-export type AccountListView = { partyId: string; page: number; unpricedOnly: boolean };
+/**
+ * Which page, and whether only what no contract priced: both in the address, so links and
+ * reloads keep them. `at`: the page's own address where it is not the office's account of the
+ * party (a mill's own account, /account).
+ */
+export type AccountListView = { partyId: string; page: number; unpricedOnly: boolean; at?: string };
 
-export function accountListHref({ partyId, page, unpricedOnly }: AccountListView): string {
+export function accountListHref({ partyId, page, unpricedOnly, at }: AccountListView): string {
   const query = new URLSearchParams();
   if (unpricedOnly) query.set("unpriced", "1");
   if (page > 1) query.set("page", String(page));
   const search = query.size ? `?${query}` : "";
-  return `/suppliers/${encodeURIComponent(partyId)}${search}#deliveries`;
+  return `${at ?? `/suppliers/${encodeURIComponent(partyId)}`}${search}#deliveries`;
 }
 
 /** The rows the view holds, and the page of them to show, the page number kept within the list. */
