@@ -46,17 +46,3 @@ export function CsvButtons({ save, testId }: { save: ReturnType<typeof useCsvSav
     </>
   );
 }
-
-/**
- * The CSV of a table rendered on the server: its rows come as plain values (what the office
- * table's CSV holds: dates as ISO 8601), every row, not only the page shown.
- */
-export function RowsCsvButtons({ headers, rows, exportName, testId }: { headers: string[]; rows: unknown[][]; exportName: string; testId?: string }) {
-  const save = useCsvSave(exportName, (csvText) => csvText(headers, rows));
-  return (
-    <>
-      <CsvButtons save={save} testId={testId} />
-      {save.problem ? <p role="alert" className="notice-warn">{save.problem}</p> : null}
-    </>
-  );
-}

@@ -21,7 +21,7 @@ test("the office shows a grower's unpriced deliveries alone from the address, an
   expect(all).toBeGreaterThan(2);
   await expect(page.getByTestId("deliveries-range")).toHaveText("Deliveries 1–1 of 1");
 
-  const [file] = await Promise.all([page.waitForEvent("download"), table.getByRole("button", { name: "Download CSV", exact: true }).click()]);
+  const [file] = await Promise.all([page.waitForEvent("download"), table.getByRole("link", { name: "Download CSV", exact: true }).click()]);
   expect(file.suggestedFilename()).toBe("grainline-deliveries.csv");
   const lines = (await readFile((await file.path())!, "utf8")).replace(/^\uFEFF/, "").trim().split("\r\n");
   expect(lines).toHaveLength(2);

@@ -45,7 +45,7 @@ test("the office pages through a mill's polishing runs from the address, shows t
   await expect(page).toHaveURL(/\/suppliers\/mill-shirotae\?page=2#deliveries$/);
   await expect(range).toHaveText(`Polishing runs 26–${Math.min(50, total)} of ${total}`);
 
-  const [file] = await Promise.all([page.waitForEvent("download"), table.getByRole("button", { name: "Download CSV", exact: true }).click()]);
+  const [file] = await Promise.all([page.waitForEvent("download"), table.getByRole("link", { name: "Download CSV", exact: true }).click()]);
   expect(file.suggestedFilename()).toBe("grainline-runs.csv");
   const lines = (await readFile((await file.path())!, "utf8")).replace(/^\uFEFF/, "").trim().split("\r\n");
   expect(lines).toHaveLength(total + 1);
@@ -69,4 +69,8 @@ test("the office pages through a mill's polishing runs from the address, shows t
   await page.getByTestId("runs-pages").getByRole("link", { name: "Next" }).click();
   await expect(page).toHaveURL(/\/account\?page=2#deliveries$/);
   await expect(range).toHaveText(`Polishing runs 26–${Math.min(50, total)} of ${total}`);
+  // Its CSV comes from the server too, every run, for the mill's own party.
+  const [own] = await Promise.all([page.waitForEvent("download"), table.getByRole("link", { name: "Download CSV", exact: true }).click()]);
+  expect(own.suggestedFilename()).toBe("grainline-runs.csv");
+  expect((await readFile((await own.path())!, "utf8")).replace(/^\uFEFF/, "").trim().split("\r\n")).toHaveLength(total + 1);
 });

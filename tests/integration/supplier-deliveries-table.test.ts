@@ -3,27 +3,12 @@
 // the CSV hold what the browser table they replace held: its filter, every row, and the CSV
 // tanstack's table wrote from the same column accessors.
 import { beforeAll, describe, expect, it } from "vitest";
-import type { ColumnDef } from "@tanstack/react-table";
 import { getSqlite } from "@/server/platform/db";
 import { deliveriesOf, type Delivery } from "@/server/suppliers/supplier-portal";
-import { DELIVERIES_PAGE_SIZE, deliveriesCsvRows, deliveriesHref, isUnpriced, pageOfDeliveries } from "../../app/(office)/suppliers/[partyId]/deliveries-view";
-import { oldTableCsv } from "./old-table-csv";
+import { DELIVERIES_PAGE_SIZE, deliveriesCsvRows, deliveriesHref, isUnpriced, pageOfDeliveries } from "@/components/supplier-lists/deliveries-view";
+import { oldDeliveryColumns, oldTableCsv } from "./old-table-csv";
 
-/** The columns of the browser table the page had (src/components/supplier-activity.tsx), values only. */
-const oldColumns: ColumnDef<Delivery, any>[] = [
-  { accessorKey: "at", header: "Date" },
-  { accessorKey: "code", header: "Lot" },
-  { accessorKey: "variety", header: "Variety" },
-  { accessorKey: "cropYear", header: "Crop year" },
-  { accessorKey: "grade", header: "Grade" },
-  { accessorKey: "kg", header: "kg" },
-  { accessorKey: "slip", header: "Slip" },
-  { accessorKey: "receiver", header: "Received by" },
-  { id: "amount", accessorFn: (r) => r.amountYen ?? "", header: "Amount" },
-  { id: "status", accessorFn: (r) => (r.reversed ? "reversed" : ""), header: "Status" },
-];
-
-const oldCsv = (rows: Delivery[]) => oldTableCsv(rows, oldColumns);
+const oldCsv = (rows: Delivery[]) => oldTableCsv(rows, oldDeliveryColumns);
 
 /** Many deliveries: each seeded receipt of every grower, repeated to fill three pages, some reversed, some unpriced. */
 function manyDeliveries(): Delivery[] {

@@ -3,25 +3,13 @@
 // view and the CSV hold what the two browser tables they replace held: the unpriced table's
 // filter, every row, and the CSV tanstack's table wrote from the same column accessors.
 import { beforeAll, describe, expect, it } from "vitest";
-import type { ColumnDef } from "@tanstack/react-table";
 import { getSqlite } from "@/server/platform/db";
 import { runsOf, type Run } from "@/server/suppliers/supplier-portal";
 import { ACCOUNT_LIST_PAGE_SIZE, accountListHref } from "@/components/supplier-lists/account-list-view";
 import { isUnpricedRun, pageOfRuns, runsCsvRows } from "@/components/supplier-lists/runs-view";
-import { oldTableCsv } from "./old-table-csv";
+import { oldRunColumns, oldTableCsv } from "./old-table-csv";
 
-/** The columns of the browser table the page had (RunsTable, once in src/components/supplier-activity.tsx), values only. */
-const oldColumns: ColumnDef<Run, any>[] = [
-  { accessorKey: "at", header: "Date" },
-  { accessorKey: "polished", header: "Polished lot" },
-  { accessorKey: "brownKg", header: "Brown rice kg" },
-  { accessorKey: "targetPct", header: "Target" },
-  { accessorKey: "achievedPct", header: "Achieved" },
-  { id: "fee", accessorFn: (r) => r.feeYen ?? "", header: "Fee" },
-  { id: "status", accessorFn: (r) => (r.reversed ? "reversed" : ""), header: "Status" },
-];
-
-const oldCsv = (rows: Run[]) => oldTableCsv(rows, oldColumns);
+const oldCsv = (rows: Run[]) => oldTableCsv(rows, oldRunColumns);
 
 /** Many runs: each seeded run of the mill, repeated to fill three pages, some reversed, some without a fee or a polished lot or ratio. */
 function manyRuns(): Run[] {

@@ -8,6 +8,7 @@ import { GET as getLedger } from "../../app/api/suppliers/[partyId]/ledger/route
 import { GET as getStatements } from "../../app/api/suppliers/[partyId]/statements/route";
 import { GET as getStatementCsv } from "../../app/api/suppliers/[partyId]/statements/[number]/statement.csv/route";
 import { GET as getStatementPdf } from "../../app/api/suppliers/[partyId]/statements/[number]/statement.pdf/route";
+import { GET as getListCsv } from "../../app/api/suppliers/[partyId]/list.csv/route";
 import { getSqlite } from "@/server/platform/db";
 import { call, jsonRequest, signInAs, tableDigests } from "../support/api";
 import { submit } from "../support/action-scope";
@@ -103,6 +104,16 @@ describe("suppliers", () => {
       expect(await ledger(cookies[who]!, other), who).toEqual(unknownToOffice);
       expect(await ledger(cookies[who]!, "no-such-party"), who).toEqual(unknownToOffice);
     }
+  });
+
+  it("GET …/list.csv: another supplier's deliveries answer as a party that does not exist", async () => {
+    const list = (cookie: string, partyId: string) => raw(getListCsv(jsonRequest(`/api/suppliers/${partyId}/list.csv`, { cookie }), params({ partyId })));
+    const unknown = await list(cookies.admin!, "no-such-party");
+    expect(unknown.status).toBe(404);
+    expect((await list(cookies.admin!, "grower-ikeda")).status).toBe(200);
+    expect(await list(cookies.grower2!, "grower-ikeda")).toEqual(unknown);
+    expect(await list(cookies.miller!, "grower-ikeda")).toEqual(unknown);
+    expect(await list(cookies.grower2!, "no-such-party")).toEqual(unknown);
   });
 
   it("GET …/statements and a statement's PDF and CSV: the same", async () => {

@@ -1,9 +1,9 @@
 import Link from "@/components/app-link";
 import type { ReactNode } from "react";
 import { getTranslations } from "next-intl/server";
-import { RowsCsvButtons } from "@/components/csv-buttons";
+import { CsvDownloadLinks } from "@/components/csv-download-links";
 import { PageLinks } from "@/components/page-links";
-import { accountListHref, type AccountListView } from "./account-list-view";
+import { accountListHref, listCsvHref, type AccountListView } from "./account-list-view";
 
 type Props = {
   view: AccountListView;
@@ -11,8 +11,6 @@ type Props = {
   name: string;
   label: string;
   headers: string[];
-  /** Every row of the view, as plain CSV cells, not only the page shown. */
-  csvRows: unknown[][];
   paging: { page: number; pages: number; from: number; to: number; total: number };
   words: { unpricedOnly: string; all: string; range: string };
   /** The page's rows; none draws the table's empty line. */
@@ -22,10 +20,11 @@ type Props = {
 /**
  * The frame of the supplier account's one list, rendered on the server only (the rows are not
  * sent again for the browser to draw): the "unpriced only" switch and range above, the CSV of
- * the whole view, the table's head, and the page links below.
+ * the whole view (written by the server when asked, not sent with the page), the table's head, and the page links below.
  */
-export async function AccountListTable({ view, name, label, headers, csvRows, paging, words, rows }: Props) {
+export async function AccountListTable({ view, name, label, headers, paging, words, rows }: Props) {
   const tt = await getTranslations("table");
+  const tc = await getTranslations("csv");
   const { page, pages } = paging;
   return (
     <div className="space-y-3" data-testid={`${name}-table`}>
@@ -37,7 +36,7 @@ export async function AccountListTable({ view, name, label, headers, csvRows, pa
           <span data-testid={`${name}-range`}>{words.range}</span>
         </p>
         <div className="flex items-center gap-3">
-          <RowsCsvButtons headers={headers} rows={csvRows} exportName={`grainline-${name}`} testId={`${name}-table`} />
+          <CsvDownloadLinks href={listCsvHref(view.partyId, view.unpricedOnly)} label={tc("download")} className="btn-quiet" testId={`${name}-table-csv`} />
         </div>
       </div>
       <div className="overflow-x-auto rounded-lg border-2 border-paper-deep bg-white">

@@ -28,3 +28,8 @@ export function pageOfAccountList<T>(all: T[], view: AccountListView, isUnpriced
   const shown = view.unpricedOnly ? all.filter(isUnpriced) : all;
   return { shown, ...pageOf(shown, view.page, ACCOUNT_LIST_PAGE_SIZE) };
 }
+
+/** The address of the list's CSV (`app/api/suppliers/[partyId]/list.csv`): the whole view, every page. */
+export function listCsvHref(partyId: string, unpricedOnly: boolean): string {
+  return `/api/suppliers/${encodeURIComponent(partyId)}/list.csv${unpricedOnly ? "?unpriced=1" : ""}`;
+}

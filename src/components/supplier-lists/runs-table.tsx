@@ -3,7 +3,8 @@ import { getFormatter, getTranslations } from "next-intl/server";
 import type { Run } from "@/server/suppliers/supplier-portal";
 import { AccountListTable } from "./account-list-table";
 import type { AccountListView } from "./account-list-view";
-import { pageOfRuns, runsCsvRows } from "./runs-view";
+import { RUN_COLUMNS, listHeaders } from "./list-csv";
+import { pageOfRuns } from "./runs-view";
 
 /** A mill's polishing runs and the fee each earned, a page at a time; "no contract fee" where none was. */
 export async function RunsPagedTable({ runs, view }: { runs: Run[]; view: AccountListView }) {
@@ -11,11 +12,11 @@ export async function RunsPagedTable({ runs, view }: { runs: Run[]; view: Accoun
   const format = await getFormatter();
   const yen = (v: number) => format.number(v, { style: "currency", currency: "JPY" });
   const pct = (v: number | null) => (v === null ? "" : `${format.number(v, { maximumFractionDigits: 1 })} %`);
-  const { shown, rows, ...paging } = pageOfRuns(runs, view);
-  const headers = [t("columns.date"), t("columns.polished"), t("columns.brownKg"), t("columns.target"), t("columns.achieved"), t("columns.fee"), t("columns.status")];
+  const { shown: _all, rows, ...paging } = pageOfRuns(runs, view);
+  const headers = listHeaders(RUN_COLUMNS, t);
   const words = { unpricedOnly: t("detail.showUnpricedRuns"), all: t("detail.showAllRuns"), range: t("detail.runsRange", paging) };
   return (
-    <AccountListTable view={view} name="runs" label={t("detail.runs")} headers={headers} csvRows={runsCsvRows(shown, t("reversed"))} paging={paging} words={words} rows={rows.map((r) => (
+    <AccountListTable view={view} name="runs" label={t("detail.runs")} headers={headers} paging={paging} words={words} rows={rows.map((r) => (
       <tr key={r.eventId} data-unpriced={r.feeYen === null || undefined}>
         <td>{format.dateTime(r.at, "day")}</td>
         <td>{r.polished ? <Link className="code-chip no-underline" href={`/lots/${r.polished}`}>{r.polished}</Link> : ""}</td>

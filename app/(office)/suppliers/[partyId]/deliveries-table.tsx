@@ -2,7 +2,8 @@ import Link from "@/components/app-link";
 import { getFormatter, getTranslations } from "next-intl/server";
 import type { Delivery } from "@/server/suppliers/supplier-portal";
 import { AccountListTable } from "@/components/supplier-lists/account-list-table";
-import { deliveriesCsvRows, pageOfDeliveries, type DeliveriesView } from "./deliveries-view";
+import { pageOfDeliveries, type DeliveriesView } from "@/components/supplier-lists/deliveries-view";
+import { DELIVERY_COLUMNS, listHeaders } from "@/components/supplier-lists/list-csv";
 
 /** A grower's deliveries and what each was priced at, a page at a time; "no contract price" where none was. */
 export async function DeliveriesPagedTable({ deliveries, view }: { deliveries: Delivery[]; view: DeliveriesView }) {
@@ -10,11 +11,11 @@ export async function DeliveriesPagedTable({ deliveries, view }: { deliveries: D
   const tl = await getTranslations("lot");
   const format = await getFormatter();
   const yen = (v: number) => format.number(v, { style: "currency", currency: "JPY" });
-  const { shown, rows, ...paging } = pageOfDeliveries(deliveries, view);
-  const headers = [t("columns.date"), t("columns.lot"), t("columns.variety"), t("columns.cropYear"), t("columns.grade"), t("columns.kg"), t("columns.slip"), t("columns.receiver"), t("columns.amount"), t("columns.status")];
+  const { shown: _all, rows, ...paging } = pageOfDeliveries(deliveries, view);
+  const headers = listHeaders(DELIVERY_COLUMNS, t);
   const words = { unpricedOnly: t("detail.showUnpriced"), all: t("detail.showAllDeliveries"), range: t("detail.deliveriesRange", paging) };
   return (
-    <AccountListTable view={view} name="deliveries" label={t("detail.deliveries")} headers={headers} csvRows={deliveriesCsvRows(shown, t("reversed"))} paging={paging} words={words} rows={rows.map((d) => (
+    <AccountListTable view={view} name="deliveries" label={t("detail.deliveries")} headers={headers} paging={paging} words={words} rows={rows.map((d) => (
       <tr key={`${d.eventId}-${d.code}`} data-unpriced={d.amountYen === null || undefined}>
         <td>{format.dateTime(d.at, "day")}</td>
         <td><Link className="code-chip no-underline" href={`/lots/${d.code}`}>{d.code}</Link></td>

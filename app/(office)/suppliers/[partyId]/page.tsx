@@ -20,7 +20,7 @@ import { AdjustmentForm, InvoiceNumberForm, StatementForm } from "./components";
 import { PaymentForm, PaymentsList } from "./payment-forms";
 import { DeliveriesPagedTable } from "./deliveries-table";
 import { accountListHref, type AccountListView } from "@/components/supplier-lists/account-list-view";
-import { isUnpriced } from "./deliveries-view";
+import { isUnpriced } from "@/components/supplier-lists/deliveries-view";
 import { RunsPagedTable } from "@/components/supplier-lists/runs-table";
 import { isUnpricedRun } from "@/components/supplier-lists/runs-view";
 
