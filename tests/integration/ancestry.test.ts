@@ -1,7 +1,8 @@
 import { beforeAll, describe, expect, it } from "vitest";
+import { SQLiteSyncDialect } from "drizzle-orm/sqlite-core";
 import { getSqlite } from "@/server/platform/db";
 import { kojiFraction } from "@/server/floor/tanks";
-import { ancestryOf, lotsOfKindUp, lotsUpThrough } from "@/server/trace/ancestry";
+import { ancestryOf, lotsOfKindUp, lotsUpThrough, touchedSince } from "@/server/trace/ancestry";
 import { claimsForLot } from "@/server/trace/claims";
 
 // A branching ledger written row by row: two tanks from koji, steamed and polished rice, their
@@ -159,5 +160,12 @@ describe("the walk of distinct lots behind a lot", () => {
     const back = ancestryOf(bottle);
     expect(back.first).not.toBe(grown.first);
     expect(lotsOfKindUp(back, bottle, "polished").map((l) => l.fraction)).toEqual(pathByPath(bottle, "polished").map((l) => expect.closeTo(l.fraction, 12)));
+  });
+
+  it("checks what was touched since a lineage was read by the rows after the mark alone, never a scan of the tables", () => {
+    const query = new SQLiteSyncDialect().sqlToQuery(touchedSince({ event: 1, edge: 1 }));
+    const plan = (getSqlite().prepare(`explain query plan ${query.sql}`).all(...query.params) as { detail: string }[]).map((r) => r.detail);
+    expect(plan.filter((d) => /^SCAN (event_outputs|event_inputs|lineage_edges)\b/.test(d)), plan.join(" | ")).toEqual([]);
+    expect(plan.some((d) => d.includes("event_outputs_event_idx"))).toBe(true);
   });
 });

@@ -105,24 +105,31 @@ function indexed(ids: number[], kinds: string[], contents: number[], edges: { ch
  */
 const recent = new Map<number, { seen: LedgerMark; lineage: Lineage }>();
 const KEEP = 16;
-/** More lots touched than this since a lineage was read, and it is read again rather than checked. */
+/** More rows touched than this since a lineage was read, and it is read again rather than checked. */
 const CHECK_AT_MOST = 20_000;
 
-type LedgerMark = { event: number; edge: number };
+export type LedgerMark = { event: number; edge: number };
 
 function ledgerMark(): LedgerMark {
   const row = getDb().get<{ e: number | null; l: number | null }>(sql`select (select max(id) from events) as e, (select max(id) from lineage_edges) as l`);
   return { event: row?.e ?? 0, edge: row?.l ?? 0 };
 }
 
+/**
+ * The lots touched since `seen`: out of, drawn from, or linked into by what was recorded after it.
+ * UNION ALL, so that each part reads only the rows after the mark by its own index: a UNION's
+ * de-duplication made SQLite scan all three tables in lot order instead (87 ms against 0.1).
+ */
+export const touchedSince = (seen: LedgerMark) => sql`
+  select json_group_array(lot_id) as lots, count(*) as n from (
+    select lot_id from event_outputs where event_id > ${seen.event}
+    union all select lot_id from event_inputs where event_id > ${seen.event}
+    union all select child_lot_id from lineage_edges where id > ${seen.edge})`;
+
 /** Whether no event recorded after `seen` came out of, drew from or linked into a lot of the lineage. */
 function untouched(lineage: Lineage, seen: LedgerMark, now: LedgerMark): boolean {
   if (seen.event === now.event && seen.edge === now.edge) return true;
-  const row = getDb().get<{ lots: string; n: number }>(sql`
-    select json_group_array(lot_id) as lots, count(*) as n from (
-      select lot_id from event_outputs where event_id > ${seen.event}
-      union select lot_id from event_inputs where event_id > ${seen.event}
-      union select child_lot_id from lineage_edges where id > ${seen.edge})`)!;
+  const row = getDb().get<{ lots: string; n: number }>(touchedSince(seen))!;
   if (row.n > CHECK_AT_MOST) return false;
   return !(JSON.parse(row.lots) as number[]).some((id) => lineage.at.has(id));
 }
