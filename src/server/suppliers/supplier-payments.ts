@@ -63,8 +63,9 @@ const entryIdOf = (raw: string) => (/^[1-9]\d{0,15}$/.test(raw) ? Number(raw) : 
  * Puts a payment right without touching it: a reversal entry of the opposite amount, with the
  * reason and the user, dated when it is recorded — so a payment already on an issued statement
  * is answered on the next one — and never before the payment itself: a payment is dated noon on
- * its day, so one reversed that morning would otherwise come first in the account. A payment is reversed once. A payment of another supplier
- * (through a mismatched party in the URL) is as unknown as one that does not exist.
+ * its day, so one reversed that morning would otherwise come first in the account. A payment is
+ * reversed once. A payment of another supplier (through a mismatched party in the URL) is as
+ * unknown as one that does not exist.
  */
 export function reversePayment(actor: SessionUser, partyId: string, rawEntryId: string, raw: unknown, t: Translate, db: DbOrTx = getDb()) {
   if (!can(actor, "ledger:manage")) throw forbidden();

@@ -18,7 +18,7 @@ import { getParty } from "@/server/ledger/parties";
 import { ContractsTable, GrowerContractForm, MillContractForm } from "./contract-forms";
 import { AdjustmentForm, InvoiceNumberForm, StatementForm } from "./components";
 import { PaymentForm, PaymentsList } from "./payment-forms";
-import { DeliveriesPagedTable } from "./deliveries-table";
+import { DeliveriesPagedTable } from "@/components/supplier-lists/deliveries-table";
 import { accountListHref, type AccountListView } from "@/components/supplier-lists/account-list-view";
 import { isUnpriced } from "@/components/supplier-lists/deliveries-view";
 import { RunsPagedTable } from "@/components/supplier-lists/runs-table";

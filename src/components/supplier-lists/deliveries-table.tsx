@@ -1,9 +1,9 @@
 import Link from "@/components/app-link";
 import { getFormatter, getTranslations } from "next-intl/server";
 import type { Delivery } from "@/server/suppliers/supplier-portal";
-import { AccountListTable } from "@/components/supplier-lists/account-list-table";
-import { pageOfDeliveries, type DeliveriesView } from "@/components/supplier-lists/deliveries-view";
-import { DELIVERY_COLUMNS, listHeaders } from "@/components/supplier-lists/list-csv";
+import { AccountListTable } from "./account-list-table";
+import { pageOfDeliveries, type DeliveriesView } from "./deliveries-view";
+import { DELIVERY_COLUMNS, listHeaders } from "./list-csv";
 
 /** A grower's deliveries and what each was priced at, a page at a time; "no contract price" where none was. */
 export async function DeliveriesPagedTable({ deliveries, view }: { deliveries: Delivery[]; view: DeliveriesView }) {
