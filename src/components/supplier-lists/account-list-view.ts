@@ -25,9 +25,15 @@ export function accountListHref({ partyId, page, unpricedOnly, at }: AccountList
 
 /** The rows the view holds, and the page of them to show, the page number kept within the list. */
 export function pageOfAccountList<T>(all: T[], view: AccountListView, isUnpriced: (row: T) => boolean) {
-  const shown = view.unpricedOnly ? all.filter(isUnpriced) : all;
+  const shown = inView(all, view.unpricedOnly, isUnpriced);
   return { shown, ...pageOf(shown, view.page, ACCOUNT_LIST_PAGE_SIZE) };
 }
+
+/** The rows a view holds on every page: all of them, or only what no contract priced (the table and its CSV alike). */
+export const inView = <T,>(all: T[], unpricedOnly: boolean, isUnpriced: (row: T) => boolean) => (unpricedOnly ? all.filter(isUnpriced) : all);
+
+/** A list's column headers, read by a translator of the `suppliers` namespace (the table's and the CSV's). */
+export const listHeaders = (columns: readonly string[], t: (key: string) => string) => columns.map((c) => t(`columns.${c}`));
 
 /** The address of the list's CSV (`app/api/suppliers/[partyId]/list.csv`): the whole view, every page. */
 export function listCsvHref(partyId: string, unpricedOnly: boolean): string {

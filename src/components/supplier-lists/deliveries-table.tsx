@@ -2,8 +2,8 @@ import Link from "@/components/app-link";
 import { getFormatter, getTranslations } from "next-intl/server";
 import type { Delivery } from "@/server/suppliers/supplier-portal";
 import { AccountListTable } from "./account-list-table";
-import { pageOfDeliveries, type DeliveriesView } from "./deliveries-view";
-import { DELIVERY_COLUMNS, listHeaders } from "./list-csv";
+import { listHeaders } from "./account-list-view";
+import { DELIVERY_COLUMNS, pageOfDeliveries, type DeliveriesView } from "./deliveries-view";
 
 /** A grower's deliveries and what each was priced at, a page at a time; "no contract price" where none was. */
 export async function DeliveriesPagedTable({ deliveries, view }: { deliveries: Delivery[]; view: DeliveriesView }) {

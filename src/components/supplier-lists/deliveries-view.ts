@@ -12,6 +12,9 @@ export const isUnpriced = (d: Delivery) => d.amountYen === null && !d.reversed;
 
 export const pageOfDeliveries = (deliveries: Delivery[], view: DeliveriesView) => pageOfAccountList(deliveries, view, isUnpriced);
 
+/** The table's columns, in order, as keys of the catalogue's `suppliers.columns`: its CSV cells below follow them. */
+export const DELIVERY_COLUMNS = ["date", "lot", "variety", "cropYear", "grade", "kg", "slip", "receiver", "amount", "status"] as const;
+
 /**
  * The CSV's cells, as the office table's CSV wrote them: each column's plain value (the grade's
  * key, the amount in yen or empty), dates as ISO 8601.

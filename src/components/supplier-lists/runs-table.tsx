@@ -2,9 +2,8 @@ import Link from "@/components/app-link";
 import { getFormatter, getTranslations } from "next-intl/server";
 import type { Run } from "@/server/suppliers/supplier-portal";
 import { AccountListTable } from "./account-list-table";
-import type { AccountListView } from "./account-list-view";
-import { RUN_COLUMNS, listHeaders } from "./list-csv";
-import { pageOfRuns } from "./runs-view";
+import { listHeaders, type AccountListView } from "./account-list-view";
+import { pageOfRuns, RUN_COLUMNS } from "./runs-view";
 
 /** A mill's polishing runs and the fee each earned, a page at a time; "no contract fee" where none was. */
 export async function RunsPagedTable({ runs, view }: { runs: Run[]; view: AccountListView }) {

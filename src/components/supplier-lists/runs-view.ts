@@ -8,6 +8,9 @@ export const isUnpricedRun = (r: Run) => r.feeYen === null && !r.reversed;
 
 export const pageOfRuns = (runs: Run[], view: AccountListView) => pageOfAccountList(runs, view, isUnpricedRun);
 
+/** The table's columns, in order, as keys of the catalogue's `suppliers.columns`: its CSV cells below follow them. */
+export const RUN_COLUMNS = ["date", "polished", "brownKg", "target", "achieved", "fee", "status"] as const;
+
 /**
  * The CSV's cells, as the office table's CSV wrote them: each column's plain value (kg and
  * ratios as numbers, the fee in yen or empty), dates as ISO 8601.
