@@ -1,6 +1,6 @@
-import { NextIntlClientProvider } from "next-intl";
 import { getTranslations } from "next-intl/server";
 import { BrandMark } from "@/components/brand-mark";
+import { ClientMessages } from "@/i18n/client-messages";
 
 export default async function AuthLayout({ children }: { children: React.ReactNode }) {
   const t = await getTranslations("app");
@@ -14,7 +14,7 @@ export default async function AuthLayout({ children }: { children: React.ReactNo
         </div>
       </div>
       <div className="panel">
-        <NextIntlClientProvider>{children}</NextIntlClientProvider>
+        <ClientMessages namespaces={[]}>{children}</ClientMessages>
       </div>
     </main>
   );

@@ -1,4 +1,3 @@
-import { NextIntlClientProvider } from "next-intl";
 import { redirect } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { BrandMark } from "@/components/brand-mark";
@@ -9,6 +8,7 @@ import { UserBar } from "@/components/user-bar";
 import { currentUser } from "@/server/accounts/session";
 import { setLanguageAction } from "../(auth)/language/actions";
 import { signOutAction } from "../(auth)/sign-out/actions";
+import { ClientMessages } from "@/i18n/client-messages";
 
 /** Phone first: large type, high contrast, every target at least 48 px for gloved hands. */
 export default async function FloorLayout({ children }: { children: React.ReactNode }) {
@@ -16,7 +16,7 @@ export default async function FloorLayout({ children }: { children: React.ReactN
   if (!user) redirect("/sign-in");
   const t = await getTranslations();
   return (
-    <NextIntlClientProvider>
+    <ClientMessages namespaces={["floorScan"]}>
     <div className="min-h-dvh bg-ink text-paper">
       <header className="flex items-center justify-between gap-3 border-b-4 border-koji px-4 py-3">
         <FloorLink href="/scan" className="flex min-h-12 items-center gap-2 text-paper no-underline">
@@ -31,6 +31,6 @@ export default async function FloorLayout({ children }: { children: React.ReactN
         {children}
       </main>
     </div>
-    </NextIntlClientProvider>
+    </ClientMessages>
   );
 }

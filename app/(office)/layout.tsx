@@ -1,5 +1,4 @@
 import Link from "@/components/app-link";
-import { NextIntlClientProvider } from "next-intl";
 import { redirect } from "next/navigation";
 import { getTranslations } from "next-intl/server";
 import { BrandMark } from "@/components/brand-mark";
@@ -9,13 +8,14 @@ import { UserBar } from "@/components/user-bar";
 import { currentUser } from "@/server/accounts/session";
 import { setLanguageAction } from "../(auth)/language/actions";
 import { signOutAction } from "../(auth)/sign-out/actions";
+import { ClientMessages } from "@/i18n/client-messages";
 
 export default async function OfficeLayout({ children }: { children: React.ReactNode }) {
   const user = await currentUser();
   if (!user) redirect("/sign-in");
   const t = await getTranslations();
   return (
-    <NextIntlClientProvider>
+    <ClientMessages namespaces={[]}>
     <div className="min-h-dvh">
       <header className="border-b-4 border-koji bg-cedar-deep text-paper print:hidden">
         <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-2">
@@ -38,6 +38,6 @@ export default async function OfficeLayout({ children }: { children: React.React
         {children}
       </main>
     </div>
-    </NextIntlClientProvider>
+    </ClientMessages>
   );
 }

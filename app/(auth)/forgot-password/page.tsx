@@ -1,12 +1,13 @@
 import Link from "@/components/app-link";
 import { getTranslations } from "next-intl/server";
 import { ForgotPasswordForm } from "./components";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("auth"))("forgotTitle") };
 }
 
-export default async function ForgotPasswordPage() {
+async function ForgotPasswordPage() {
   const t = await getTranslations("auth");
   return (
     <>
@@ -19,3 +20,5 @@ export default async function ForgotPasswordPage() {
     </>
   );
 }
+
+export default withClientMessages(["auth"], ForgotPasswordPage);

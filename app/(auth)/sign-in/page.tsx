@@ -7,13 +7,14 @@ import { currentUser } from "@/server/accounts/session";
 import { LanguageSwitch } from "@/components/language-switch";
 import { setLanguageAction } from "../language/actions";
 import { SignInForm } from "./components";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   const t = await getTranslations("auth");
   return { title: t("signInTitle") };
 }
 
-export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string | string[] }> }) {
+async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string | string[] }> }) {
   // Only a path on this site is kept (an absolute or //host address is ignored: no open redirect).
   const next = safeNextPath((await searchParams).next) ?? undefined;
   const user = await currentUser();
@@ -34,3 +35,5 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
     </>
   );
 }
+
+export default withClientMessages(["auth"], SignInPage);

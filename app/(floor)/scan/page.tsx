@@ -5,13 +5,14 @@ import { findLot } from "@/server/ledger/lots";
 import { requirePagePermission } from "@/server/accounts/page-guard";
 import { findTankLotByName } from "@/server/floor/tanks";
 import { ScanScreen, type ScanView } from "./components";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("floorScan"))("title") };
 }
 
 /** The brewer's home. `/scan?code=` answers the typed-code form even without JavaScript. */
-export default async function ScanPage({ searchParams }: { searchParams: Promise<{ code?: string | string[] }> }) {
+async function ScanPage({ searchParams }: { searchParams: Promise<{ code?: string | string[] }> }) {
   const user = await requirePagePermission("brewing:record");
   const t = await getTranslations("floorScan");
   const raw = (await searchParams).code;
@@ -36,3 +37,5 @@ export default async function ScanPage({ searchParams }: { searchParams: Promise
     </div>
   );
 }
+
+export default withClientMessages(["floorForms", "floorScan", "holds", "lot"], ScanPage);

@@ -13,6 +13,7 @@ import { PageHeader } from "@/components/page-header";
 import { LanguageSetting } from "@/components/language-switch";
 import { setLanguageAction } from "../../(auth)/language/actions";
 import { RunsPagedTable } from "@/components/supplier-lists/runs-table";
+import { withClientMessages } from "@/i18n/client-messages";
 
 type Search = { page?: string | string[]; unpriced?: string | string[] };
 const first = (value: string | string[] | undefined) => (Array.isArray(value) ? value[0] : value);
@@ -22,7 +23,7 @@ export async function generateMetadata() {
 }
 
 /** A supplier's own pages: the grower's rice and money, or the mill's runs and fees. Only their own party. */
-export default async function AccountPage({ searchParams }: { searchParams: Promise<Search> }) {
+async function AccountPage({ searchParams }: { searchParams: Promise<Search> }) {
   const user = await requirePageUser();
   if (!can(user, "ledger:read-own")) forbidden();
   const kind = getParty(user.partyId)?.kind;
@@ -108,3 +109,5 @@ function Section({ title, id, children }: { title: string; id?: string; children
     </section>
   );
 }
+
+export default withClientMessages(["csv", "errors", "lot", "suppliers", "table"], AccountPage);

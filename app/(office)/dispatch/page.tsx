@@ -8,12 +8,13 @@ import { listRequestsToAnswer } from "@/server/ledger/receipt-requests";
 import { PageHeader } from "@/components/page-header";
 import { getQuantity } from "@/lib/get-quantity";
 import { AnswerRequest, DispatchForm } from "./components";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("dispatch"))("title") };
 }
 
-export default async function DispatchPage({ searchParams }: { searchParams: Promise<{ code?: string }> }) {
+async function DispatchPage({ searchParams }: { searchParams: Promise<{ code?: string }> }) {
   const user = await requirePageUser();
   // The shipping step's roles (STEP_RULES.shipping): mill and brewery staff, the office, growers for their harvest.
   if (!can(user, "polishing:record") && !can(user, "brewing:record") && !can(user, "harvests:dispatch-own")) forbidden();
@@ -44,3 +45,5 @@ export default async function DispatchPage({ searchParams }: { searchParams: Pro
     </div>
   );
 }
+
+export default withClientMessages(["dispatch", "floorScan"], DispatchPage);

@@ -10,12 +10,13 @@ import { readVarietyList } from "@/server/floor/variety-list";
 import { HarvestForm } from "./harvest-form";
 import { FieldForm, FieldsTable } from "./components";
 import { PageHeader } from "@/components/page-header";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("home"))("fieldsTitleAll") };
 }
 
-export default async function FieldsPage() {
+async function FieldsPage() {
   const user = await requirePageUser();
   const readsAll = can(user, "fields:read-all");
   if (!readsAll && !can(user, "fields:write-own")) forbidden();
@@ -48,3 +49,5 @@ export default async function FieldsPage() {
     </div>
   );
 }
+
+export default withClientMessages(["csv", "errors", "fields", "harvest", "lot", "table", "varietyList"], FieldsPage);

@@ -5,12 +5,13 @@ import { listFields } from "@/server/ledger/fields";
 import { requirePageUser } from "@/server/accounts/page-guard";
 import { ImportWorkbench } from "./components";
 import { PageHeader } from "@/components/page-header";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("csv.import"))("title") };
 }
 
-export default async function ImportPage() {
+async function ImportPage() {
   const user = await requirePageUser();
   const kinds = importKindsFor(user);
   if (kinds.length === 0) forbidden();
@@ -47,3 +48,5 @@ export default async function ImportPage() {
     </div>
   );
 }
+
+export default withClientMessages(["csv"], ImportPage);

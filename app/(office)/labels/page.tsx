@@ -7,6 +7,7 @@ import { PrintButton } from "./components";
 import { BagLabel, SheetLabel } from "./label-faces";
 import { PageHeader } from "@/components/page-header";
 import { getQuantity } from "@/lib/get-quantity";
+import { withClientMessages } from "@/i18n/client-messages";
 
 type Props = { searchParams: Promise<Record<string, string | string[] | undefined>> };
 
@@ -20,7 +21,7 @@ export async function generateMetadata() {
 // header and footer.
 const printCss = (layout: LabelLayout) => `@page { size: ${PAGE_SIZE[layout]}; margin: 0; } @media print { html, body { background: #fff; } }`;
 
-export default async function LabelsPage({ searchParams }: Props) {
+async function LabelsPage({ searchParams }: Props) {
   const user = await requirePageUser();
   const query = await searchParams;
   const codes = parseLabelCodes(query.codes);
@@ -126,3 +127,5 @@ function BagCounts({ labels, t }: { labels: LabelView[]; t: Awaited<ReturnType<t
     </ul>
   );
 }
+
+export default withClientMessages(["labels"], LabelsPage);

@@ -9,6 +9,7 @@ import { listParties } from "@/server/ledger/parties";
 import { can } from "@/domain/permissions";
 import { LedgerLotsTable } from "./components";
 import { PageHeader } from "@/components/page-header";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("lotsPage"))("title") };
@@ -28,7 +29,7 @@ const searchSchema = z.object({
   page: z.coerce.number().int().min(1).max(100_000).default(1).catch(1),
 });
 
-export default async function LotsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+async function LotsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requirePageUser();
   const t = await getTranslations("lotsPage");
   const query = searchSchema.parse(await searchParams);
@@ -46,3 +47,5 @@ export default async function LotsPage({ searchParams }: { searchParams: Promise
     </div>
   );
 }
+
+export default withClientMessages(["floorScan", "lot", "lotsPage", "table"], LotsPage);

@@ -5,12 +5,13 @@ import { requirePagePermission } from "@/server/accounts/page-guard";
 import { LotsTable } from "@/components/lots-table";
 import { PolishingRunForm } from "./components";
 import { PageHeader } from "@/components/page-header";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("home"))("millTitle") };
 }
 
-export default async function MillPage() {
+async function MillPage() {
   const user = await requirePagePermission("polishing:record");
   const t = await getTranslations();
   // A miller sees their own mill's queue; the office sees every mill's.
@@ -27,3 +28,5 @@ export default async function MillPage() {
     </div>
   );
 }
+
+export default withClientMessages(["csv", "errors", "floorScan", "lot", "polishing", "table", "varietyList"], MillPage);

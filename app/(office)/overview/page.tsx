@@ -4,12 +4,13 @@ import { auditRecord, renderAudit } from "@/server/records/audit-record";
 import { overviewCounts } from "@/server/platform/overview";
 import { requirePagePermission } from "@/server/accounts/page-guard";
 import { PageHeader } from "@/components/page-header";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("home"))("overviewTitle") };
 }
 
-export default async function OverviewPage() {
+async function OverviewPage() {
   await requirePagePermission("users:manage");
   const t = await getTranslations("home");
   const all = await getTranslations();
@@ -32,3 +33,5 @@ export default async function OverviewPage() {
     </div>
   );
 }
+
+export default withClientMessages(["audit", "csv", "errors", "table"], OverviewPage);

@@ -9,12 +9,13 @@ import { findLot } from "@/server/ledger/lots";
 import { requirePagePermission } from "@/server/accounts/page-guard";
 import { provenanceFor } from "@/server/trace/provenance";
 import { PageHeader } from "@/components/page-header";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("home"))("provenanceTitle") };
 }
 
-export default async function ProvenancePage({ searchParams }: { searchParams: Promise<{ code?: string }> }) {
+async function ProvenancePage({ searchParams }: { searchParams: Promise<{ code?: string }> }) {
   const user = await requirePagePermission("provenance:read");
   const t = await getTranslations();
   const code = normaliseLotCode((await searchParams).code ?? "");
@@ -40,3 +41,5 @@ export default async function ProvenancePage({ searchParams }: { searchParams: P
     </div>
   );
 }
+
+export default withClientMessages(["floorScan"], ProvenancePage);

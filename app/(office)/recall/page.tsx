@@ -13,6 +13,7 @@ import { countByKind, type ReachedLot } from "./table-view";
 import { PageHeader } from "@/components/page-header";
 import { getQuantity } from "@/lib/get-quantity";
 import { CsvDownloadLinks } from "@/components/csv-download-links";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("recall"))("title") };
@@ -21,7 +22,7 @@ export async function generateMetadata() {
 type Search = { code?: string | string[]; page?: string | string[]; shipped?: string | string[] };
 const first = (value: string | string[] | undefined) => (Array.isArray(value) ? value[0] : value);
 
-export default async function RecallPage({ searchParams }: { searchParams: Promise<Search> }) {
+async function RecallPage({ searchParams }: { searchParams: Promise<Search> }) {
   const user = await requirePageUser();
   if (!canReadRecall(user)) forbidden();
   const t = await getTranslations();
@@ -97,3 +98,5 @@ export default async function RecallPage({ searchParams }: { searchParams: Promi
     </div>
   );
 }
+
+export default withClientMessages(["floorScan", "holds"], RecallPage);

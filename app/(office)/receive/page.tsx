@@ -6,12 +6,13 @@ import { listParties } from "@/server/ledger/parties";
 import { listOwnRequests } from "@/server/ledger/receipt-requests";
 import { ReceiveForm } from "./components";
 import { PageHeader } from "@/components/page-header";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("receive"))("title") };
 }
 
-export default async function ReceivePage() {
+async function ReceivePage() {
   const user = await requirePageUser();
   if (!can(user, "polishing:record") && !can(user, "brewing:record")) forbidden();
   const t = await getTranslations("receive");
@@ -40,3 +41,5 @@ export default async function ReceivePage() {
     </div>
   );
 }
+
+export default withClientMessages(["floorScan", "receive"], ReceivePage);

@@ -3,12 +3,13 @@ import { AuditTable } from "@/components/audit-table";
 import { auditRecord, renderAudit } from "@/server/records/audit-record";
 import { requirePagePermission } from "@/server/accounts/page-guard";
 import { PageHeader } from "@/components/page-header";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("home"))("recordsTitle") };
 }
 
-export default async function RecordsPage() {
+async function RecordsPage() {
   await requirePagePermission("audit:read");
   const t = await getTranslations();
   return (
@@ -19,3 +20,5 @@ export default async function RecordsPage() {
     </div>
   );
 }
+
+export default withClientMessages(["audit", "csv", "errors", "table"], RecordsPage);

@@ -6,12 +6,13 @@ import { listSupplierBalances } from "@/server/suppliers/supplier-ledger";
 import { readTaxRounding } from "@/server/suppliers/supplier-settings";
 import { RoundingForm, SuppliersTable } from "./components";
 import { PageHeader } from "@/components/page-header";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("suppliers"))("title") };
 }
 
-export default async function SuppliersPage() {
+async function SuppliersPage() {
   const user = await requirePageUser();
   if (!can(user, "ledger:read-all")) forbidden();
   const t = await getTranslations("suppliers");
@@ -28,3 +29,5 @@ export default async function SuppliersPage() {
     </div>
   );
 }
+
+export default withClientMessages(["csv", "errors", "suppliers", "table"], SuppliersPage);

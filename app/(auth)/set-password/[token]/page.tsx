@@ -2,12 +2,13 @@ import Link from "@/components/app-link";
 import { getTranslations } from "next-intl/server";
 import { findLinkHolder } from "@/server/accounts/users";
 import { SetPasswordForm } from "./components";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("auth"))("setTitle") };
 }
 
-export default async function SetPasswordPage({ params }: { params: Promise<{ token: string }> }) {
+async function SetPasswordPage({ params }: { params: Promise<{ token: string }> }) {
   const { token } = await params;
   const t = await getTranslations("auth");
   const holder = findLinkHolder(token);
@@ -28,3 +29,5 @@ export default async function SetPasswordPage({ params }: { params: Promise<{ to
     </>
   );
 }
+
+export default withClientMessages(["auth"], SetPasswordPage);

@@ -11,6 +11,7 @@ import { readSetting } from "@/server/platform/settings";
 import { freeTanks } from "@/server/floor/tank-register";
 import { FloorActionForm } from "./components";
 import { FloorLink } from "@/components/floor/floor-link";
+import { withClientMessages } from "@/i18n/client-messages";
 
 const CAUTIONS: Partial<Record<FloorAction, CautionKind>> = { steam: "steam", split: "steam", "koji-check": "koji", koji: "koji", add: "tank", measure: "tank", press: "tank" };
 
@@ -20,7 +21,7 @@ export async function generateMetadata({ params }: { params: Promise<{ action: s
   return { title: FLOOR_ACTIONS.includes(action as FloorAction) ? t(`${action}.title`) : "404" };
 }
 
-export default async function FloorActionPage({ params, searchParams }: { params: Promise<{ action: string }>; searchParams: Promise<{ lot?: string; queued?: string }> }) {
+async function FloorActionPage({ params, searchParams }: { params: Promise<{ action: string }>; searchParams: Promise<{ lot?: string; queued?: string }> }) {
   const user = await requirePagePermission("brewing:record");
   const { action } = await params;
   if (!FLOOR_ACTIONS.includes(action as FloorAction)) notFound();
@@ -50,3 +51,5 @@ export default async function FloorActionPage({ params, searchParams }: { params
     </div>
   );
 }
+
+export default withClientMessages(["floorForms", "floorScan", "lot", "validation"], FloorActionPage);

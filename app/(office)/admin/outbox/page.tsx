@@ -3,12 +3,13 @@ import { listOutbox } from "@/server/platform/mail";
 import { requirePagePermission } from "@/server/accounts/page-guard";
 import { OutboxTable } from "./components";
 import { PageHeader } from "@/components/page-header";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("outbox"))("title") };
 }
 
-export default async function OutboxPage() {
+async function OutboxPage() {
   await requirePagePermission("outbox:read");
   const t = await getTranslations("outbox");
   return (
@@ -18,3 +19,5 @@ export default async function OutboxPage() {
     </div>
   );
 }
+
+export default withClientMessages(["csv", "errors", "outbox", "table"], OutboxPage);

@@ -4,13 +4,14 @@ import { listParties } from "@/server/ledger/parties";
 import { requirePagePermission } from "@/server/accounts/page-guard";
 import { PartiesTable, PartyForm } from "./components";
 import { PageHeader } from "@/components/page-header";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("parties"))("title") };
 }
 
 /** The admin manages parties here; the auditor reads the same list with no form on it. */
-export default async function PartiesPage() {
+async function PartiesPage() {
   const user = await requirePagePermission("setup:read");
   const t = await getTranslations("parties");
   const rows = listParties().map(({ id, kind, name, region, email, namedPublicly }) => ({ id, kind, name, region, email, namedPublicly }));
@@ -27,3 +28,5 @@ export default async function PartiesPage() {
     </div>
   );
 }
+
+export default withClientMessages(["csv", "errors", "parties", "table"], PartiesPage);

@@ -3,13 +3,14 @@ import { PageHeader } from "@/components/page-header";
 import { requirePagePermission } from "@/server/accounts/page-guard";
 import { listProducts } from "@/server/ledger/products";
 import { ProductForm, ProductsTable } from "./components";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("products"))("title") };
 }
 
 /** The product register: what a bottling may name, with the category its label claims. */
-export default async function ProductsPage() {
+async function ProductsPage() {
   await requirePagePermission("settings:manage");
   const t = await getTranslations("products");
   return (
@@ -24,3 +25,5 @@ export default async function ProductsPage() {
     </div>
   );
 }
+
+export default withClientMessages(["csv", "errors", "products", "table"], ProductsPage);

@@ -8,12 +8,13 @@ import { can } from "@/domain/permissions";
 import { ReadOnlySettings } from "./settings-view";
 import { TankRegister, VarietyList } from "./registers";
 import { PageHeader } from "@/components/page-header";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("settingsPage"))("title") };
 }
 
-export default async function SettingsPage() {
+async function SettingsPage() {
   // The auditor reads the settings; only who may manage them gets the forms.
   const user = await requirePagePermission("setup:read");
   if (!can(user, "settings:manage")) return <ReadOnlySettings />;
@@ -40,3 +41,5 @@ export default async function SettingsPage() {
     </div>
   );
 }
+
+export default withClientMessages(["settingsPage", "tankRegister", "varietyList"], SettingsPage);

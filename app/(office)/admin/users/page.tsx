@@ -5,13 +5,14 @@ import { requirePagePermission } from "@/server/accounts/page-guard";
 import { listUsers } from "@/server/accounts/users";
 import { InviteForm, UsersTable } from "./components";
 import { PageHeader } from "@/components/page-header";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("users"))("title") };
 }
 
 /** The admin manages users here; the auditor reads the same table with no form on it. */
-export default async function UsersPage() {
+async function UsersPage() {
   const user = await requirePagePermission("setup:read");
   const manage = can(user, "users:manage");
   const t = await getTranslations("users");
@@ -31,3 +32,5 @@ export default async function UsersPage() {
     </div>
   );
 }
+
+export default withClientMessages(["csv", "errors", "parties", "roles", "table", "users"], UsersPage);

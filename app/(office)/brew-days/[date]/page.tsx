@@ -4,6 +4,7 @@ import { getFormatter, getTimeZone, getTranslations } from "next-intl/server";
 import { brewDaySummary, isCalendarDate, neighbourBrewDays } from "@/server/floor/brew-days";
 import { requirePagePermission } from "@/server/accounts/page-guard";
 import { AbsorptionChart, DrawnTable, GainChart, KojiChart, KojiTable, LaterTable, SoakTable, SplitTable, SteamTable } from "./components";
+import { withClientMessages } from "@/i18n/client-messages";
 
 type Params = { params: Promise<{ date: string }> };
 
@@ -11,7 +12,7 @@ export async function generateMetadata({ params }: Params) {
   return { title: (await getTranslations("brewDays"))("dayTitle", { date: (await params).date }) };
 }
 
-export default async function BrewDayPage({ params }: Params) {
+async function BrewDayPage({ params }: Params) {
   const user = await requirePagePermission("records:read-all");
   const { date } = await params;
   if (!isCalendarDate(date)) notFound();
@@ -80,3 +81,5 @@ function Section({ title, children }: { title: string; children: React.ReactNode
     </section>
   );
 }
+
+export default withClientMessages(["brewDays"], BrewDayPage);

@@ -20,12 +20,13 @@ import { ShipmentForm } from "./shipment-form";
 import { lotHoldState } from "@/server/trace/holds";
 import { listParties } from "@/server/ledger/parties";
 import { can, canActOnLot, canHoldLots } from "@/domain/permissions";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata({ params }: { params: Promise<{ code: string }> }) {
   return { title: normaliseLotCode((await params).code) };
 }
 
-export default async function LotPage({ params }: { params: Promise<{ code: string }> }) {
+async function LotPage({ params }: { params: Promise<{ code: string }> }) {
   const user = await requirePageUser();
   const code = normaliseLotCode(decodeURIComponent((await params).code));
   const lot = findLot(user, code);
@@ -117,3 +118,5 @@ async function PolishingFigures({ attributes, format }: { attributes: Record<str
     </dl>
   );
 }
+
+export default withClientMessages(["attachments", "holds", "lotPage", "shipments", "steps"], LotPage);

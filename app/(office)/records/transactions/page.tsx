@@ -10,6 +10,7 @@ import { listTransactionRecords, parseDateRange, type TransactionRecord } from "
 import { TransactionsTable } from "./components";
 import { PageHeader } from "@/components/page-header";
 import { CsvDownloadLinks } from "@/components/csv-download-links";
+import { withClientMessages } from "@/i18n/client-messages";
 
 export async function generateMetadata() {
   return { title: (await getTranslations("csv.records"))("title") };
@@ -18,7 +19,7 @@ export async function generateMetadata() {
 type Search = Promise<Record<string, string | string[] | undefined>>;
 const one = (v: string | string[] | undefined) => (Array.isArray(v) ? v[0] : v);
 
-export default async function TransactionsPage({ searchParams }: { searchParams: Search }) {
+async function TransactionsPage({ searchParams }: { searchParams: Search }) {
   const user = await requirePageUser();
   const t = await getTranslations("csv.records");
   const query = await searchParams;
@@ -51,3 +52,5 @@ export default async function TransactionsPage({ searchParams }: { searchParams:
     </div>
   );
 }
+
+export default withClientMessages(["csv", "errors", "table"], TransactionsPage);

@@ -23,11 +23,12 @@ import { accountListHref, type AccountListView } from "@/components/supplier-lis
 import { isUnpriced } from "@/components/supplier-lists/deliveries-view";
 import { RunsPagedTable } from "@/components/supplier-lists/runs-table";
 import { isUnpricedRun } from "@/components/supplier-lists/runs-view";
+import { withClientMessages } from "@/i18n/client-messages";
 
 type Search = { page?: string | string[]; unpriced?: string | string[] };
 const first = (value: string | string[] | undefined) => (Array.isArray(value) ? value[0] : value);
 
-export default async function SupplierPage({ params, searchParams }: { params: Promise<{ partyId: string }>; searchParams: Promise<Search> }) {
+async function SupplierPage({ params, searchParams }: { params: Promise<{ partyId: string }>; searchParams: Promise<Search> }) {
   const user = await requirePageUser();
   if (!can(user, "ledger:read-all")) forbidden();
   const { partyId } = await params;
@@ -130,3 +131,5 @@ export default async function SupplierPage({ params, searchParams }: { params: P
     </div>
   );
 }
+
+export default withClientMessages(["csv", "errors", "lot", "suppliers", "table"], SupplierPage);

@@ -5,8 +5,9 @@ import { can } from "@/domain/permissions";
 import { getParty } from "@/server/ledger/parties";
 import { requirePagePermission } from "@/server/accounts/page-guard";
 import { PartyForm } from "../components";
+import { withClientMessages } from "@/i18n/client-messages";
 
-export default async function PartyPage({ params }: { params: Promise<{ id: string }> }) {
+async function PartyPage({ params }: { params: Promise<{ id: string }> }) {
   const user = await requirePagePermission("setup:read");
   const { id } = await params;
   const party = getParty(id);
@@ -34,3 +35,5 @@ export default async function PartyPage({ params }: { params: Promise<{ id: stri
     </div>
   );
 }
+
+export default withClientMessages(["csv", "errors", "parties", "table"], PartyPage);

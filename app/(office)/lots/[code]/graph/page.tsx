@@ -11,6 +11,7 @@ import { findLotId } from "@/server/ledger/lots";
 import { requirePageUser } from "@/server/accounts/page-guard";
 import { LineageList } from "./lineage-list";
 import { lineageListView } from "./list-view";
+import { withClientMessages } from "@/i18n/client-messages";
 
 type Search = { page?: string | string[]; list?: string | string[] };
 
@@ -19,7 +20,7 @@ export async function generateMetadata({ params }: { params: Promise<{ code: str
   return { title: t("metaTitle", { code: normaliseLotCode(decodeURIComponent((await params).code)) }) };
 }
 
-export default async function LotGraphPage({ params, searchParams }: { params: Promise<{ code: string }>; searchParams: Promise<Search> }) {
+async function LotGraphPage({ params, searchParams }: { params: Promise<{ code: string }>; searchParams: Promise<Search> }) {
   const user = await requirePageUser();
   const code = normaliseLotCode(decodeURIComponent((await params).code));
   if (findLotId(user, code) === null) notFound();
@@ -45,3 +46,4 @@ export default async function LotGraphPage({ params, searchParams }: { params: P
   );
 }
 
+export default withClientMessages(["graph", "lot"], LotGraphPage);
