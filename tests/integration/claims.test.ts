@@ -1,6 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { GET as claimsRoute } from "../../app/api/claims/[code]/route";
 import { getSqlite } from "@/server/platform/db";
+import { ancestryOf } from "@/server/trace/ancestry";
+import { claimedCategories } from "@/server/trace/claims";
 import { call, jsonRequest, signInAs } from "../support/api";
 
 // The seeded 2024–25 season: Tank 1 of 50 % rice by the ginjo method, Tank 2 of 60 % rice by
@@ -59,5 +61,21 @@ describe("premium-category claims from the lineage", () => {
     const { status, body } = await claims("P26-0001");
     expect(status).toBe(422);
     expect(body.error.fields.code).toBeDefined();
+  });
+
+  // The provenance card names only the categories earned (claimedCategories, no reasons worded):
+  // the same categories and koji share the API's worded answer gives, for every claimable lot.
+  it("the provenance card's categories are the worded claims' eligible ones, lot by lot", async () => {
+    const lots = getSqlite().prepare("select id, code from lots where kind in ('tank', 'sake', 'blend', 'bottled') order by id").all() as { id: number; code: string }[];
+    expect(lots.length).toBeGreaterThan(5);
+    let earning = 0;
+    for (const lot of lots) {
+      const { body } = await claims(lot.code);
+      const card = claimedCategories(lot.id, ancestryOf(lot.id));
+      expect(card.eligible, lot.code).toEqual(eligible(body));
+      expect(card.kojiRatioPct, lot.code).toBe(body.kojiRatioPct);
+      if (card.eligible.length) earning++;
+    }
+    expect(earning).toBeGreaterThan(0);
   });
 });

@@ -122,7 +122,7 @@ describe("the provenance sheet in Japanese", () => {
   });
 
   it("prints a bottling at 07:30 in Tokyo on that Tokyo day, not the UTC day before", async () => {
-    const answer = provenanceFor(sales, bottled(), (key) => key);
+    const answer = provenanceFor(sales, bottled());
     // 22:30 UTC on 2 October is 07:30 on 3 October in Tokyo (JST is UTC+9 with no DST, IANA tz database).
     const bytes = await provenanceSheetPdf({ ...answer, bottledOn: ["2026-10-02T22:30:00.000Z"] }, "Kirinoha Brewery", { t: (k, v) => ja(k as never, v as never), locale: "ja", timeZone: "Asia/Tokyo" });
     const text = await readPdfText(bytes);

@@ -5,7 +5,6 @@ import { provenanceFor, publicProvenance } from "@/server/trace/provenance";
 import { call, jsonRequest, signInAs } from "../support/api";
 import { readPdfText } from "../support/pdf-read";
 
-const t = (key: string) => key;
 const sales = { id: "user-sales", role: "sales" as const, partyId: "brewery-kirinoha", email: "", name: "" };
 const code = (sql: string) => (getSqlite().prepare(sql).get() as { code: string }).code;
 
@@ -15,7 +14,7 @@ const code = (sql: string) => (getSqlite().prepare(sql).get() as { code: string 
 describe("provenance answer", () => {
   it("names varieties, origins by weight, and only growers who agreed to be named", () => {
     const bottled = code("select code from lots where kind = 'bottled' and json_extract(attributes, '$.gtin') = '9506000134376'");
-    const p = provenanceFor(sales, bottled, t);
+    const p = provenanceFor(sales, bottled);
     expect(p.varieties.map((v) => v.name)).toEqual(["Omachi", "Yamada Nishiki"]);
     expect(p.varieties[0]!.share).toBeCloseTo(1800 / 2300, 9);
     expect(p.originStatement).toBe("Hyogo, Okayama");
@@ -33,10 +32,10 @@ describe("provenance answer", () => {
 
   it("answers the public page only for a bottling whose GTIN matches", () => {
     const bottled = code("select code from lots where kind = 'bottled' and json_extract(attributes, '$.gtin') = '9506000134352' order by id limit 1");
-    const found = publicProvenance("09506000134352", bottled, t);
+    const found = publicProvenance("09506000134352", bottled);
     expect(found.provenance.categories).toContain("junmai daiginjo");
-    expect(() => publicProvenance("09506000134369", bottled, t)).toThrow(/not found/);
-    expect(() => publicProvenance("09506000134352", "P26-0001", t)).toThrow(/not found/);
+    expect(() => publicProvenance("09506000134369", bottled)).toThrow(/not found/);
+    expect(() => publicProvenance("09506000134352", "P26-0001")).toThrow(/not found/);
   });
 
   it("downloads a provenance sheet as PDF for sales; a grower may not", async () => {

@@ -4,7 +4,6 @@ import { LotCardView } from "@/components/lot-card-view";
 import { LotLookupForm } from "@/components/lot-lookup-form";
 import { ProvenanceCard } from "@/components/provenance-card";
 import { normaliseLotCode } from "@/domain/lot-code";
-import { actionTranslator } from "@/server/platform/action";
 import { findLot } from "@/server/ledger/lots";
 import { requirePagePermission } from "@/server/accounts/page-guard";
 import { provenanceFor } from "@/server/trace/provenance";
@@ -20,7 +19,7 @@ async function ProvenancePage({ searchParams }: { searchParams: Promise<{ code?:
   const t = await getTranslations();
   const code = normaliseLotCode((await searchParams).code ?? "");
   const lot = code ? findLot(user, code) : null;
-  const answer = lot ? provenanceFor(user, code, await actionTranslator()) : null;
+  const answer = lot ? provenanceFor(user, code) : null;
   return (
     <div className="max-w-3xl space-y-6">
       <PageHeader title={t("home.provenanceTitle")} intro={t("home.provenanceIntro")} />

@@ -21,22 +21,43 @@ export function claimsFor(actor: SessionUser, code: string, t: Translate) {
 /** The same, for a lot already found (the public bottle page has no signed-in actor). */
 export function claimsForLot(lot: { id: number; code: string; kind: string }, t: Translate, ancestry?: Ancestry) {
   if (!CLAIMABLE.includes(lot.kind)) throw invalid({ code: [t("validation.notClaimable")] }, "errors.notClaimable");
-  const behind = ancestry ?? ancestryOf(lot.id);
-  const tankLots = lotsOfKindUp(behind, lot.id, "tank");
-  const factsOf = tankFactsOf(tankLots, behind);
-  const tanks = tankLots.map((tank) => ({ code: tank.code, facts: factsOf.get(tank.id)! }));
-  const verdicts = tanks.map((x) => assessCategories(x.facts));
+  const { tanks, verdicts, figures } = judgeLot(lot.id, ancestry ?? ancestryOf(lot.id));
   // A grade travels as its code (out-of-grade); the reader sees the grade's name.
   const word = (r: Reason) => t(`claims.reasons.${r.key}`, r.values && "grade" in r.values ? { ...r.values, grade: t(`lot.grades.${String(r.values.grade)}`) } : r.values);
   const categories = (verdicts[0] ?? assessCategories(emptyFacts)).map((v, n) => {
     const reasons = [...new Set(verdicts.flatMap((per, i) => per[n]!.reasons.map((r) => (tanks.length > 1 ? t("claims.ofTank", { tank: tanks[i]!.code, reason: word(r) }) : word(r)))))];
     return { name: v.name, eligible: verdicts.length > 0 && reasons.length === 0, reasons: verdicts.length ? reasons : [t("claims.reasons.noTank")] };
   });
+  return {
+    lot: { code: lot.code, kind: lot.kind },
+    ...figures,
+    tanks: tanks.map((x) => ({ code: x.code, ...x.facts })),
+    categories,
+    caution: t("caution.labelling"),
+  };
+}
+
+/**
+ * The categories every tank behind a lot earns and the figures they were judged on, without the
+ * reasons worded: what the provenance card needs (it names only the categories earned). Wording
+ * every reason of every tank in the reader's language was most of the bottle page's time.
+ */
+export function claimedCategories(lotId: number, ancestry: Ancestry) {
+  const { verdicts, figures } = judgeLot(lotId, ancestry);
+  const names = (verdicts[0] ?? []).map((v) => v.name);
+  return { kojiRatioPct: figures.kojiRatioPct, eligible: names.filter((_, n) => verdicts.length > 0 && verdicts.every((per) => per[n]!.reasons.length === 0)) };
+}
+export type ClaimedCategories = ReturnType<typeof claimedCategories>;
+
+function judgeLot(lotId: number, behind: Ancestry) {
+  const tankLots = lotsOfKindUp(behind, lotId, "tank");
+  const factsOf = tankFactsOf(tankLots, behind);
+  const tanks = tankLots.map((tank) => ({ code: tank.code, facts: factsOf.get(tank.id)! }));
+  const verdicts = tanks.map((x) => assessCategories(x.facts));
   const facts = tanks.map((x) => x.facts);
   // Two at a time: handed to reduce directly, Math.min would also weigh the index and the array.
   const worst = <T,>(values: T[], pick: (a: T, b: T) => T) => (values.length ? values.reduce((a, b) => pick(a, b)) : null);
-  return {
-    lot: { code: lot.code, kind: lot.kind },
+  const figures = {
     polishingRatioPct: worst(facts.map((f) => f.polishingRatioPct).filter((v): v is number => v !== null), Math.max),
     kojiRatioPct: worst(facts.map((f) => f.kojiRatioPct).filter((v): v is number => v !== null), Math.min),
     lowestGrade: lowestGrade(facts.map((f) => f.lowestGrade).filter((g): g is Grade => g !== null)),
@@ -44,10 +65,8 @@ export function claimsForLot(lot: { id: number; code: string; kind: string }, t:
     // Extension: the same converted to 95 % alcohol, the weight the 10 % limit is judged on.
     addedAlcohol95Kg: facts.reduce((a, f) => a + f.addedAlcohol95Kg, 0),
     ginjoMethod: facts.length > 0 && facts.every((f) => f.ginjoMethod),
-    tanks: tanks.map((x) => ({ code: x.code, ...x.facts })),
-    categories,
-    caution: t("caution.labelling"),
   };
+  return { tanks, verdicts, figures };
 }
 
 const emptyFacts: CategoryFacts = { polishingRatioPct: null, kojiRatioPct: null, lowestGrade: null, addedAlcoholKg: 0, addedAlcohol95Kg: 0, polishedRiceKg: 0, ginjoMethod: false };

@@ -1,9 +1,8 @@
 import "server-only";
 import { sql } from "drizzle-orm";
 import { originsByWeight, originStatement, sharesBy } from "@/domain/origin";
-import type { Translate } from "@/lib/validation/field-errors";
 import { ancestryOf, lotsOfKindUp, lotsUpThrough, type Ancestry } from "./ancestry";
-import { claimsForLot } from "./claims";
+import { claimedCategories, type ClaimedCategories } from "./claims";
 import { getDb } from "../platform/db";
 import { notFound } from "../platform/errors";
 import { productOfLot } from "../ledger/products";
@@ -52,7 +51,7 @@ function namedGrowers(lotId: number, contentIn: number) {
 }
 
 /** The provenance answer for any lot: what sales tell a buyer, built from the lineage. */
-export function provenanceOf(head: Head, t: Translate, claims: ReturnType<typeof claimsForLot> | null, ancestry: Ancestry = ancestryOf(head.id)) {
+export function provenanceOf(head: Head, claims: ClaimedCategories | null, ancestry: Ancestry = ancestryOf(head.id)) {
   const { sources, growers } = namedGrowers(head.id, head.contentIn);
   const ratios = [...new Set(lotsOfKindUp(ancestry, head.id, "polished").map((p) => p.polishingRatioPct).filter((r): r is number => r !== null))];
   return {
@@ -64,19 +63,19 @@ export function provenanceOf(head: Head, t: Translate, claims: ReturnType<typeof
     growers,
     polishingRatiosPct: ratios.sort((a, b) => a - b),
     kojiRatioPct: claims?.kojiRatioPct ?? null,
-    categories: claims ? claims.categories.filter((c) => c.eligible).map((c) => c.name) : [],
-    product: productOfLot(head.id, claims ? claims.categories.filter((c) => c.eligible).map((c) => c.name) : null),
+    categories: claims?.eligible ?? [],
+    product: productOfLot(head.id, claims?.eligible ?? null),
     ...keyDates(head.id, ancestry),
     shares: sources.length,
   };
 }
 export type Provenance = ReturnType<typeof provenanceOf>;
 
-export function provenanceFor(actor: SessionUser, code: string, t: Translate): Provenance {
+export function provenanceFor(actor: SessionUser, code: string): Provenance {
   const head = traceHead(actor, code);
   // The claims and the card read the same lineage: it is walked once.
   const ancestry = ancestryOf(head.id);
-  return provenanceOf(head, t, CLAIMABLE.includes(head.kind) ? claimsForLot(head, t, ancestry) : null, ancestry);
+  return provenanceOf(head, CLAIMABLE.includes(head.kind) ? claimedCategories(head.id, ancestry) : null, ancestry);
 }
 
 /**
@@ -91,8 +90,8 @@ export function findBottling(gtin14: string, lotCode: string) {
   return row;
 }
 
-export function publicProvenance(gtin14: string, lotCode: string, t: Translate) {
+export function publicProvenance(gtin14: string, lotCode: string) {
   const bottling = findBottling(gtin14, lotCode);
   const ancestry = ancestryOf(bottling.id);
-  return { bottling, provenance: provenanceOf(bottling, t, claimsForLot(bottling, t, ancestry), ancestry) };
+  return { bottling, provenance: provenanceOf(bottling, claimedCategories(bottling.id, ancestry), ancestry) };
 }

@@ -12,7 +12,7 @@ export const GET = handle(async (request, { params }) => {
   const code = normaliseLotCode(params.code ?? "");
   const locale = documentLocale(request, actor);
   const t = documentTranslator(locale);
-  const answer = provenanceFor(actor, code, t);
+  const answer = provenanceFor(actor, code);
   const bytes = await provenanceSheetPdf(answer, getParty(actor.partyId)?.name ?? "", { t, locale, timeZone: breweryTimeZone() });
   return new Response(Buffer.from(bytes), {
     headers: { "content-type": "application/pdf", "content-disposition": `attachment; filename="grainline-provenance-${answer.lot.code}.pdf"`, "cache-control": "private" },

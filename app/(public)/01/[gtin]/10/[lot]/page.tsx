@@ -3,7 +3,6 @@ import { getTranslations } from "next-intl/server";
 import { ProvenanceCard } from "@/components/provenance-card";
 import { LanguageSwitch } from "@/components/language-switch";
 import { AppError } from "@/server/platform/errors";
-import { actionTranslator } from "@/server/platform/action";
 import { getDb } from "@/server/platform/db";
 import { listParties } from "@/server/ledger/parties";
 import { publicProvenance } from "@/server/trace/provenance";
@@ -12,10 +11,10 @@ import { setLanguageAction } from "../../../../../(auth)/language/actions";
 
 type Params = { gtin: string; lot: string };
 
-function load({ gtin, lot }: Params, t: Awaited<ReturnType<typeof actionTranslator>>) {
+function load({ gtin, lot }: Params) {
   if (!/^\d{8,14}$/.test(gtin)) return null;
   try {
-    return publicProvenance(gtin.padStart(14, "0"), decodeURIComponent(lot).toUpperCase(), t);
+    return publicProvenance(gtin.padStart(14, "0"), decodeURIComponent(lot).toUpperCase());
   } catch (error) {
     if (error instanceof AppError && error.code === "not_found") return null;
     throw error;
@@ -30,7 +29,7 @@ export async function generateMetadata({ params }: { params: Promise<Params> }) 
 /** The bottle's page (GS1 Digital Link /01/{gtin}/10/{lot}): only what the brewery made public. */
 export default async function BottlePage({ params }: { params: Promise<Params> }) {
   const p = await params;
-  const found = load(p, await actionTranslator());
+  const found = load(p);
   if (!found) notFound();
   const t = await getTranslations("provenance");
   const show = readSetting(getDb(), "publicProvenance");
