@@ -4,7 +4,7 @@
 // filter, every row, and the CSV tanstack's table wrote from the same column accessors.
 import { beforeAll, describe, expect, it } from "vitest";
 import { getSqlite } from "@/server/platform/db";
-import { runsOf, type Run } from "@/server/suppliers/supplier-portal";
+import { runKeysOf, runsOf, runsWithIds, type Run } from "@/server/suppliers/supplier-portal";
 import { ACCOUNT_LIST_PAGE_SIZE, accountListHref } from "@/components/supplier-lists/account-list-view";
 import { isUnpricedRun, pageOfRuns, runsCsvRows } from "@/components/supplier-lists/runs-view";
 import { oldRunColumns, oldTableCsv } from "./old-table-csv";
@@ -60,6 +60,27 @@ describe("the supplier account's polishing runs table", () => {
     expect(runsCsvRows(runs, "reversed")).toEqual(oldCsv(runs).rows);
     const unpriced = runs.filter(isUnpricedRun);
     expect(runsCsvRows(pageOfRuns(runs, { partyId: "m", page: 2, unpricedOnly: true }).shown, "reversed")).toEqual(oldCsv(unpriced).rows);
+  });
+
+  // A page places every run by its key (runKeysOf) and reads only its own runs in full.
+  it("places each mill's runs by their keys as the full read orders them, and reads a page's runs in full alike", () => {
+    const mills = (getSqlite().prepare("select id from parties where kind = 'mill' order by id").all() as { id: string }[]).map((m) => m.id);
+    let seen = 0;
+    for (const mill of mills) {
+      const full = runsOf(mill);
+      const keys = runKeysOf(mill);
+      expect(keys).toEqual(full.map(({ eventId, feeYen, reversed }) => ({ eventId, feeYen, reversed })));
+      for (const unpricedOnly of [false, true]) {
+        const page = pageOfRuns(keys, { partyId: mill, page: 1, unpricedOnly });
+        expect(runsWithIds(page.rows)).toEqual(pageOfRuns(full, { partyId: mill, page: 1, unpricedOnly }).rows);
+      }
+      seen += full.length;
+    }
+    expect(seen).toBeGreaterThan(0);
+    expect(runsWithIds([])).toEqual([]);
+    // A key that names no polishing run is never read as one (a receipt's event id, say).
+    const receipt = getSqlite().prepare("select id from events where step = 'receiving' limit 1").get() as { id: number };
+    expect(runsWithIds([{ eventId: receipt.id, feeYen: null, reversed: false }])).toEqual([]);
   });
 
   it("keeps the view in the address, in the same section as a grower's deliveries", () => {

@@ -1,12 +1,12 @@
 /** The supplier account's table of a mill's polishing runs: what a page of it shows, and its CSV. */
 
-import type { Run } from "@/server/suppliers/supplier-portal";
+import type { Run, RunKey } from "@/server/suppliers/supplier-portal";
 import { pageOfAccountList, type AccountListView } from "./account-list-view";
 
 /** A run recorded while no contract set its fee (a reversed run earns nothing either way). */
-export const isUnpricedRun = (r: Run) => r.feeYen === null && !r.reversed;
+export const isUnpricedRun = (r: RunKey) => r.feeYen === null && !r.reversed;
 
-export const pageOfRuns = (runs: Run[], view: AccountListView) => pageOfAccountList(runs, view, isUnpricedRun);
+export const pageOfRuns = <T extends RunKey>(runs: T[], view: AccountListView) => pageOfAccountList(runs, view, isUnpricedRun);
 
 /** The table's columns, in order, as keys of the catalogue's `suppliers.columns`: its CSV cells below follow them. */
 export const RUN_COLUMNS = ["date", "polished", "brownKg", "target", "achieved", "fee", "status"] as const;

@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, eq, inArray, sql } from "drizzle-orm";
+import { and, asc, eq, inArray, sql, type SQL } from "drizzle-orm";
 import { lots, parties } from "@/db/schema";
 import { can } from "@/domain/permissions";
 import { getDb } from "../platform/db";
@@ -36,20 +36,51 @@ export function deliveriesOf(growerId: string): Delivery[] {
 
 export type Run = { eventId: number; at: Date; polished: string | null; brownKg: number; polishedKg: number; targetPct: number | null; achievedPct: number | null; feeYen: number | null; reversed: boolean };
 
-/** A mill's polishing runs with the fee each one earned (null: no contract fee). */
-export function runsOf(millId: string): Run[] {
+/** A run's fee (null: no contract fee) and whether it was reversed: all a run's place in the list needs. */
+const RUN_FEE = sql`(select s.amount_yen from supplier_entries s where s.event_id = e.id and s.kind = 'polishing-fee')`;
+const RUN_REVERSED = sql`exists(select 1 from events c where c.corrects = e.id)`;
+
+function runRows(where: SQL): Run[] {
   return getDb()
     .all<Omit<Run, "at" | "reversed"> & { at: number; reversed: number }>(sql`
       select e.id as eventId, e.at,
         (select l.code from event_outputs o join lots l on l.id = o.lot_id where o.event_id = e.id and l.kind = 'polished') as polished,
         json_extract(e.attributes, '$.brownKg') as brownKg, json_extract(e.attributes, '$.polishedKg') as polishedKg,
         json_extract(e.attributes, '$.targetPolishingRatioPct') as targetPct, json_extract(e.attributes, '$.achievedPolishingRatioPct') as achievedPct,
-        (select s.amount_yen from supplier_entries s where s.event_id = e.id and s.kind = 'polishing-fee') as feeYen,
-        exists(select 1 from events c where c.corrects = e.id) as reversed
+        ${RUN_FEE} as feeYen, ${RUN_REVERSED} as reversed
+      from events e
+      where ${where}
+      order by e.at desc, e.id desc`)
+    .map((r) => ({ ...r, at: new Date(r.at), reversed: Boolean(r.reversed) }));
+}
+
+/** A mill's polishing runs with the fee each one earned (null: no contract fee), newest first. */
+export function runsOf(millId: string): Run[] {
+  return runRows(sql`e.step = 'polishing' and e.party_id = ${millId}`);
+}
+
+export type RunKey = Pick<Run, "eventId" | "feeYen" | "reversed">;
+
+/**
+ * The same runs, in the same order, with only what places them in the list: a page of the
+ * account then reads its 25 runs in full (`runsWithIds`) instead of all of a mill's (1,535 at
+ * the bench's mill; most of that read was the runs' figures, pulled out of each run's JSON).
+ */
+export function runKeysOf(millId: string): RunKey[] {
+  return getDb()
+    .all<{ eventId: number; feeYen: number | null; reversed: number }>(sql`
+      select e.id as eventId, ${RUN_FEE} as feeYen, ${RUN_REVERSED} as reversed
       from events e
       where e.step = 'polishing' and e.party_id = ${millId}
       order by e.at desc, e.id desc`)
-    .map((r) => ({ ...r, at: new Date(r.at), reversed: Boolean(r.reversed) }));
+    .map((r) => ({ ...r, reversed: Boolean(r.reversed) }));
+}
+
+/** Runs in full, in the order of `keys` (a page of `runKeysOf`); a key that names no polishing run gives nothing. */
+export function runsWithIds(keys: readonly RunKey[]): Run[] {
+  if (!keys.length) return [];
+  const byId = new Map(runRows(sql`e.step = 'polishing' and e.id in (select value from json_each(${JSON.stringify(keys.map((k) => k.eventId))}))`).map((r) => [r.eventId, r]));
+  return keys.flatMap((k) => byId.get(k.eventId) ?? []);
 }
 
 export type Receipt = { eventId: number; at: Date; code: string; kind: string; variety: string | null; grade: string | null; quantity: number; unit: string; from: string | null; slip: string; reversed: boolean };
@@ -120,7 +151,7 @@ export function millPortal(actor: SessionUser) {
   return {
     party: { id: party.id, name: party.name, invoiceNumber: party.invoiceNumber },
     receipts: receiptsAt(party.id),
-    runs: runsOf(party.id),
+    runs: runKeysOf(party.id),
     ledger: ledgerOf(getDb(), party.id),
     statements: listStatements(party.id),
   };

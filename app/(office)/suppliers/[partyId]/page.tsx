@@ -12,7 +12,7 @@ import { currentMillContract, listContracts } from "@/server/suppliers/supplier-
 import { accountRows } from "@/server/suppliers/supplier-describe";
 import { ledgerOf } from "@/server/suppliers/supplier-ledger";
 import { paymentLines } from "@/server/suppliers/supplier-payments";
-import { deliveriesOf, runsOf } from "@/server/suppliers/supplier-portal";
+import { deliveriesOf, runKeysOf } from "@/server/suppliers/supplier-portal";
 import { listStatements } from "@/server/suppliers/supplier-statements";
 import { getParty } from "@/server/ledger/parties";
 import { ContractsTable, GrowerContractForm, MillContractForm } from "./contract-forms";
@@ -39,7 +39,7 @@ async function SupplierPage({ params, searchParams }: { params: Promise<{ partyI
   const manage = can(user, "ledger:manage");
   const ledger = ledgerOf(getDb(), partyId);
   const deliveries = party.kind === "grower" ? deliveriesOf(partyId) : [];
-  const runs = party.kind === "mill" ? runsOf(partyId) : [];
+  const runs = party.kind === "mill" ? runKeysOf(partyId) : [];
   const search = await searchParams;
   const view: AccountListView = { partyId, page: Number(first(search.page)) || 1, unpricedOnly: first(search.unpriced) === "1" };
   // A grower's deliveries or a mill's runs: either list is empty for the other kind.
