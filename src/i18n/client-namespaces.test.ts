@@ -81,7 +81,8 @@ import { Row } from "./row";
 export function Form({ ok, step }: { ok: boolean; step: string }) {
   const t = useTranslations() as unknown as (key: string) => string;
   const sizes = useTranslations("labels.sizes");
-  return <p>{t(ok ? "lotPage.saved" : "errors.unknown")}{t(\`steps.\${step}\`)}{sizes("small")}{quantityText(t as never, "en", 1, "kg")}<Row /></p>;
+  // The map's own "t" is a tank, not the translator: its "t.code" reads nothing.
+  return <p>{t(ok ? "lotPage.saved" : "errors.unknown")}{t(\`steps.\${step}\`)}{sizes("small")}{quantityText(t as never, "en", 1, "kg")}{[{ code: "T1" }].map((t) => t.code)}<Row /></p>;
 }
 `);
   write("row.tsx", `import { useTranslations } from "next-intl";

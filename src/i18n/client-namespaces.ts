@@ -34,21 +34,28 @@ function resolveImport(from: string, spec: string): string | null {
   return null;
 }
 
-/** The first dotted segment of a key written in the source, or null when the key is not written out. */
-function namespaceOfKey(node: ts.Expression): string[] | null {
-  if (ts.isStringLiteral(node) || ts.isNoSubstitutionTemplateLiteral(node)) return [node.text.split(".")[0]!];
-  if (ts.isTemplateExpression(node) && node.head.text.includes(".")) return [node.head.text.split(".")[0]!];
+/**
+ * The namespace a key written in the source reads, under the translator's own namespace ("" for
+ * a root translator): a template key counts up to its last whole segment before the first
+ * `${…}`. Empty when nothing of it is written out.
+ */
+function namespacesOfKey(namespace: string, node: ts.Expression): string[] | null {
+  const within = (written: string[]) => [...(namespace ? namespace.split(".") : []), ...written][0] ?? "";
+  if (ts.isStringLiteral(node) || ts.isNoSubstitutionTemplateLiteral(node)) return [within(node.text.split("."))];
+  if (ts.isTemplateExpression(node)) return [within(node.head.text.split(".").slice(0, -1))];
   if (ts.isConditionalExpression(node)) {
-    const a = namespaceOfKey(node.whenTrue);
-    const b = namespaceOfKey(node.whenFalse);
+    const a = namespacesOfKey(namespace, node.whenTrue);
+    const b = namespacesOfKey(namespace, node.whenFalse);
     return a && b ? [...a, ...b] : null;
   }
-  if (ts.isParenthesizedExpression(node)) return namespaceOfKey(node.expression);
+  if (ts.isParenthesizedExpression(node)) return namespacesOfKey(namespace, node.expression);
   return null;
 }
 
 const unwrap = (node: ts.Expression): ts.Expression =>
   ts.isAsExpression(node) || ts.isParenthesizedExpression(node) || ts.isAwaitExpression(node) || ts.isNonNullExpression(node) ? unwrap(node.expression) : node;
+
+const topOf = (namespace: string) => namespace.split(".")[0]!;
 
 const isCallOf = (node: ts.Node, name: string): node is ts.CallExpression =>
   ts.isCallExpression(node) && ts.isIdentifier(node.expression) && node.expression.text === name;
@@ -63,7 +70,8 @@ function readFacts(file: string): FileFacts {
   const namespaces = new Set<string>();
   const problems: string[] = [];
   const where = (node: ts.Node) => `${path.relative(ROOT, file)}:${source.getLineAndCharacterOfPosition(node.getStart()).line + 1}`;
-  const rootTranslators = new Set<string>();
+  // Each translator by its declaration: `const t = useTranslations("suppliers")` → "suppliers" ("" for the root).
+  const translators = new Map<ts.Declaration, string>();
 
   const visit = (node: ts.Node) => {
     if (ts.isImportDeclaration(node) && !node.importClause?.isTypeOnly && ts.isStringLiteral(node.moduleSpecifier)) {
@@ -77,12 +85,12 @@ function readFacts(file: string): FileFacts {
       if (target) imports.push(target);
     } else if (isCallOf(node, "useTranslations")) {
       const [arg] = node.arguments;
-      if (!arg) {
-        const declaration = node.parent && ts.isVariableDeclaration(findDeclaration(node)) ? (findDeclaration(node) as ts.VariableDeclaration) : null;
-        if (declaration && ts.isIdentifier(declaration.name)) rootTranslators.add(declaration.name.text);
-        else problems.push(`${where(node)}: useTranslations() whose translator is not kept in a named constant`);
-      } else if (ts.isStringLiteral(arg) || ts.isNoSubstitutionTemplateLiteral(arg)) namespaces.add(arg.text.split(".")[0]!);
-      else problems.push(`${where(node)}: useTranslations with a namespace not written out`);
+      const namespace = !arg ? "" : ts.isStringLiteral(arg) || ts.isNoSubstitutionTemplateLiteral(arg) ? arg.text : null;
+      const declaration = findDeclaration(node);
+      if (namespace === null) problems.push(`${where(node)}: useTranslations with a namespace not written out`);
+      else if (ts.isVariableDeclaration(declaration) && ts.isIdentifier(declaration.name)) translators.set(declaration, namespace);
+      else if (namespace) namespaces.add(topOf(namespace));
+      else problems.push(`${where(node)}: useTranslations() whose translator is not kept in a named constant`);
     } else if (isCallOf(node, "useMessages")) {
       problems.push(`${where(node)}: useMessages reads the whole catalogue`);
     }
@@ -90,25 +98,26 @@ function readFacts(file: string): FileFacts {
   };
   visit(source);
 
-  // Every use of a root translator: a call with a written key, or a hand-over to a TRANSLATOR_TAKERS function.
-  if (rootTranslators.size) {
+  // Every use of a translator: a call with a written key, or a hand-over to a TRANSLATOR_TAKERS
+  // function. A namespaced translator used any other way (a key not written out, handed to a
+  // component) counts as reading its whole namespace; a root translator so used is reported.
+  if (translators.size) {
     const uses = (node: ts.Node) => {
-      if (ts.isIdentifier(node) && rootTranslators.has(node.text) && !(ts.isVariableDeclaration(node.parent) && node.parent.name === node)) {
+      const declaration = ts.isIdentifier(node) ? declarationOf(node) : undefined;
+      const namespace = declaration ? translators.get(declaration) : undefined;
+      if (namespace !== undefined && !(ts.isVariableDeclaration(node.parent) && node.parent.name === node)) {
         let use: ts.Node = node;
         while (ts.isAsExpression(use.parent) || ts.isParenthesizedExpression(use.parent) || ts.isNonNullExpression(use.parent)) use = use.parent;
         const parent = use.parent;
         const call = ts.isCallExpression(parent) && parent.expression === node ? parent
           : ts.isPropertyAccessExpression(parent) && parent.expression === node && ts.isCallExpression(parent.parent) && parent.parent.expression === parent ? parent.parent
           : null;
-        if (call) {
-          const keyNamespaces = call.arguments[0] ? namespaceOfKey(call.arguments[0]) : null;
-          if (keyNamespaces) keyNamespaces.forEach((n) => namespaces.add(n));
-          else problems.push(`${where(node)}: a root translator called with a key not written out`);
-        } else if (ts.isCallExpression(parent) && parent.arguments.includes(use as ts.Expression) && ts.isIdentifier(parent.expression) && TRANSLATOR_TAKERS[parent.expression.text]) {
+        const read = call?.arguments[0] ? namespacesOfKey(namespace, call.arguments[0]) : null;
+        if (read && read.every(Boolean)) read.forEach((n) => namespaces.add(n));
+        else if (!namespace && ts.isCallExpression(parent) && parent.arguments.includes(use as ts.Expression) && ts.isIdentifier(parent.expression) && TRANSLATOR_TAKERS[parent.expression.text]) {
           TRANSLATOR_TAKERS[parent.expression.text]!.namespaces.forEach((n) => namespaces.add(n));
-        } else {
-          problems.push(`${where(node)}: a root translator handed on where its keys cannot be read`);
-        }
+        } else if (namespace) namespaces.add(topOf(namespace));
+        else problems.push(`${where(node)}: ${call ? "a root translator called with a key not written out" : "a root translator handed on where its keys cannot be read"}`);
       }
       ts.forEachChild(node, uses);
     };
@@ -124,6 +133,36 @@ function findDeclaration(call: ts.Node): ts.Node {
   let node: ts.Node = call;
   while (node.parent && (ts.isAsExpression(node.parent) || ts.isParenthesizedExpression(node.parent))) node = node.parent;
   return node.parent && ts.isVariableDeclaration(node.parent) && unwrap(node.parent.initializer!) === call ? node.parent : node;
+}
+
+/** The declaration an identifier names: the nearest enclosing variable or parameter of that name. */
+function declarationOf(id: ts.Identifier): ts.Declaration | undefined {
+  for (let scope: ts.Node | undefined = id.parent; scope; scope = scope.parent) {
+    const found = declaredIn(scope).get(id.text);
+    if (found) return found;
+  }
+  return undefined;
+}
+
+const scopes = new WeakMap<ts.Node, Map<string, ts.Declaration>>();
+/** Names a block, a function (its parameters) or a file declares directly. */
+function declaredIn(scope: ts.Node): Map<string, ts.Declaration> {
+  const known = scopes.get(scope);
+  if (known) return known;
+  const names = new Map<string, ts.Declaration>();
+  const bind = (name: ts.BindingName, declaration: ts.Declaration) => {
+    if (ts.isIdentifier(name)) names.set(name.text, declaration);
+    else for (const element of name.elements) if (!ts.isOmittedExpression(element)) bind(element.name, element);
+  };
+  if (ts.isFunctionLike(scope)) for (const p of scope.parameters) bind(p.name, p);
+  const statements = ts.isBlock(scope) || ts.isSourceFile(scope) || ts.isModuleBlock(scope) ? scope.statements : ts.isCaseClause(scope) || ts.isDefaultClause(scope) ? scope.statements : null;
+  for (const statement of statements ?? []) if (ts.isVariableStatement(statement)) for (const d of statement.declarationList.declarations) bind(d.name, d);
+  if ((ts.isForStatement(scope) || ts.isForOfStatement(scope) || ts.isForInStatement(scope)) && scope.initializer && ts.isVariableDeclarationList(scope.initializer)) {
+    for (const d of scope.initializer.declarations) bind(d.name, d);
+  }
+  if (ts.isCatchClause(scope) && scope.variableDeclaration) bind(scope.variableDeclaration.name, scope.variableDeclaration);
+  scopes.set(scope, names);
+  return names;
 }
 
 /**
