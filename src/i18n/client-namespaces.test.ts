@@ -1,7 +1,7 @@
 // Each page and layout hands its client components the catalogue namespaces they read, no more and
 // no fewer (src/i18n/client-messages.tsx). A namespace left out shows its key path on the screen
 // (the e2e raw-key walk catches the screens it visits); one too many is sent on every request.
-import { mkdtempSync, mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
@@ -33,6 +33,23 @@ describe("the namespaces each page and layout hands its client components", () =
     expect(declaredNamespaces(path.join(ROOT, layout)) ?? []).toEqual(found.namespaces);
   });
 
+  // A not-found or forbidden screen renders inside the layouts above it, not inside a page: what
+  // its client components read must come from the nearest layout that names a list.
+  it.each(appFiles(/^(not-found|forbidden|unauthorized|error|global-error|loading|template|default)\.tsx$/))("%s reads only what the layout above it hands on", (file) => {
+    let handed: string[] = [];
+    for (let dir = path.dirname(file); dir !== "."; dir = path.dirname(dir)) {
+      const layout = path.join(ROOT, dir, "layout.tsx");
+      const list = existsSync(layout) ? declaredNamespaces(layout) : null;
+      if (list) {
+        handed = list;
+        break;
+      }
+    }
+    const found = clientNamespacesOf(path.join(ROOT, file));
+    expect(found.problems).toEqual([]);
+    expect(handed).toEqual(expect.arrayContaining(found.namespaces));
+  });
+
   it("names only namespaces the catalogue has", () => {
     for (const file of [...pages, ...layouts]) for (const name of declaredNamespaces(path.join(ROOT, file)) ?? []) expect(NAMESPACES, `${file}: ${name}`).toContain(name);
   });
@@ -43,7 +60,7 @@ describe("the namespaces each page and layout hands its client components", () =
 
   it("hands the client the catalogue only through ClientMessages", () => {
     const sources = [...(readdirSync(path.join(ROOT, "app"), { recursive: true }) as string[]).map((f) => path.join("app", f)), ...(readdirSync(path.join(ROOT, "src"), { recursive: true }) as string[]).map((f) => path.join("src", f))]
-      .filter((f) => /\.tsx?$/.test(f) && !f.endsWith(".test.ts") && f !== path.join("src", "i18n", "client-messages.tsx") && f !== path.join("src", "i18n", "client-namespaces.ts"));
+      .filter((f) => /\.tsx?$/.test(f) && !f.endsWith(".test.ts") && f !== path.join("src", "i18n", "client-messages.tsx"));
     const users = sources.filter((f) => readFileSync(path.join(ROOT, f), "utf8").includes("NextIntlClientProvider"));
     expect(users).toEqual([]);
   });
