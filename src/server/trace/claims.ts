@@ -21,12 +21,12 @@ export function claimsFor(actor: SessionUser, code: string, t: Translate) {
 /** The same, for a lot already found (the public bottle page has no signed-in actor). */
 export function claimsForLot(lot: { id: number; code: string; kind: string }, t: Translate, ancestry?: Ancestry) {
   if (!CLAIMABLE.includes(lot.kind)) throw invalid({ code: [t("validation.notClaimable")] }, "errors.notClaimable");
-  const { tanks, verdicts, figures } = judgeLot(lot.id, ancestry ?? ancestryOf(lot.id));
+  const { tanks, verdicts, earned, figures } = judgeLot(lot.id, ancestry ?? ancestryOf(lot.id));
   // A grade travels as its code (out-of-grade); the reader sees the grade's name.
   const word = (r: Reason) => t(`claims.reasons.${r.key}`, r.values && "grade" in r.values ? { ...r.values, grade: t(`lot.grades.${String(r.values.grade)}`) } : r.values);
   const categories = (verdicts[0] ?? assessCategories(emptyFacts)).map((v, n) => {
     const reasons = [...new Set(verdicts.flatMap((per, i) => per[n]!.reasons.map((r) => (tanks.length > 1 ? t("claims.ofTank", { tank: tanks[i]!.code, reason: word(r) }) : word(r)))))];
-    return { name: v.name, eligible: verdicts.length > 0 && reasons.length === 0, reasons: verdicts.length ? reasons : [t("claims.reasons.noTank")] };
+    return { name: v.name, eligible: earned[n]!, reasons: verdicts.length ? reasons : [t("claims.reasons.noTank")] };
   });
   return {
     lot: { code: lot.code, kind: lot.kind },
@@ -40,12 +40,11 @@ export function claimsForLot(lot: { id: number; code: string; kind: string }, t:
 /**
  * The categories every tank behind a lot earns and the figures they were judged on, without the
  * reasons worded: what the provenance card needs (it names only the categories earned). Wording
- * every reason of every tank in the reader's language was most of the bottle page's time.
+ * every reason of every tank in the reader's language was a quarter of the bottle page's time.
  */
 export function claimedCategories(lotId: number, ancestry: Ancestry) {
-  const { verdicts, figures } = judgeLot(lotId, ancestry);
-  const names = (verdicts[0] ?? []).map((v) => v.name);
-  return { kojiRatioPct: figures.kojiRatioPct, eligible: names.filter((_, n) => verdicts.length > 0 && verdicts.every((per) => per[n]!.reasons.length === 0)) };
+  const { verdicts, earned, figures } = judgeLot(lotId, ancestry);
+  return { kojiRatioPct: figures.kojiRatioPct, eligible: (verdicts[0] ?? []).filter((_, n) => earned[n]).map((v) => v.name) };
 }
 export type ClaimedCategories = ReturnType<typeof claimedCategories>;
 
@@ -54,6 +53,8 @@ function judgeLot(lotId: number, behind: Ancestry) {
   const factsOf = tankFactsOf(tankLots, behind);
   const tanks = tankLots.map((tank) => ({ code: tank.code, facts: factsOf.get(tank.id)! }));
   const verdicts = tanks.map((x) => assessCategories(x.facts));
+  // A category is earned when every tank behind the lot earns it, and there is a tank.
+  const earned = (verdicts[0] ?? assessCategories(emptyFacts)).map((_, n) => verdicts.length > 0 && verdicts.every((per) => per[n]!.reasons.length === 0));
   const facts = tanks.map((x) => x.facts);
   // Two at a time: handed to reduce directly, Math.min would also weigh the index and the array.
   const worst = <T,>(values: T[], pick: (a: T, b: T) => T) => (values.length ? values.reduce((a, b) => pick(a, b)) : null);
@@ -66,7 +67,7 @@ function judgeLot(lotId: number, behind: Ancestry) {
     addedAlcohol95Kg: facts.reduce((a, f) => a + f.addedAlcohol95Kg, 0),
     ginjoMethod: facts.length > 0 && facts.every((f) => f.ginjoMethod),
   };
-  return { tanks, verdicts, figures };
+  return { tanks, verdicts, earned, figures };
 }
 
 const emptyFacts: CategoryFacts = { polishingRatioPct: null, kojiRatioPct: null, lowestGrade: null, addedAlcoholKg: 0, addedAlcohol95Kg: 0, polishedRiceKg: 0, ginjoMethod: false };
