@@ -122,19 +122,27 @@ const pages: Page[] = [
   // A mill's account lists its polishing runs (1,535 at bench-mill, all without a contract fee).
   { name: "supplier account (mill)", path: `/suppliers/${picks.mill}`, ua: DESK_UA, signedIn: true },
   { name: "sign-in (reference)", path: "/sign-in", ua: PHONE_UA, signedIn: false },
-  // Last, so that no page above sees the events these two record before each request (neither
-  // changes an answer). After an event elsewhere: one with no lots, as the floor records all day
-  // on other lots; the server keeps the bottle's lineage. Read again: an event that comes out
-  // into the bottle itself (0 kg), so the lineage is touched and read from the database each time.
+  // Last, so that no page above sees the events these record before each request (none changes
+  // an answer). After an event elsewhere: one with no lots, as the floor records all day on other
+  // lots. After a draw from the bottle: an event that draws 0 bottles from it (a shipment or a
+  // sample), which touches its lineage without changing it. In both the server keeps the lineage.
+  // Read again: an edge of weight 0 into the bottle from one of its parents, so that the lineage
+  // has changed and is read from the database each time.
   { name: "provenance card, after an event elsewhere", path: `/01/${picks.gtin}/10/${picks.bottled}`, ua: PHONE_UA, signedIn: false, before: () => recordEvent(null) },
-  { name: "provenance card, lineage read again", path: `/01/${picks.gtin}/10/${picks.bottled}`, ua: PHONE_UA, signedIn: false, before: () => recordEvent(picks.bottled) },
+  { name: "provenance card, after a draw from the bottle", path: `/01/${picks.gtin}/10/${picks.bottled}`, ua: PHONE_UA, signedIn: false, before: () => recordEvent({ drawFrom: picks.bottled }) },
+  { name: "provenance card, lineage read again", path: `/01/${picks.gtin}/10/${picks.bottled}`, ua: PHONE_UA, signedIn: false, before: () => recordEvent({ linkInto: picks.bottled }) },
 ];
 
 let writer: Database.Database | undefined;
-function recordEvent(outputLot: string | null) {
+function recordEvent(lots: { drawFrom?: string; linkInto?: string } | null) {
   writer ??= new Database(dbFile);
   const event = writer.prepare("insert into events (step, at, recorded_at, user_id, party_id) select 'blending', 0, 0, user_id, party_id from events order by id desc limit 1").run().lastInsertRowid;
-  if (outputLot) writer.prepare("insert into event_outputs (event_id, lot_id, quantity, content) select ?, id, 0, 0 from lots where code = ?").run(event, outputLot);
+  if (lots?.drawFrom) writer.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) select ?, id, 0, 0, 'draw' from lots where code = ?").run(event, lots.drawFrom);
+  if (lots?.linkInto) {
+    writer
+      .prepare("insert into lineage_edges (event_id, parent_lot_id, child_lot_id, weight) select ?, e.parent_lot_id, e.child_lot_id, 0 from lineage_edges e join lots l on l.id = e.child_lot_id where l.code = ? limit 1")
+      .run(event, lots.linkInto);
+  }
 }
 
 const loadBefore = load();

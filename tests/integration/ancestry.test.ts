@@ -162,6 +162,39 @@ describe("the walk of distinct lots behind a lot", () => {
     expect(lotsOfKindUp(back, bottle, "polished").map((l) => l.fraction)).toEqual(pathByPath(bottle, "polished").map((l) => expect.closeTo(l.fraction, 12)));
   });
 
+  // What makes a lineage is its lots' kinds and contents and the edges into them: an event that
+  // touches a lot of it without changing those (a shipment or a sample drawn from the bottle)
+  // keeps it; an edge into one of its lots, or a content that moved, has it read again.
+  it("keeps a lineage an event touched without changing it, and reads it again when an edge or a content changes", () => {
+    const db = getSqlite();
+    const bottle = idOf("AX-BT");
+    const { user_id: user, party_id: party } = db.prepare("select user_id, party_id from events order by id desc limit 1").get() as { user_id: string; party_id: string };
+    const event = (step: string) => db.prepare("insert into events (step, at, recorded_at, user_id, party_id) values (?, 0, 0, ?, ?)").run(step, user, party).lastInsertRowid;
+    const read = ancestryOf(bottle).first;
+    // Two cases shipped and a bottle opened for tasting: drawn from the bottling, nothing went into it.
+    db.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) values (?, ?, 2, 2, 'move')").run(event("shipping"), bottle);
+    db.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) values (?, ?, 1, 1, 'draw')").run(event("measuring"), bottle);
+    db.prepare("update lots set on_hand = on_hand - 3 where id = ?").run(bottle);
+    expect(ancestryOf(bottle).first, "kept across draws from the bottle").toBe(read);
+    // An event that lists the bottle among its outputs but puts nothing into it: kept too.
+    db.prepare("insert into event_outputs (event_id, lot_id, quantity, content) values (?, ?, 0, 0)").run(event("blending"), bottle);
+    expect(ancestryOf(bottle).first, "kept across an output of nothing").toBe(read);
+    // An edge into one of its lots, even of weight 0: read again.
+    const parent = (db.prepare("select parent_lot_id as p from lineage_edges where child_lot_id = ? limit 1").get(bottle) as { p: number }).p;
+    db.prepare("insert into lineage_edges (event_id, parent_lot_id, child_lot_id, weight) values (?, ?, ?, 0)").run(event("blending"), parent, bottle);
+    const linked = ancestryOf(bottle);
+    expect(linked.first).not.toBe(read);
+    expect(lotsOfKindUp(linked, bottle, "polished").map((l) => l.fraction)).toEqual(pathByPath(bottle, "polished").map((l) => expect.closeTo(l.fraction, 12)));
+    // A content that moved, with no edge (as the bench's event that comes out into a lot): read again.
+    db.prepare("insert into event_outputs (event_id, lot_id, quantity, content) values (?, ?, 5, 5)").run(event("blending"), idOf("AX-T1"));
+    db.prepare("update lots set content_in = content_in + 5 where code = 'AX-T1'").run();
+    const moved = ancestryOf(bottle);
+    expect(moved.first).not.toBe(linked.first);
+    expect(lotsOfKindUp(moved, bottle, "polished").map((l) => l.fraction)).toEqual(pathByPath(bottle, "polished").map((l) => expect.closeTo(l.fraction, 12)));
+    // Kept or read again, the answer is the one a fresh read gives.
+    expect(lotsOfKindUp(ancestryOf(bottle), bottle, "tank").map((l) => [l.id, l.fraction])).toEqual(pathByPath(bottle, "tank").map((l) => [l.id, expect.closeTo(l.fraction, 12)]));
+  });
+
   it("checks what was touched since a lineage was read by the rows after the mark alone, never a scan of the tables", () => {
     const query = new SQLiteSyncDialect().sqlToQuery(touchedSince({ event: 1, edge: 1 }));
     const plan = (getSqlite().prepare(`explain query plan ${query.sql}`).all(...query.params) as { detail: string }[]).map((r) => r.detail);

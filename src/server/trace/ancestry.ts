@@ -99,7 +99,8 @@ function indexed(ids: number[], kinds: string[], contents: number[], edges: { ch
  * Edges and contents change only when an event is recorded (a correction is an event too): a
  * lot's content grows with the events it comes out of and shrinks when one is corrected (the
  * correction draws it), and new lots join a lineage only by a new edge into it. So a lineage
- * read stays true until an event touches one of its lots. A bottle's page is opened by
+ * read stays true until an event touches one of its lots, and past that while no edge comes into
+ * one and no content moves (`unchanged`). A bottle's page is opened by
  * everyone who scans its batch, while the floor records events all day on other lots; the few
  * latest lineages are kept for them.
  */
@@ -126,18 +127,30 @@ export const touchedSince = (seen: LedgerMark) => sql`
     union all select lot_id from event_inputs where event_id > ${seen.event}
     union all select child_lot_id from lineage_edges where id > ${seen.edge})`;
 
-/** Whether no event recorded after `seen` came out of, drew from or linked into a lot of the lineage. */
-function untouched(lineage: Lineage, seen: LedgerMark, now: LedgerMark): boolean {
+/**
+ * Whether the lineage read at `seen` is still what a read now would give. Only the kinds and
+ * contents of its lots and the edges into them make it, so an event that touched none of its
+ * lots keeps it; and so does one that touched some without changing what the lineage holds: no
+ * edge recorded into one of them, and each one's content as read (a shipment or a sample draws
+ * from a bottling without changing what went into it).
+ */
+function unchanged(lineage: Lineage, seen: LedgerMark, now: LedgerMark): boolean {
   if (seen.event === now.event && seen.edge === now.edge) return true;
   const row = getDb().get<{ lots: string; n: number }>(touchedSince(seen))!;
   if (row.n > CHECK_AT_MOST) return false;
-  return !(JSON.parse(row.lots) as number[]).some((id) => lineage.at.has(id));
+  const hit = [...new Set(JSON.parse(row.lots) as number[])].filter((id) => lineage.at.has(id));
+  if (!hit.length) return true;
+  const current = getDb().get<{ edges: number; contents: string }>(sql`
+    select (select count(*) from lineage_edges where id > ${seen.edge} and child_lot_id in (select value from json_each(${JSON.stringify(hit)}))) as edges,
+      (select json_group_array(json_array(id, content_in)) from lots where id in (select value from json_each(${JSON.stringify(hit)}))) as contents`)!;
+  if (current.edges > 0) return false;
+  return (JSON.parse(current.contents) as [number, number][]).every(([id, contentIn]) => lineage.contents[lineage.at.get(id)!] === contentIn);
 }
 
 export function ancestryOf(lotId: number): Ancestry {
   const now = ledgerMark();
   const kept = recent.get(lotId);
-  const lineage = kept && untouched(kept.lineage, kept.seen, now) ? kept.lineage : readLineage(lotId);
+  const lineage = kept && unchanged(kept.lineage, kept.seen, now) ? kept.lineage : readLineage(lotId);
   recent.delete(lotId);
   recent.set(lotId, { seen: now, lineage });
   if (recent.size > KEEP) recent.delete(recent.keys().next().value!);
