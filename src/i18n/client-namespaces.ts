@@ -35,25 +35,23 @@ function resolveImport(from: string, spec: string): string | null {
 }
 
 /**
- * The namespace a key written in the source reads, under the translator's own namespace ("" for
- * a root translator): a template key counts up to its last whole segment before the first
- * `${…}`. Empty when nothing of it is written out.
+ * The namespace a key written for a root translator reads: its first segment, or in a template
+ * key the first segment before `${…}`. Null when that is not written out.
  */
-function namespacesOfKey(namespace: string, node: ts.Expression): string[] | null {
-  const within = (written: string[]) => [...(namespace ? namespace.split(".") : []), ...written][0] ?? "";
-  if (ts.isStringLiteral(node) || ts.isNoSubstitutionTemplateLiteral(node)) return [within(node.text.split("."))];
-  if (ts.isTemplateExpression(node)) return [within(node.head.text.split(".").slice(0, -1))];
+function namespacesOfKey(node: ts.Expression): string[] | null {
+  if (ts.isStringLiteral(node) || ts.isNoSubstitutionTemplateLiteral(node)) return [topOf(node.text)];
+  if (ts.isTemplateExpression(node)) return node.head.text.includes(".") ? [topOf(node.head.text)] : null;
   if (ts.isConditionalExpression(node)) {
-    const a = namespacesOfKey(namespace, node.whenTrue);
-    const b = namespacesOfKey(namespace, node.whenFalse);
+    const a = namespacesOfKey(node.whenTrue);
+    const b = namespacesOfKey(node.whenFalse);
     return a && b ? [...a, ...b] : null;
   }
-  if (ts.isParenthesizedExpression(node)) return namespacesOfKey(namespace, node.expression);
+  if (ts.isParenthesizedExpression(node)) return namespacesOfKey(node.expression);
   return null;
 }
 
 const unwrap = (node: ts.Expression): ts.Expression =>
-  ts.isAsExpression(node) || ts.isParenthesizedExpression(node) || ts.isAwaitExpression(node) || ts.isNonNullExpression(node) ? unwrap(node.expression) : node;
+  ts.isAsExpression(node) || ts.isParenthesizedExpression(node) || ts.isNonNullExpression(node) ? unwrap(node.expression) : node;
 
 const topOf = (namespace: string) => namespace.split(".")[0]!;
 
@@ -70,8 +68,8 @@ function readFacts(file: string): FileFacts {
   const namespaces = new Set<string>();
   const problems: string[] = [];
   const where = (node: ts.Node) => `${path.relative(ROOT, file)}:${source.getLineAndCharacterOfPosition(node.getStart()).line + 1}`;
-  // Each translator by its declaration: `const t = useTranslations("suppliers")` → "suppliers" ("" for the root).
-  const translators = new Map<ts.Declaration, string>();
+  // Root translators (`const t = useTranslations()`) by their declaration: their keys say which namespaces they read.
+  const rootTranslators = new Set<ts.Declaration>();
 
   const visit = (node: ts.Node) => {
     if (ts.isImportDeclaration(node) && !node.importClause?.isTypeOnly && ts.isStringLiteral(node.moduleSpecifier)) {
@@ -87,9 +85,10 @@ function readFacts(file: string): FileFacts {
       const [arg] = node.arguments;
       const namespace = !arg ? "" : ts.isStringLiteral(arg) || ts.isNoSubstitutionTemplateLiteral(arg) ? arg.text : null;
       const declaration = findDeclaration(node);
+      // A namespaced translator reads within its namespace, whatever its keys.
       if (namespace === null) problems.push(`${where(node)}: useTranslations with a namespace not written out`);
-      else if (ts.isVariableDeclaration(declaration) && ts.isIdentifier(declaration.name)) translators.set(declaration, namespace);
       else if (namespace) namespaces.add(topOf(namespace));
+      else if (ts.isVariableDeclaration(declaration) && ts.isIdentifier(declaration.name)) rootTranslators.add(declaration);
       else problems.push(`${where(node)}: useTranslations() whose translator is not kept in a named constant`);
     } else if (isCallOf(node, "useMessages")) {
       problems.push(`${where(node)}: useMessages reads the whole catalogue`);
@@ -98,26 +97,23 @@ function readFacts(file: string): FileFacts {
   };
   visit(source);
 
-  // Every use of a translator: a call with a written key, or a hand-over to a TRANSLATOR_TAKERS
-  // function. A namespaced translator used any other way (a key not written out, handed to a
-  // component) counts as reading its whole namespace; a root translator so used is reported.
-  if (translators.size) {
+  // Every use of a root translator: a call with a written key, or a hand-over to a
+  // TRANSLATOR_TAKERS function; any other use is reported.
+  if (rootTranslators.size) {
     const uses = (node: ts.Node) => {
       const declaration = ts.isIdentifier(node) ? declarationOf(node) : undefined;
-      const namespace = declaration ? translators.get(declaration) : undefined;
-      if (namespace !== undefined && !(ts.isVariableDeclaration(node.parent) && node.parent.name === node)) {
+      if (declaration && rootTranslators.has(declaration) && !(ts.isVariableDeclaration(node.parent) && node.parent.name === node)) {
         let use: ts.Node = node;
         while (ts.isAsExpression(use.parent) || ts.isParenthesizedExpression(use.parent) || ts.isNonNullExpression(use.parent)) use = use.parent;
         const parent = use.parent;
         const call = ts.isCallExpression(parent) && parent.expression === node ? parent
           : ts.isPropertyAccessExpression(parent) && parent.expression === node && ts.isCallExpression(parent.parent) && parent.parent.expression === parent ? parent.parent
           : null;
-        const read = call?.arguments[0] ? namespacesOfKey(namespace, call.arguments[0]) : null;
-        if (read && read.every(Boolean)) read.forEach((n) => namespaces.add(n));
-        else if (!namespace && ts.isCallExpression(parent) && parent.arguments.includes(use as ts.Expression) && ts.isIdentifier(parent.expression) && TRANSLATOR_TAKERS[parent.expression.text]) {
+        const read = call?.arguments[0] ? namespacesOfKey(call.arguments[0]) : null;
+        if (read) read.forEach((n) => namespaces.add(n));
+        else if (ts.isCallExpression(parent) && parent.arguments.includes(use as ts.Expression) && ts.isIdentifier(parent.expression) && TRANSLATOR_TAKERS[parent.expression.text]) {
           TRANSLATOR_TAKERS[parent.expression.text]!.namespaces.forEach((n) => namespaces.add(n));
-        } else if (namespace) namespaces.add(topOf(namespace));
-        else problems.push(`${where(node)}: ${call ? "a root translator called with a key not written out" : "a root translator handed on where its keys cannot be read"}`);
+        } else problems.push(`${where(node)}: ${call ? "a root translator called with a key not written out" : "a root translator handed on where its keys cannot be read"}`);
       }
       ts.forEachChild(node, uses);
     };

@@ -46,6 +46,13 @@ function pathByPath(lotId: number, kind: "tank" | "polished") {
     .all(lotId, kind, kind) as { id: number; fraction: number }[];
 }
 
+/** A bare event of `step`, by the latest event's user and party: what the tests below record around a lineage. */
+function recordEvent(step: string): number {
+  const db = getSqlite();
+  const { user_id: user, party_id: party } = db.prepare("select user_id, party_id from events order by id desc limit 1").get() as { user_id: string; party_id: string };
+  return Number(db.prepare("insert into events (step, at, recorded_at, user_id, party_id) values (?, 0, 0, ?, ?)").run(step, user, party).lastInsertRowid);
+}
+
 /** The lots the key dates are read for, as the provenance card's recursive read found them before. */
 function datedLotsBySql(lotId: number) {
   const rows = getSqlite()
@@ -122,8 +129,7 @@ describe("the walk of distinct lots behind a lot", () => {
     const bottle = idOf("AX-BT");
     expect(lotsOfKindUp(ancestryOf(bottle), bottle, "polished").map((l) => l.code)).toEqual(["AX-P1", "AX-P2"]);
     // The corrected link is recorded once more, by a new event: AX-P3 is behind the bottle again.
-    const { user_id: user, party_id: party } = db.prepare("select user_id, party_id from events order by id desc limit 1").get() as { user_id: string; party_id: string };
-    const event = db.prepare("insert into events (step, at, recorded_at, user_id, party_id) values ('mash-addition', 0, 0, ?, ?)").run(user, party).lastInsertRowid;
+    const event = recordEvent("mash-addition");
     db.prepare("insert into lineage_edges (event_id, parent_lot_id, child_lot_id, weight) values (?, ?, ?, 100)").run(event, idOf("AX-P3"), idOf("AX-T2"));
     const again = lotsOfKindUp(ancestryOf(bottle), bottle, "polished");
     expect(again.map((l) => l.code)).toEqual(["AX-P1", "AX-P2", "AX-P3"]);
@@ -134,27 +140,26 @@ describe("the walk of distinct lots behind a lot", () => {
   it("keeps a lineage while events touch other lots, and reads it again when one touches a lot in it", () => {
     const db = getSqlite();
     const bottle = idOf("AX-BT");
-    const { user_id: user, party_id: party } = db.prepare("select user_id, party_id from events order by id desc limit 1").get() as { user_id: string; party_id: string };
-    const event = (step: string) => db.prepare("insert into events (step, at, recorded_at, user_id, party_id) values (?, 0, 0, ?, ?)").run(step, user, party).lastInsertRowid;
     const kept = ancestryOf(bottle).first;
     // Elsewhere on the floor: a new lot made from one outside the lineage, and a lot of it drawn.
+    const { party_id: party } = db.prepare("select party_id from events order by id desc limit 1").get() as { party_id: string };
     const lot = db.prepare("insert into lots (code, kind, unit, party_id, origin_party_id, content_in, quantity_in, on_hand, created_at) values (?, ?, 'kg', ?, ?, 10, 10, 10, 0)");
     lot.run("AX-H9", "harvest", party, party);
     lot.run("AX-ELSE", "polished", party, party);
-    const made = event("polishing");
+    const made = recordEvent("polishing");
     db.prepare("insert into event_outputs (event_id, lot_id, quantity, content) values (?, ?, 10, 10)").run(made, idOf("AX-ELSE"));
     db.prepare("insert into lineage_edges (event_id, parent_lot_id, child_lot_id, weight) values (?, ?, ?, 10)").run(made, idOf("AX-H9"), idOf("AX-ELSE"));
-    db.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) values (?, ?, 1, 1, 'draw')").run(event("soaking"), idOf("AX-ELSE"));
+    db.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) values (?, ?, 1, 1, 'draw')").run(recordEvent("soaking"), idOf("AX-ELSE"));
     expect(ancestryOf(bottle).first, "kept across events on other lots").toBe(kept);
     // More comes out into a tank of the lineage (its content grows): the fractions change, and are read again.
-    const added = event("mash-addition");
+    const added = recordEvent("mash-addition");
     db.prepare("insert into event_outputs (event_id, lot_id, quantity, content) values (?, ?, 100, 100)").run(added, idOf("AX-T1"));
     db.prepare("update lots set content_in = content_in + 100 where code = 'AX-T1'").run();
     const grown = ancestryOf(bottle);
     expect(grown.first).not.toBe(kept);
     expect(lotsOfKindUp(grown, bottle, "polished").map((l) => l.fraction)).toEqual(pathByPath(bottle, "polished").map((l) => expect.closeTo(l.fraction, 12)));
     // A correction takes it back: it draws from the tank, and the lineage is read again.
-    const correction = event("correcting");
+    const correction = recordEvent("correcting");
     db.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) values (?, ?, 100, 100, 'draw')").run(correction, idOf("AX-T1"));
     db.prepare("update lots set content_in = content_in - 100 where code = 'AX-T1'").run();
     const back = ancestryOf(bottle);
@@ -168,25 +173,23 @@ describe("the walk of distinct lots behind a lot", () => {
   it("keeps a lineage an event touched without changing it, and reads it again when an edge or a content changes", () => {
     const db = getSqlite();
     const bottle = idOf("AX-BT");
-    const { user_id: user, party_id: party } = db.prepare("select user_id, party_id from events order by id desc limit 1").get() as { user_id: string; party_id: string };
-    const event = (step: string) => db.prepare("insert into events (step, at, recorded_at, user_id, party_id) values (?, 0, 0, ?, ?)").run(step, user, party).lastInsertRowid;
     const read = ancestryOf(bottle).first;
     // Two cases shipped and a bottle opened for tasting: drawn from the bottling, nothing went into it.
-    db.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) values (?, ?, 2, 2, 'move')").run(event("shipping"), bottle);
-    db.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) values (?, ?, 1, 1, 'draw')").run(event("measuring"), bottle);
+    db.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) values (?, ?, 2, 2, 'move')").run(recordEvent("shipping"), bottle);
+    db.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) values (?, ?, 1, 1, 'draw')").run(recordEvent("measuring"), bottle);
     db.prepare("update lots set on_hand = on_hand - 3 where id = ?").run(bottle);
     expect(ancestryOf(bottle).first, "kept across draws from the bottle").toBe(read);
     // An event that lists the bottle among its outputs but puts nothing into it: kept too.
-    db.prepare("insert into event_outputs (event_id, lot_id, quantity, content) values (?, ?, 0, 0)").run(event("blending"), bottle);
+    db.prepare("insert into event_outputs (event_id, lot_id, quantity, content) values (?, ?, 0, 0)").run(recordEvent("blending"), bottle);
     expect(ancestryOf(bottle).first, "kept across an output of nothing").toBe(read);
     // An edge into one of its lots, even of weight 0: read again.
     const parent = (db.prepare("select parent_lot_id as p from lineage_edges where child_lot_id = ? limit 1").get(bottle) as { p: number }).p;
-    db.prepare("insert into lineage_edges (event_id, parent_lot_id, child_lot_id, weight) values (?, ?, ?, 0)").run(event("blending"), parent, bottle);
+    db.prepare("insert into lineage_edges (event_id, parent_lot_id, child_lot_id, weight) values (?, ?, ?, 0)").run(recordEvent("blending"), parent, bottle);
     const linked = ancestryOf(bottle);
     expect(linked.first).not.toBe(read);
     expect(lotsOfKindUp(linked, bottle, "polished").map((l) => l.fraction)).toEqual(pathByPath(bottle, "polished").map((l) => expect.closeTo(l.fraction, 12)));
     // A content that moved, with no edge (as the bench's event that comes out into a lot): read again.
-    db.prepare("insert into event_outputs (event_id, lot_id, quantity, content) values (?, ?, 5, 5)").run(event("blending"), idOf("AX-T1"));
+    db.prepare("insert into event_outputs (event_id, lot_id, quantity, content) values (?, ?, 5, 5)").run(recordEvent("blending"), idOf("AX-T1"));
     db.prepare("update lots set content_in = content_in + 5 where code = 'AX-T1'").run();
     const moved = ancestryOf(bottle);
     expect(moved.first).not.toBe(linked.first);
