@@ -124,7 +124,7 @@ describe("the walk of distinct lots behind a lot", () => {
     expect(lotsUpThrough(ancestryOf(idOf("AX-BT")), idOf("AX-BT"), ["bottled", "blend", "sake", "tank"])).toContain(idOf("AX-P3"));
   });
 
-  it("reads the lineage again once an event is recorded, and a lot's figures every time", () => {
+  it("brings the lineage up to date once an event is recorded, and reads a lot's figures every time", () => {
     const db = getSqlite();
     const bottle = idOf("AX-BT");
     expect(lotsOfKindUp(ancestryOf(bottle), bottle, "polished").map((l) => l.code)).toEqual(["AX-P1", "AX-P2"]);
@@ -137,7 +137,7 @@ describe("the walk of distinct lots behind a lot", () => {
     db.prepare("update lots set polishing_ratio_pct = 55 where code = 'AX-P2'").run();
     expect(lotsOfKindUp(ancestryOf(bottle), bottle, "polished").map((l) => l.polishingRatioPct)).toEqual([50, 55, 70]);
   });
-  it("keeps a lineage while events touch other lots, and reads it again when one touches a lot in it", () => {
+  it("keeps a lineage while events touch other lots, and brings it up to date when one touches a lot in it", () => {
     const db = getSqlite();
     const bottle = idOf("AX-BT");
     const kept = ancestryOf(bottle).first;
@@ -151,14 +151,14 @@ describe("the walk of distinct lots behind a lot", () => {
     db.prepare("insert into lineage_edges (event_id, parent_lot_id, child_lot_id, weight) values (?, ?, ?, 10)").run(made, idOf("AX-H9"), idOf("AX-ELSE"));
     db.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) values (?, ?, 1, 1, 'draw')").run(recordEvent("soaking"), idOf("AX-ELSE"));
     expect(ancestryOf(bottle).first, "kept across events on other lots").toBe(kept);
-    // More comes out into a tank of the lineage (its content grows): the fractions change, and are read again.
+    // More comes out into a tank of the lineage (its content grows): the fractions change, and the lineage is brought up to date.
     const added = recordEvent("mash-addition");
     db.prepare("insert into event_outputs (event_id, lot_id, quantity, content) values (?, ?, 100, 100)").run(added, idOf("AX-T1"));
     db.prepare("update lots set content_in = content_in + 100 where code = 'AX-T1'").run();
     const grown = ancestryOf(bottle);
     expect(grown.first).not.toBe(kept);
     expect(lotsOfKindUp(grown, bottle, "polished").map((l) => l.fraction)).toEqual(pathByPath(bottle, "polished").map((l) => expect.closeTo(l.fraction, 12)));
-    // A correction takes it back: it draws from the tank, and the lineage is read again.
+    // A correction takes it back: it draws from the tank, and the lineage is brought up to date again.
     const correction = recordEvent("correcting");
     db.prepare("insert into event_inputs (event_id, lot_id, quantity, content, use) values (?, ?, 100, 100, 'draw')").run(correction, idOf("AX-T1"));
     db.prepare("update lots set content_in = content_in - 100 where code = 'AX-T1'").run();
@@ -169,8 +169,9 @@ describe("the walk of distinct lots behind a lot", () => {
 
   // What makes a lineage is its lots' kinds and contents and the edges into them: an event that
   // touches a lot of it without changing those (a shipment or a sample drawn from the bottle)
-  // keeps it; an edge into one of its lots, or a content that moved, has it read again.
-  it("keeps a lineage an event touched without changing it, and reads it again when an edge or a content changes", () => {
+  // keeps it; an edge into one of its lots, or a content that moved, has it brought up to date
+  // (tests/integration/ancestry-brought-up.test.ts holds that to a read anew).
+  it("keeps a lineage an event touched without changing it, and brings it up to date when an edge or a content changes", () => {
     const db = getSqlite();
     const bottle = idOf("AX-BT");
     const read = ancestryOf(bottle).first;
@@ -182,19 +183,19 @@ describe("the walk of distinct lots behind a lot", () => {
     // An event that lists the bottle among its outputs but puts nothing into it: kept too.
     db.prepare("insert into event_outputs (event_id, lot_id, quantity, content) values (?, ?, 0, 0)").run(recordEvent("blending"), bottle);
     expect(ancestryOf(bottle).first, "kept across an output of nothing").toBe(read);
-    // An edge into one of its lots, even of weight 0: read again.
+    // An edge into one of its lots, even of weight 0: brought up to date.
     const parent = (db.prepare("select parent_lot_id as p from lineage_edges where child_lot_id = ? limit 1").get(bottle) as { p: number }).p;
     db.prepare("insert into lineage_edges (event_id, parent_lot_id, child_lot_id, weight) values (?, ?, ?, 0)").run(recordEvent("blending"), parent, bottle);
     const linked = ancestryOf(bottle);
     expect(linked.first).not.toBe(read);
     expect(lotsOfKindUp(linked, bottle, "polished").map((l) => l.fraction)).toEqual(pathByPath(bottle, "polished").map((l) => expect.closeTo(l.fraction, 12)));
-    // A content that moved, with no edge (as the bench's event that comes out into a lot): read again.
+    // A content that moved, with no edge (as the bench's event that comes out into a lot): brought up to date.
     db.prepare("insert into event_outputs (event_id, lot_id, quantity, content) values (?, ?, 5, 5)").run(recordEvent("blending"), idOf("AX-T1"));
     db.prepare("update lots set content_in = content_in + 5 where code = 'AX-T1'").run();
     const moved = ancestryOf(bottle);
     expect(moved.first).not.toBe(linked.first);
     expect(lotsOfKindUp(moved, bottle, "polished").map((l) => l.fraction)).toEqual(pathByPath(bottle, "polished").map((l) => expect.closeTo(l.fraction, 12)));
-    // Kept or read again, the answer is the one a fresh read gives.
+    // Kept or brought up to date, the answer is the one a fresh read gives.
     expect(lotsOfKindUp(ancestryOf(bottle), bottle, "tank").map((l) => [l.id, l.fraction])).toEqual(pathByPath(bottle, "tank").map((l) => [l.id, expect.closeTo(l.fraction, 12)]));
   });
 

@@ -1,6 +1,6 @@
 import "server-only";
 import { sql } from "drizzle-orm";
-import { getDb } from "../platform/db";
+import { getDb, getSqlite } from "../platform/db";
 
 /** A lot behind another; code, attributes and polishing ratio are read for tanks and polished lots only. */
 export type AncestorLot = { id: number; code: string; kind: string; contentIn: number; attributes: string | null; polishingRatioPct: number | null };
@@ -26,6 +26,13 @@ type Lineage = {
 /** The distinct lots behind a lot and the edges among them, with the tanks' and polished lots' current details. */
 export type Ancestry = Lineage & { details: Map<number, { code: string; attributes: string | null; polishingRatioPct: number | null }> };
 
+/** Lots by position as a lineage is read, and the edges read, in the order read. */
+type Found = { ids: number[]; kinds: string[]; contents: number[]; at: Map<number, number> };
+type Edges = { children: number[]; parents: number[]; weights: number[] };
+
+/** Lots with no content, and harvest lots, pass nothing on: their edges are not read. */
+const passesOn = (kind: string, contentIn: number) => kind !== "harvest" && contentIn > 0;
+
 /**
  * Everything behind a lot up to its harvest lots: each lot once, however many routes lead to it
  * (a blend of blends reaches its rice by tens of thousands of paths). Lots with no content pass
@@ -33,28 +40,37 @@ export type Ancestry = Lineage & { details: Map<number, { code: string; attribut
  */
 function readLineage(lotId: number): Lineage {
   const head = getDb().get<{ kind: string; contentIn: number }>(sql`select kind, content_in as contentIn from lots where id = ${lotId}`);
-  const ids: number[] = [];
-  const kinds: string[] = [];
-  const contents: number[] = [];
-  const at = new Map<number, number>();
-  const found = (id: number, kind: string, contentIn: number) => (at.set(id, ids.length), ids.push(id), kinds.push(kind), contents.push(contentIn));
-  if (head) found(lotId, head.kind, head.contentIn);
-  // Every edge as recorded: a link and its reversal both pass, and cancel in the sums.
-  const [children, parents, weights]: [number[], number[], number[]] = [[], [], []];
-  // One step up at a time, each lot's edges read once: one recursive statement read every edge
-  // twice (to find the lots, then to hand the edges over) and kept a sorted copy of the lots.
-  for (let step = ids.slice(); step.length; ) {
-    const open = step.filter((id) => kinds[at.get(id)!] !== "harvest" && contents[at.get(id)!]! > 0);
+  const found: Found = { ids: [], kinds: [], contents: [], at: new Map() };
+  if (head) add(found, lotId, head.kind, head.contentIn);
+  const edges: Edges = { children: [], parents: [], weights: [] };
+  climb(found, found.ids.slice(), edges);
+  return indexed(found, edges);
+}
+
+function add(found: Found, id: number, kind: string, contentIn: number) {
+  found.at.set(id, found.ids.length);
+  found.ids.push(id), found.kinds.push(kind), found.contents.push(contentIn);
+}
+
+/**
+ * Reads the edges into the lots of `step` that pass rice on, then into every lot first found
+ * behind them, one step up at a time, each lot's edges once: one recursive statement read every
+ * edge twice (to find the lots, then to hand the edges over) and kept a sorted copy of the lots.
+ * Every edge as recorded: a link and its reversal both pass, and cancel in the sums.
+ */
+function climb(found: Found, step: number[], edges: Edges) {
+  const { at, kinds, contents } = found;
+  while (step.length) {
+    const open = step.filter((id) => passesOn(kinds[at.get(id)!]!, contents[at.get(id)!]!));
     step = [];
     if (!open.length) break;
-    const edges = parentsStep(open);
-    edges.children.forEach((child, n) => {
-      const parent = edges.parents[n]!;
-      children.push(child), parents.push(parent), weights.push(edges.weights[n]!);
-      if (!at.has(parent)) found(parent, edges.kinds[n]!, edges.contents[n]!), step.push(parent);
+    const read = parentsStep(open);
+    read.children.forEach((child, n) => {
+      const parent = read.parents[n]!;
+      edges.children.push(child), edges.parents.push(parent), edges.weights.push(read.weights[n]!);
+      if (!at.has(parent)) add(found, parent, read.kinds[n]!, read.contents[n]!), step.push(parent);
     });
   }
-  return indexed(ids, kinds, contents, { children, parents, weights });
 }
 
 /**
@@ -76,9 +92,12 @@ function parentsStep(lotIds: number[]) {
   };
 }
 
-/** Each lot's edges as a slice of two typed arrays, in the order read, so that the sums add up in the same order every time. */
-function indexed(ids: number[], kinds: string[], contents: number[], edges: { children: number[]; parents: number[]; weights: number[] }): Lineage {
-  const at = new Map(ids.map((id, n) => [id, n]));
+/**
+ * Each lot's edges as a slice of two typed arrays, in the order read, so that the sums add up in
+ * the same order every time. That order is the child index's (lineage_child_idx: parent, then
+ * weight, then id), which is how SQLite finds a lot's edges; `broughtUp` keeps it.
+ */
+function indexed({ ids, kinds, contents, at }: Found, edges: Edges): Lineage {
   const lots = new Map(ids.map((id, n) => [id, { kind: kinds[n]!, contentIn: contents[n]! }]));
   const first = new Int32Array(ids.length + 1);
   for (const child of edges.children) first[at.get(child)! + 1]!++;
@@ -98,11 +117,11 @@ function indexed(ids: number[], kinds: string[], contents: number[], edges: { ch
 /**
  * Edges and contents change only when an event is recorded (a correction is an event too): a
  * lot's content grows with the events it comes out of and shrinks when one is corrected (the
- * correction draws it), and new lots join a lineage only by a new edge into it. So a lineage
- * read stays true until an event touches one of its lots, and past that while no edge comes into
- * one and no content moves (`unchanged`). A bottle's page is opened by
- * everyone who scans its batch, while the floor records events all day on other lots; the few
- * latest lineages are kept for them.
+ * correction draws it), and new lots join a lineage only by a new edge into it. Nothing is ever
+ * taken away: a reversal is one more edge. So a lineage read stays true until an event touches
+ * one of its lots, and past that it is brought up to date from what that event added
+ * (`broughtUp`). A bottle's page is opened by everyone who scans its batch, while the floor
+ * records events all day on other lots; the few latest lineages are kept for them.
  */
 const recent = new Map<number, { seen: LedgerMark; lineage: Lineage }>();
 const KEEP = 16;
@@ -128,33 +147,136 @@ export const touchedSince = (seen: LedgerMark) => sql`
     union all select child_lot_id from lineage_edges where id > ${seen.edge})`;
 
 /**
- * Whether the lineage read at `seen` is still what a read now would give. Only the kinds and
- * contents of its lots and the edges into them make it, so an event that touched none of its
- * lots keeps it; and so does one that touched some without changing what the lineage holds: no
- * edge recorded into one of them, and each one's content as read (a shipment or a sample draws
- * from a bottling without changing what went into it).
+ * The lineage read at `seen` as a read now would give it, or null when it must be read anew.
+ * Only the kinds and contents of its lots and the edges into them make it. So an event that
+ * touched none of its lots keeps it, and so does one that touched some without changing those
+ * (a shipment or a sample draws from a bottling without changing what went into it). Otherwise
+ * the new edges into its lots are merged into each lot's edges in the order a read gives, the
+ * lots first found behind them are read with their own lineage, and contents are taken as they
+ * are now; the walks made over lots nothing changed are kept, so that a new edge into a bottling
+ * does not walk its 144 tanks again. Read anew: when more was recorded than is worth checking, or
+ * a lot of it began or stopped passing rice on (its content went to or from nothing), which
+ * changes which lots a read reaches.
  */
-function unchanged(lineage: Lineage, seen: LedgerMark, now: LedgerMark): boolean {
-  if (seen.event === now.event && seen.edge === now.edge) return true;
+function broughtUp(lineage: Lineage, seen: LedgerMark, now: LedgerMark): Lineage | null {
+  if (seen.event === now.event && seen.edge === now.edge) return lineage;
   const row = getDb().get<{ lots: string; n: number }>(touchedSince(seen))!;
-  if (row.n > CHECK_AT_MOST) return false;
+  if (row.n > CHECK_AT_MOST) return null;
   const hit = [...new Set(JSON.parse(row.lots) as number[])].filter((id) => lineage.at.has(id));
-  if (!hit.length) return true;
-  const current = getDb().get<{ edges: number; contents: string }>(sql`
-    select (select count(*) from lineage_edges where id > ${seen.edge} and child_lot_id in (select value from json_each(${JSON.stringify(hit)}))) as edges,
-      (select json_group_array(json_array(id, content_in)) from lots where id in (select value from json_each(${JSON.stringify(hit)}))) as contents`)!;
-  if (current.edges > 0) return false;
-  return (JSON.parse(current.contents) as [number, number][]).every(([id, contentIn]) => lineage.contents[lineage.at.get(id)!] === contentIn);
+  if (!hit.length) return lineage;
+  const [ids, kinds, contents] = [lineage.ids.slice(), lineage.kinds.slice(), lineage.contents.slice()];
+  const changed = new Set<number>();
+  for (const { id, contentIn } of getDb().all<{ id: number; contentIn: number }>(sql`
+    select id, content_in as contentIn from lots where id in (select value from json_each(${JSON.stringify(hit)}))`)) {
+    const n = lineage.at.get(id)!;
+    if (contents[n] === contentIn) continue;
+    if (passesOn(kinds[n]!, contents[n]!) !== passesOn(kinds[n]!, contentIn)) return null;
+    contents[n] = contentIn;
+    changed.add(id);
+  }
+  // A read takes no edge into a lot that passes nothing on.
+  const added = getDb()
+    .all<{ child: number; parent: number; weight: number; kind: string; contentIn: number }>(sql`
+      select e.child_lot_id as child, e.parent_lot_id as parent, e.weight, p.kind, p.content_in as contentIn
+      from lineage_edges e join lots p on p.id = e.parent_lot_id
+      where e.id > ${seen.edge} and e.child_lot_id in (select value from json_each(${JSON.stringify(hit)})) order by e.id`)
+    .filter((e) => passesOn(kinds[lineage.at.get(e.child)!]!, contents[lineage.at.get(e.child)!]!));
+  if (!changed.size && !added.length) return lineage;
+  const found: Found = { ids, kinds, contents, at: new Map(lineage.at) };
+  const into = new Map<number, typeof added>();
+  const step: number[] = [];
+  for (const e of added) {
+    changed.add(e.child);
+    (into.get(e.child) ?? into.set(e.child, []).get(e.child)!).push(e);
+    if (!found.at.has(e.parent)) add(found, e.parent, e.kind, e.contentIn), step.push(e.parent);
+  }
+  const behind: Edges = { children: [], parents: [], weights: [] };
+  climb(found, step, behind);
+  const updated = spliced(lineage, found, into, behind);
+  // A walk depends only on the lots it reached: kept while none of them changed.
+  for (const [key, walk] of lineage.walks) if (![...changed].some((id) => walk.has(id))) updated.walks.set(key, walk);
+  return updated;
 }
 
-export function ancestryOf(lotId: number): Ancestry {
+/**
+ * `lineage` with the lots first found behind it and the new edges into its own lots. Its lots
+ * keep their places (the new ones come after them) and their edges, copied slice by slice; a
+ * lot's new edges go where the child index puts them: by parent, then weight, and after the old
+ * ones on a tie, as their ids are higher.
+ */
+function spliced(lineage: Lineage, found: Found, into: Map<number, { parent: number; weight: number }[]>, behind: Edges): Lineage {
+  const { ids, kinds, contents, at } = found;
+  const old = lineage.ids.length;
+  const count = lineage.parent.length + [...into.values()].reduce((a, e) => a + e.length, 0) + behind.children.length;
+  const [first, parent, weight] = [new Int32Array(ids.length + 1), new Int32Array(count), new Float64Array(count)];
+  let slot = 0;
+  for (let n = 0; n < old; n++) {
+    first[n] = slot;
+    const [from, to] = [lineage.first[n]!, lineage.first[n + 1]!];
+    const more = into.get(ids[n]!);
+    if (!more) {
+      parent.set(lineage.parent.subarray(from, to), slot), weight.set(lineage.weight.subarray(from, to), slot);
+      slot += to - from;
+      continue;
+    }
+    const own: { parent: number; weight: number }[] = [];
+    for (let e = from; e < to; e++) own.push({ parent: ids[lineage.parent[e]!]!, weight: lineage.weight[e]! });
+    own.push(...more);
+    own.sort((a, b) => a.parent - b.parent || a.weight - b.weight);
+    for (const e of own) (parent[slot] = at.get(e.parent)!), (weight[slot++] = e.weight);
+  }
+  // The lots first found: their edges as read, bucketed by child in the order read, as `indexed` does.
+  const begin = slot;
+  for (const child of behind.children) first[at.get(child)! + 1]!++;
+  first[old] = begin;
+  for (let n = old; n < ids.length; n++) first[n + 1]! += first[n]!;
+  const next = first.slice(old, ids.length);
+  behind.children.forEach((child, e) => {
+    const place = next[at.get(child)! - old]!++;
+    parent[place] = at.get(behind.parents[e]!)!;
+    weight[place] = behind.weights[e]!;
+  });
+  const lots = new Map(lineage.lots);
+  for (let n = 0; n < ids.length; n++) if (n >= old || contents[n] !== lineage.contents[n]) lots.set(ids[n]!, { kind: kinds[n]!, contentIn: contents[n]! });
+  const described = [...lineage.described, ...ids.slice(old).filter((_, n) => kinds[old + n] === "tank" || kinds[old + n] === "polished")];
+  const scratch = { waiting: new Int32Array(ids.length), seen: new Uint8Array(ids.length), share: new Float64Array(ids.length), given: new Uint8Array(ids.length) };
+  return { lots, at, ids, kinds, contents, first, parent, weight, described, walks: new Map(), scratch };
+}
+
+/**
+ * Reads made as one: every statement sees the ledger as it stood at the mark, so no edge is
+ * taken twice by a lineage brought up to date (once read, once as new) when another process
+ * writes meanwhile. Nested in a caller's transaction it is a savepoint.
+ */
+let snapshot: { sqlite: ReturnType<typeof getSqlite>; read: (lotId: number) => Lineage } | undefined;
+
+function lineageNow(lotId: number): Lineage {
+  const sqlite = getSqlite();
+  if (snapshot?.sqlite !== sqlite) snapshot = { sqlite, read: sqlite.transaction((id: number) => keptOrRead(id)) };
+  return snapshot.read(lotId);
+}
+
+function keptOrRead(lotId: number): Lineage {
   const now = ledgerMark();
   const kept = recent.get(lotId);
-  const lineage = kept && unchanged(kept.lineage, kept.seen, now) ? kept.lineage : readLineage(lotId);
+  const lineage = (kept && broughtUp(kept.lineage, kept.seen, now)) ?? readLineage(lotId);
   recent.delete(lotId);
   recent.set(lotId, { seen: now, lineage });
   if (recent.size > KEEP) recent.delete(recent.keys().next().value!);
-  // Codes, tank attributes and ratios are read fresh every time: they are not tied to events.
+  return lineage;
+}
+
+/** The lineage as a read now gives it, neither kept nor brought up to date: what the tests hold a kept one to. */
+export function ancestryReadAnew(lotId: number): Ancestry {
+  return withDetails(readLineage(lotId));
+}
+
+export function ancestryOf(lotId: number): Ancestry {
+  return withDetails(lineageNow(lotId));
+}
+
+/** Codes, tank attributes and ratios are read fresh every time: they are not tied to events. */
+function withDetails(lineage: Lineage): Ancestry {
   const details = new Map(
     getDb()
       .all<{ id: number; code: string; attributes: string | null; polishingRatioPct: number | null }>(sql`
@@ -181,7 +303,7 @@ export function fractionsUp(ancestry: Ancestry, start: number, stop: readonly st
 
 function walkUp(ancestry: Ancestry, start: number, stop: readonly string[]): Map<number, number> {
   const { at, ids, kinds, contents, first, parent, weight } = ancestry;
-  const passesOn = (n: number) => kinds[n] !== "harvest" && !stop.includes(kinds[n]!) && contents[n]! > 0;
+  const goesOn = (n: number) => !stop.includes(kinds[n]!) && passesOn(kinds[n]!, contents[n]!);
   const from = at.get(start);
   if (from === undefined) return new Map([[start, 1]]);
   const { waiting, seen, share, given } = ancestry.scratch;
@@ -191,7 +313,7 @@ function walkUp(ancestry: Ancestry, start: number, stop: readonly string[]): Map
   const touched = [from];
   while (todo.length) {
     const n = todo.pop()!;
-    if (!passesOn(n)) continue;
+    if (!goesOn(n)) continue;
     for (let e = first[n]!; e < first[n + 1]!; e++) {
       const p = parent[e]!;
       waiting[p]!++;
@@ -205,7 +327,7 @@ function walkUp(ancestry: Ancestry, start: number, stop: readonly string[]): Map
   const ready = [from];
   while (ready.length) {
     const n = ready.pop()!;
-    if (!passesOn(n)) continue;
+    if (!goesOn(n)) continue;
     const [own, contentIn] = [share[n]!, contents[n]!];
     for (let e = first[n]!; e < first[n + 1]!; e++) {
       const p = parent[e]!;
