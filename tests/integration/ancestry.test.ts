@@ -2,7 +2,8 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { SQLiteSyncDialect } from "drizzle-orm/sqlite-core";
 import { getSqlite } from "@/server/platform/db";
 import { kojiFraction } from "@/server/floor/tanks";
-import { ancestryOf, lotsOfKindUp, lotsUpThrough, touchedSince } from "@/server/trace/ancestry";
+import { ancestryOf, lotsOfKindUp, lotsUpThrough } from "@/server/trace/ancestry";
+import { touchedSince } from "@/server/trace/edge-index";
 import { claimsForLot } from "@/server/trace/claims";
 
 // A branching ledger written row by row: two tanks from koji, steamed and polished rice, their

@@ -1,14 +1,15 @@
 import "server-only";
 import { sql } from "drizzle-orm";
 import { getDb, getSqlite } from "../platform/db";
+import { CHECK_AT_MOST, contentOf, edgeIndexAt, edgesOf, kindOf, ledgerMark, touchedSince, type EdgeIndex, type LedgerMark } from "./edge-index";
 
 /** A lot behind another; code, attributes and polishing ratio are read for tanks and polished lots only. */
 export type AncestorLot = { id: number; code: string; kind: string; contentIn: number; attributes: string | null; polishingRatioPct: number | null };
 
 type Lineage = {
-  lots: Map<number, { kind: string; contentIn: number }>;
-  /** Lots by position (ids, kinds, contents) and each lot's recorded edges as a slice of `parent`/`weight` (from `first[n]` to `first[n + 1]`). */
-  at: Map<number, number>;
+  /** Each lot's place by id, plus one (0: not in the lineage); as long as the ledger's lot ids when read. */
+  at: Int32Array;
+  /** Lots by place (ids, kinds, contents) and each lot's recorded edges as a slice of `parent`/`weight` (from `first[n]` to `first[n + 1]`). */
   ids: number[];
   kinds: string[];
   contents: number[];
@@ -26,9 +27,17 @@ type Lineage = {
 /** The distinct lots behind a lot and the edges among them, with the tanks' and polished lots' current details. */
 export type Ancestry = Lineage & { details: Map<number, { code: string; attributes: string | null; polishingRatioPct: number | null }> };
 
-/** Lots by position as a lineage is read, and the edges read, in the order read. */
-type Found = { ids: number[]; kinds: string[]; contents: number[]; at: Map<number, number> };
-type Edges = { children: number[]; parents: number[]; weights: number[] };
+/** A lot's place in a lineage, or -1. */
+const placeOf = (at: Int32Array, id: number) => (id < at.length ? at[id]! - 1 : -1);
+
+/** A lot of the lineage with its kind and content, or undefined. */
+export function lotOf(lineage: Lineage, id: number): { kind: string; contentIn: number } | undefined {
+  const n = placeOf(lineage.at, id);
+  return n < 0 ? undefined : { kind: lineage.kinds[n]!, contentIn: lineage.contents[n]! };
+}
+
+/** Lots as a lineage is read, by place, and their edges (parents by place) in the order read. */
+type Found = { at: Int32Array; ids: number[]; kinds: string[]; contents: number[]; first: number[]; parents: number[]; weights: number[] };
 
 /** Lots with no content, and harvest lots, pass nothing on: their edges are not read. */
 const passesOn = (kind: string, contentIn: number) => kind !== "harvest" && contentIn > 0;
@@ -38,80 +47,50 @@ const passesOn = (kind: string, contentIn: number) => kind !== "harvest" && cont
  * (a blend of blends reaches its rice by tens of thousands of paths). Lots with no content pass
  * nothing on, so the walk stops there as the fraction walks do.
  */
-function readLineage(lotId: number): Lineage {
-  const head = getDb().get<{ kind: string; contentIn: number }>(sql`select kind, content_in as contentIn from lots where id = ${lotId}`);
-  const found: Found = { ids: [], kinds: [], contents: [], at: new Map() };
-  if (head) add(found, lotId, head.kind, head.contentIn);
-  const edges: Edges = { children: [], parents: [], weights: [] };
-  climb(found, found.ids.slice(), edges);
-  return indexed(found, edges);
+function readLineage(lotId: number, index: EdgeIndex): Lineage {
+  const found: Found = { at: new Int32Array(index.size), ids: [], kinds: [], contents: [], first: [], parents: [], weights: [] };
+  if (kindOf(index, lotId)) place(found, lotId, index);
+  readFrom(found, 0, index);
+  return lineageOf(found);
 }
 
-function add(found: Found, id: number, kind: string, contentIn: number) {
-  found.at.set(id, found.ids.length);
-  found.ids.push(id), found.kinds.push(kind), found.contents.push(contentIn);
+function place(found: Found, id: number, index: EdgeIndex): number {
+  found.at[id] = found.ids.length + 1;
+  found.ids.push(id), found.kinds.push(kindOf(index, id)!), found.contents.push(contentOf(index, id));
+  return found.ids.length - 1;
 }
 
 /**
- * Reads the edges into the lots of `step` that pass rice on, then into every lot first found
- * behind them, one step up at a time, each lot's edges once: one recursive statement read every
- * edge twice (to find the lots, then to hand the edges over) and kept a sorted copy of the lots.
- * Every edge as recorded: a link and its reversal both pass, and cancel in the sums.
+ * Reads the edges into the lots from place `from` on, in the order of their places, and places
+ * each lot first found behind them after the others, so that the reading goes on to it: each
+ * lot's edges once, as a breadth-first walk up. Every edge as recorded: a link and its reversal
+ * both pass, and cancel in the sums.
  */
-function climb(found: Found, step: number[], edges: Edges) {
-  const { at, kinds, contents } = found;
-  while (step.length) {
-    const open = step.filter((id) => passesOn(kinds[at.get(id)!]!, contents[at.get(id)!]!));
-    step = [];
-    if (!open.length) break;
-    const read = parentsStep(open);
-    read.children.forEach((child, n) => {
-      const parent = read.parents[n]!;
-      edges.children.push(child), edges.parents.push(parent), edges.weights.push(read.weights[n]!);
-      if (!at.has(parent)) add(found, parent, read.kinds[n]!, read.contents[n]!), step.push(parent);
-    });
+function readFrom(found: Found, from: number, index: EdgeIndex) {
+  const { at, ids, kinds, contents, first, parents, weights } = found;
+  for (let n = from; n < ids.length; n++) {
+    first.push(parents.length);
+    if (!passesOn(kinds[n]!, contents[n]!)) continue;
+    const into = edgesOf(index, ids[n]!);
+    for (let e = 0; e < into.parents.length; e++) {
+      const parent = into.parents[e]!;
+      const p = parent < at.length ? at[parent]! - 1 : -1;
+      parents.push(p < 0 ? place(found, parent, index) : p), weights.push(into.weights[e]!);
+    }
   }
+  first.push(parents.length);
 }
 
 /**
- * The recorded edges into these lots, each with its parent's kind and content. Handed over as
- * flat JSON arrays built inside SQLite: thousands of rows cost more to pass to JavaScript one
- * by one than the walk itself.
- */
-function parentsStep(lotIds: number[]) {
-  const row = getDb().get<Record<"children" | "parents" | "weights" | "kinds" | "contents", string>>(sql`
-    select json_group_array(e.child_lot_id) as children, json_group_array(e.parent_lot_id) as parents, json_group_array(e.weight) as weights,
-      json_group_array(p.kind) as kinds, json_group_array(p.content_in) as contents
-    from json_each(${JSON.stringify(lotIds)}) c join lineage_edges e on e.child_lot_id = c.value join lots p on p.id = e.parent_lot_id`)!;
-  return {
-    children: JSON.parse(row.children) as number[],
-    parents: JSON.parse(row.parents) as number[],
-    weights: JSON.parse(row.weights) as number[],
-    kinds: JSON.parse(row.kinds) as string[],
-    contents: JSON.parse(row.contents) as number[],
-  };
-}
-
-/**
- * Each lot's edges as a slice of two typed arrays, in the order read, so that the sums add up in
+ * The lineage of what was read: each lot's edges in the order read, so that the sums add up in
  * the same order every time. That order is the child index's (lineage_child_idx: parent, then
- * weight, then id), which is how SQLite finds a lot's edges; `broughtUp` keeps it.
+ * weight, then id), which is how SQLite finds a lot's edges and how the edge index keeps them;
+ * `broughtUp` keeps it too.
  */
-function indexed({ ids, kinds, contents, at }: Found, edges: Edges): Lineage {
-  const lots = new Map(ids.map((id, n) => [id, { kind: kinds[n]!, contentIn: contents[n]! }]));
-  const first = new Int32Array(ids.length + 1);
-  for (const child of edges.children) first[at.get(child)! + 1]!++;
-  for (let n = 0; n < ids.length; n++) first[n + 1]! += first[n]!;
-  const next = first.slice(0, ids.length);
-  const [parent, weight] = [new Int32Array(edges.children.length), new Float64Array(edges.children.length)];
-  edges.children.forEach((child, n) => {
-    const slot = next[at.get(child)!]!++;
-    parent[slot] = at.get(edges.parents[n]!)!;
-    weight[slot] = edges.weights[n]!;
-  });
+function lineageOf({ at, ids, kinds, contents, first, parents, weights }: Found): Lineage {
   const described = ids.filter((_, n) => kinds[n] === "tank" || kinds[n] === "polished");
   const scratch = { waiting: new Int32Array(ids.length), seen: new Uint8Array(ids.length), share: new Float64Array(ids.length), given: new Uint8Array(ids.length) };
-  return { lots, at, ids, kinds, contents, first, parent, weight, described, walks: new Map(), scratch };
+  return { at, ids, kinds, contents, first: Int32Array.from(first), parent: Int32Array.from(parents), weight: Float64Array.from(weights), described, walks: new Map(), scratch };
 }
 
 /**
@@ -125,27 +104,6 @@ function indexed({ ids, kinds, contents, at }: Found, edges: Edges): Lineage {
  */
 const recent = new Map<number, { seen: LedgerMark; lineage: Lineage }>();
 const KEEP = 16;
-/** More rows touched than this since a lineage was read, and it is read again rather than checked. */
-const CHECK_AT_MOST = 20_000;
-
-export type LedgerMark = { event: number; edge: number };
-
-function ledgerMark(): LedgerMark {
-  const row = getDb().get<{ e: number | null; l: number | null }>(sql`select (select max(id) from events) as e, (select max(id) from lineage_edges) as l`);
-  return { event: row?.e ?? 0, edge: row?.l ?? 0 };
-}
-
-/**
- * The lots touched since `seen`: out of, drawn from, or linked into by what was recorded after it.
- * UNION ALL, so that each part reads only the rows after the mark by its own index: a UNION's
- * de-duplication made SQLite scan all three tables in lot order instead (87 ms against 0.1).
- */
-export const touchedSince = (seen: LedgerMark) => sql`
-  select json_group_array(lot_id) as lots, count(*) as n from (
-    select lot_id from event_outputs where event_id > ${seen.event}
-    union all select lot_id from event_inputs where event_id > ${seen.event}
-    union all select child_lot_id from lineage_edges where id > ${seen.edge})`;
-
 /**
  * The lineage read at `seen` as a read now would give it, or null when it must be read anew.
  * Only the kinds and contents of its lots and the edges into them make it. So an event that
@@ -158,108 +116,90 @@ export const touchedSince = (seen: LedgerMark) => sql`
  * a lot of it began or stopped passing rice on (its content went to or from nothing), which
  * changes which lots a read reaches.
  */
-function broughtUp(lineage: Lineage, seen: LedgerMark, now: LedgerMark): Lineage | null {
+function broughtUp(lineage: Lineage, seen: LedgerMark, now: LedgerMark, index: EdgeIndex): Lineage | null {
   if (seen.event === now.event && seen.edge === now.edge) return lineage;
   const row = getDb().get<{ lots: string; n: number }>(touchedSince(seen))!;
   if (row.n > CHECK_AT_MOST) return null;
-  const hit = [...new Set(JSON.parse(row.lots) as number[])].filter((id) => lineage.at.has(id));
+  const hit = [...new Set(JSON.parse(row.lots) as number[])].filter((id) => placeOf(lineage.at, id) >= 0);
   if (!hit.length) return lineage;
-  const [ids, kinds, contents] = [lineage.ids.slice(), lineage.kinds.slice(), lineage.contents.slice()];
+  const contents = lineage.contents.slice();
   const changed = new Set<number>();
-  for (const { id, contentIn } of getDb().all<{ id: number; contentIn: number }>(sql`
-    select id, content_in as contentIn from lots where id in (select value from json_each(${JSON.stringify(hit)}))`)) {
-    const n = lineage.at.get(id)!;
+  for (const id of hit) {
+    const [n, contentIn] = [placeOf(lineage.at, id), contentOf(index, id)];
     if (contents[n] === contentIn) continue;
-    if (passesOn(kinds[n]!, contents[n]!) !== passesOn(kinds[n]!, contentIn)) return null;
+    if (passesOn(lineage.kinds[n]!, contents[n]!) !== passesOn(lineage.kinds[n]!, contentIn)) return null;
     contents[n] = contentIn;
     changed.add(id);
   }
   // A read takes no edge into a lot that passes nothing on.
   const added = getDb()
-    .all<{ child: number; parent: number; weight: number; kind: string; contentIn: number }>(sql`
-      select e.child_lot_id as child, e.parent_lot_id as parent, e.weight, p.kind, p.content_in as contentIn
-      from lineage_edges e join lots p on p.id = e.parent_lot_id
-      where e.id > ${seen.edge} and e.child_lot_id in (select value from json_each(${JSON.stringify(hit)})) order by e.id`)
-    .filter((e) => passesOn(kinds[lineage.at.get(e.child)!]!, contents[lineage.at.get(e.child)!]!));
+    .all<{ child: number; parent: number; weight: number }>(sql`
+      select child_lot_id as child, parent_lot_id as parent, weight from lineage_edges
+      where id > ${seen.edge} and id <= ${now.edge} and child_lot_id in (select value from json_each(${JSON.stringify(hit)})) order by id`)
+    .filter((e) => passesOn(lineage.kinds[placeOf(lineage.at, e.child)]!, contents[placeOf(lineage.at, e.child)]!));
   if (!changed.size && !added.length) return lineage;
-  const found: Found = { ids, kinds, contents, at: new Map(lineage.at) };
-  const into = new Map<number, typeof added>();
-  const step: number[] = [];
-  for (const e of added) {
-    changed.add(e.child);
-    (into.get(e.child) ?? into.set(e.child, []).get(e.child)!).push(e);
-    if (!found.at.has(e.parent)) add(found, e.parent, e.kind, e.contentIn), step.push(e.parent);
-  }
-  const behind: Edges = { children: [], parents: [], weights: [] };
-  climb(found, step, behind);
-  const updated = spliced(lineage, found, into, behind);
+  for (const e of added) changed.add(e.child);
+  const updated = spliced(lineage, contents, added, index);
   // A walk depends only on the lots it reached: kept while none of them changed.
   for (const [key, walk] of lineage.walks) if (![...changed].some((id) => walk.has(id))) updated.walks.set(key, walk);
   return updated;
 }
 
 /**
- * `lineage` with the lots first found behind it and the new edges into its own lots. Its lots
- * keep their places (the new ones come after them) and their edges, copied slice by slice; a
- * lot's new edges go where the child index puts them: by parent, then weight, and after the old
- * ones on a tie, as their ids are higher.
+ * `lineage` with its contents as they are now, the new edges into its own lots, and the lots
+ * first found behind those read with their own lineage. Its lots keep their places (the new ones
+ * come after them) and their edges; a lot's new edges go where the child index puts them: by
+ * parent, then weight, and after the old ones on a tie, as their ids are higher.
  */
-function spliced(lineage: Lineage, found: Found, into: Map<number, { parent: number; weight: number }[]>, behind: Edges): Lineage {
-  const { ids, kinds, contents, at } = found;
+function spliced(lineage: Lineage, contents: number[], added: { child: number; parent: number; weight: number }[], index: EdgeIndex): Lineage {
+  const at = new Int32Array(Math.max(index.size, lineage.at.length));
+  at.set(lineage.at);
+  const found: Found = { at, ids: lineage.ids.slice(), kinds: lineage.kinds.slice(), contents, first: [], parents: [], weights: [] };
+  const into = new Map<number, { parent: number; weight: number }[]>();
+  for (const e of added) (into.get(e.child) ?? into.set(e.child, []).get(e.child)!).push(e);
   const old = lineage.ids.length;
-  const count = lineage.parent.length + [...into.values()].reduce((a, e) => a + e.length, 0) + behind.children.length;
-  const [first, parent, weight] = [new Int32Array(ids.length + 1), new Int32Array(count), new Float64Array(count)];
-  let slot = 0;
+  const { first, parents, weights } = found;
   for (let n = 0; n < old; n++) {
-    first[n] = slot;
+    first.push(parents.length);
     const [from, to] = [lineage.first[n]!, lineage.first[n + 1]!];
-    const more = into.get(ids[n]!);
+    const more = into.get(found.ids[n]!);
     if (!more) {
-      parent.set(lineage.parent.subarray(from, to), slot), weight.set(lineage.weight.subarray(from, to), slot);
-      slot += to - from;
+      for (let e = from; e < to; e++) parents.push(lineage.parent[e]!), weights.push(lineage.weight[e]!);
       continue;
     }
     const own: { parent: number; weight: number }[] = [];
-    for (let e = from; e < to; e++) own.push({ parent: ids[lineage.parent[e]!]!, weight: lineage.weight[e]! });
+    for (let e = from; e < to; e++) own.push({ parent: lineage.ids[lineage.parent[e]!]!, weight: lineage.weight[e]! });
     own.push(...more);
     own.sort((a, b) => a.parent - b.parent || a.weight - b.weight);
-    for (const e of own) (parent[slot] = at.get(e.parent)!), (weight[slot++] = e.weight);
+    for (const e of own) {
+      const p = placeOf(at, e.parent);
+      parents.push(p < 0 ? place(found, e.parent, index) : p), weights.push(e.weight);
+    }
   }
-  // The lots first found: their edges as read, bucketed by child in the order read, as `indexed` does.
-  const begin = slot;
-  for (const child of behind.children) first[at.get(child)! + 1]!++;
-  first[old] = begin;
-  for (let n = old; n < ids.length; n++) first[n + 1]! += first[n]!;
-  const next = first.slice(old, ids.length);
-  behind.children.forEach((child, e) => {
-    const place = next[at.get(child)! - old]!++;
-    parent[place] = at.get(behind.parents[e]!)!;
-    weight[place] = behind.weights[e]!;
-  });
-  const lots = new Map(lineage.lots);
-  for (let n = 0; n < ids.length; n++) if (n >= old || contents[n] !== lineage.contents[n]) lots.set(ids[n]!, { kind: kinds[n]!, contentIn: contents[n]! });
-  const described = [...lineage.described, ...ids.slice(old).filter((_, n) => kinds[old + n] === "tank" || kinds[old + n] === "polished")];
-  const scratch = { waiting: new Int32Array(ids.length), seen: new Uint8Array(ids.length), share: new Float64Array(ids.length), given: new Uint8Array(ids.length) };
-  return { lots, at, ids, kinds, contents, first, parent, weight, described, walks: new Map(), scratch };
+  readFrom(found, old, index);
+  return lineageOf(found);
 }
 
 /**
  * Reads made as one: every statement sees the ledger as it stood at the mark, so no edge is
  * taken twice by a lineage brought up to date (once read, once as new) when another process
- * writes meanwhile. Nested in a caller's transaction it is a savepoint.
+ * writes meanwhile, and the edge index agrees with the rest. Nested in a caller's transaction
+ * it is a savepoint.
  */
-let snapshot: { sqlite: ReturnType<typeof getSqlite>; read: (lotId: number) => Lineage } | undefined;
+let snapshot: { sqlite: ReturnType<typeof getSqlite>; read: (lotId: number, anew: boolean) => Lineage } | undefined;
 
-function lineageNow(lotId: number): Lineage {
+function lineageNow(lotId: number, anew: boolean): Lineage {
   const sqlite = getSqlite();
-  if (snapshot?.sqlite !== sqlite) snapshot = { sqlite, read: sqlite.transaction((id: number) => keptOrRead(id)) };
-  return snapshot.read(lotId);
+  if (snapshot?.sqlite !== sqlite) snapshot = { sqlite, read: sqlite.transaction((id: number, fresh: boolean) => keptOrRead(id, fresh)) };
+  return snapshot.read(lotId, anew);
 }
 
-function keptOrRead(lotId: number): Lineage {
+function keptOrRead(lotId: number, anew: boolean): Lineage {
   const now = ledgerMark();
+  const index = edgeIndexAt(now);
+  if (anew) return readLineage(lotId, index);
   const kept = recent.get(lotId);
-  const lineage = (kept && broughtUp(kept.lineage, kept.seen, now)) ?? readLineage(lotId);
+  const lineage = (kept && broughtUp(kept.lineage, kept.seen, now, index)) ?? readLineage(lotId, index);
   recent.delete(lotId);
   recent.set(lotId, { seen: now, lineage });
   if (recent.size > KEEP) recent.delete(recent.keys().next().value!);
@@ -268,11 +208,11 @@ function keptOrRead(lotId: number): Lineage {
 
 /** The lineage as a read now gives it, neither kept nor brought up to date: what the tests hold a kept one to. */
 export function ancestryReadAnew(lotId: number): Ancestry {
-  return withDetails(readLineage(lotId));
+  return withDetails(lineageNow(lotId, true));
 }
 
 export function ancestryOf(lotId: number): Ancestry {
-  return withDetails(lineageNow(lotId));
+  return withDetails(lineageNow(lotId, false));
 }
 
 /** Codes, tank attributes and ratios are read fresh every time: they are not tied to events. */
@@ -304,8 +244,8 @@ export function fractionsUp(ancestry: Ancestry, start: number, stop: readonly st
 function walkUp(ancestry: Ancestry, start: number, stop: readonly string[]): Map<number, number> {
   const { at, ids, kinds, contents, first, parent, weight } = ancestry;
   const goesOn = (n: number) => !stop.includes(kinds[n]!) && passesOn(kinds[n]!, contents[n]!);
-  const from = at.get(start);
-  if (from === undefined) return new Map([[start, 1]]);
+  const from = placeOf(at, start);
+  if (from < 0) return new Map([[start, 1]]);
   const { waiting, seen, share, given } = ancestry.scratch;
   // Edges counted only from lots the walk passes through, so that Kahn's order is not held back by lots it never reaches.
   seen[from] = 1;
@@ -344,8 +284,8 @@ function walkUp(ancestry: Ancestry, start: number, stop: readonly string[]): Map
 /** Lots of one kind behind `start` with the fraction they gave, as the path-by-path walk answers. */
 export function lotsOfKindUp(ancestry: Ancestry, start: number, kind: "tank" | "polished"): (AncestorLot & { fraction: number })[] {
   return [...fractionsUp(ancestry, start, [kind])]
-    .filter(([id, f]) => ancestry.lots.get(id)?.kind === kind && Math.abs(f) > 1e-9)
-    .map(([id, fraction]) => ({ id, ...ancestry.lots.get(id)!, ...ancestry.details.get(id)!, fraction }))
+    .filter(([id, f]) => lotOf(ancestry, id)?.kind === kind && Math.abs(f) > 1e-9)
+    .map(([id, fraction]) => ({ id, ...lotOf(ancestry, id)!, ...ancestry.details.get(id)!, fraction }))
     .sort((a, b) => a.id - b.id);
 }
 
@@ -356,8 +296,8 @@ export function lotsOfKindUp(ancestry: Ancestry, start: number, kind: "tank" | "
  */
 export function lotsUpThrough(ancestry: Ancestry, start: number, through: readonly string[]): number[] | null {
   const { at, ids, kinds, contents, first, parent } = ancestry;
-  const from = at.get(start);
-  if (from === undefined) return null;
+  const from = placeOf(at, start);
+  if (from < 0) return null;
   const seen = new Uint8Array(ids.length);
   seen[from] = 1;
   const todo = [from];
