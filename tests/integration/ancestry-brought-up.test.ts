@@ -195,4 +195,29 @@ describe("a kept lineage brought up to date", () => {
     expect(counts.changed).toBeGreaterThan(100);
     expect(counts.broughtUp / counts.changed).toBeGreaterThan(0.5);
   });
+
+  // A bottling checks the claims of the sake it bottles inside its own write: what that reads may
+  // be rolled back, and an edge id rolled back is given again to the next edge recorded.
+  it("reads a caller's uncommitted edges inside its transaction and keeps none of them once it is rolled back", () => {
+    const bottle = made.filter((l) => l.layer === 8)[1]!;
+    const parent = made.find((l) => l.layer === 5)!;
+    const shapeNow = () => shape(ancestryOf(bottle.id));
+    expect(shapeNow()).toEqual(shapeBySql(bottle.id));
+    let inside: ReturnType<typeof shape> = [];
+    let expected: ReturnType<typeof shapeBySql> = [];
+    const write = db().transaction(() => {
+      link(recordEvent("blending"), parent, bottle, 77);
+      [inside, expected] = [shapeNow(), shapeBySql(bottle.id)];
+      throw new Error("rolled back");
+    });
+    expect(() => write()).toThrow("rolled back");
+    expect(inside, "the transaction's own edge read inside it").toEqual(expected);
+    expect(inside.find((l) => l.id === bottle.id)!.edges).toContainEqual([parent.id, 77]);
+    // Rolled back: gone from the lineage; the next edge recorded takes the same id and is read.
+    expect(shapeNow(), "after the rollback").toEqual(shapeBySql(bottle.id));
+    expect(shapeNow().find((l) => l.id === bottle.id)!.edges).not.toContainEqual([parent.id, 77]);
+    link(recordEvent("blending"), parent, bottle, 33);
+    expect(shapeNow(), "after the next edge").toEqual(shapeBySql(bottle.id));
+    expect(shape(ancestryReadAnew(bottle.id))).toEqual(shapeBySql(bottle.id));
+  });
 });

@@ -49,14 +49,20 @@ const passesOn = (kind: string, contentIn: number) => kind !== "harvest" && cont
  */
 function readLineage(lotId: number, index: EdgeIndex): Lineage {
   const found: Found = { at: new Int32Array(index.size), ids: [], kinds: [], contents: [], first: [], parents: [], weights: [] };
-  if (kindOf(index, lotId)) place(found, lotId, index);
+  const kind = kindOf(index, lotId);
+  if (kind) place(found, lotId, kind, contentOf(index, lotId));
   readFrom(found, 0, index);
   return lineageOf(found);
 }
 
-function place(found: Found, id: number, index: EdgeIndex): number {
+function place(found: Found, id: number, kind: string, contentIn: number): number {
+  if (id >= found.at.length) {
+    const at = new Int32Array(Math.ceil((id + 1) * 1.25));
+    at.set(found.at);
+    found.at = at;
+  }
   found.at[id] = found.ids.length + 1;
-  found.ids.push(id), found.kinds.push(kindOf(index, id)!), found.contents.push(contentOf(index, id));
+  found.ids.push(id), found.kinds.push(kind), found.contents.push(contentIn);
   return found.ids.length - 1;
 }
 
@@ -67,18 +73,55 @@ function place(found: Found, id: number, index: EdgeIndex): number {
  * both pass, and cancel in the sums.
  */
 function readFrom(found: Found, from: number, index: EdgeIndex) {
-  const { at, ids, kinds, contents, first, parents, weights } = found;
+  const { ids, kinds, contents, first, parents, weights } = found;
   for (let n = from; n < ids.length; n++) {
     first.push(parents.length);
     if (!passesOn(kinds[n]!, contents[n]!)) continue;
     const into = edgesOf(index, ids[n]!);
     for (let e = 0; e < into.parents.length; e++) {
       const parent = into.parents[e]!;
-      const p = parent < at.length ? at[parent]! - 1 : -1;
-      parents.push(p < 0 ? place(found, parent, index) : p), weights.push(into.weights[e]!);
+      const p = placeOf(found.at, parent);
+      parents.push(p < 0 ? place(found, parent, kindOf(index, parent)!, contentOf(index, parent)) : p), weights.push(into.weights[e]!);
     }
   }
   first.push(parents.length);
+}
+
+/**
+ * The same reading from SQLite itself, a step up at a time, for a caller inside a transaction of
+ * its own (a bottling checks the claims of the sake it bottles): what it reads may yet be rolled
+ * back, so neither the edge index nor a kept lineage may take it in. Each lot's edges in the
+ * child index's order, named, and the lots placed as `readFrom` places them.
+ */
+function readFromDatabase(found: Found) {
+  const { ids, kinds, contents, first, parents, weights } = found;
+  for (let start = 0; start < ids.length; ) {
+    const end = ids.length;
+    const open = ids.slice(start, end).filter((_, k) => passesOn(kinds[start + k]!, contents[start + k]!));
+    const rows = getDb().all<{ child: number; parent: number; weight: number; kind: string; contentIn: number }>(sql`
+      select e.child_lot_id as child, e.parent_lot_id as parent, e.weight, p.kind, p.content_in as contentIn
+      from json_each(${JSON.stringify(open)}) c join lineage_edges e on e.child_lot_id = c.value join lots p on p.id = e.parent_lot_id
+      order by c.key, e.parent_lot_id, e.weight, e.id`);
+    let r = 0;
+    for (let n = start; n < end; n++) {
+      first.push(parents.length);
+      for (; r < rows.length && rows[r]!.child === ids[n]; r++) {
+        const row = rows[r]!;
+        const p = placeOf(found.at, row.parent);
+        parents.push(p < 0 ? place(found, row.parent, row.kind, row.contentIn) : p), weights.push(row.weight);
+      }
+    }
+    start = end;
+  }
+  first.push(parents.length);
+}
+
+function readLineageFromDatabase(lotId: number): Lineage {
+  const head = getDb().get<{ kind: string; contentIn: number }>(sql`select kind, content_in as contentIn from lots where id = ${lotId}`);
+  const found: Found = { at: new Int32Array(lotId + 1), ids: [], kinds: [], contents: [], first: [], parents: [], weights: [] };
+  if (head) place(found, lotId, head.kind, head.contentIn);
+  readFromDatabase(found);
+  return lineageOf(found);
 }
 
 /**
@@ -172,8 +215,8 @@ function spliced(lineage: Lineage, contents: number[], added: { child: number; p
     own.push(...more);
     own.sort((a, b) => a.parent - b.parent || a.weight - b.weight);
     for (const e of own) {
-      const p = placeOf(at, e.parent);
-      parents.push(p < 0 ? place(found, e.parent, index) : p), weights.push(e.weight);
+      const p = placeOf(found.at, e.parent);
+      parents.push(p < 0 ? place(found, e.parent, kindOf(index, e.parent)!, contentOf(index, e.parent)) : p), weights.push(e.weight);
     }
   }
   readFrom(found, old, index);
@@ -212,6 +255,8 @@ export function ancestryReadAnew(lotId: number): Ancestry {
 }
 
 export function ancestryOf(lotId: number): Ancestry {
+  // Inside a caller's transaction, what is read may yet be rolled back: read from SQLite, keep nothing.
+  if (getSqlite().inTransaction) return withDetails(readLineageFromDatabase(lotId));
   return withDetails(lineageNow(lotId, false));
 }
 
