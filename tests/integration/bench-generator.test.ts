@@ -2,6 +2,8 @@ import { mkdirSync, rmSync } from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getSqlite } from "@/server/platform/db";
+import { ancestryOf } from "@/server/trace/ancestry";
+import { provenanceOf } from "@/server/trace/provenance";
 import { generateLedger, TINY, type LedgerCounts } from "../../bench/generate-ledger";
 
 // The benchmark's synthetic ledger, generated small. The invariants are those of the mixing
@@ -31,7 +33,23 @@ type Digest = {
   walked: number;
   walkDifference: number;
   multiSeasonBlends: number;
+  datedBottlings: number;
+  datesDiffering: string[];
 };
+
+/**
+ * A bottling's key dates as the provenance card read them before it looked up only the lots that
+ * can come out of a dated step: every lot behind it through bottlings, blends, sake and tanks,
+ * whatever its kind, by SQLite's own recursive read.
+ */
+const DATES = `with recursive up(lot_id) as (
+    select ?
+    union
+    select e.parent_lot_id from up join lineage_edges e on e.child_lot_id = up.lot_id
+    join lots c on c.id = up.lot_id where c.kind in ('bottled', 'blend', 'sake', 'tank'))
+  select ev.step, min(ev.at) as at from up join event_outputs o on o.lot_id = up.lot_id join events ev on ev.id = o.event_id
+  where ev.step in ('mash-addition', 'pressing', 'bottling') and not exists (select 1 from events c where c.corrects = ev.id)
+  group by ev.step, up.lot_id`;
 
 /** The bare recursive walk over lineage edges (as in trace.test.ts): independent of the composition rows. */
 const WALK = `with recursive up(lot_id, frac) as (
@@ -57,7 +75,17 @@ async function generate(name: string, seasons: number, seed: number): Promise<Di
     const walked = new Map((walk.all(lot.id) as { id: number; share: number }[]).map((r) => [r.id, r.share]));
     for (const id of new Set([...index.keys(), ...walked.keys()])) walkDifference = Math.max(walkDifference, Math.abs((index.get(id) ?? 0) - (walked.get(id) ?? 0)));
   }
+  const dates = db.prepare(DATES);
+  const bottlings = db.prepare("select id, code, kind, content_in as contentIn from lots where kind = 'bottled'").all() as { id: number; code: string; kind: string; contentIn: number }[];
+  const datesDiffering = bottlings.filter((b) => {
+    const card = provenanceOf(b, null, ancestryOf(b.id));
+    const rows = dates.all(b.id) as { step: string; at: number }[];
+    const of = (step: string) => rows.filter((r) => r.step === step).map((r) => new Date(r.at).toISOString()).sort();
+    return JSON.stringify([card.brewedOn, card.pressedOn, card.bottledOn].map((d) => [...d].sort())) !== JSON.stringify([of("mash-addition"), of("pressing"), of("bottling")]);
+  });
   return {
+    datedBottlings: bottlings.length,
+    datesDiffering: datesDiffering.map((b) => b.code),
     counts,
     lots: (db.prepare("select group_concat(code || ':' || kind || ':' || round(quantity_in, 3), ',') as s from (select * from lots order by id)").get() as { s: string }).s,
     stepCounts: byKey(db.prepare("select step as k, count(*) as n from events group by step").all()),
@@ -111,6 +139,12 @@ describe("the benchmark ledger generator (TINY shape)", () => {
     expect(one.walked).toBeGreaterThan(10);
     expect(one.walkDifference).toBeLessThan(1e-9);
     expect(two.walkDifference).toBeLessThan(1e-9);
+  });
+
+  it("gives every bottling the key dates of every lot behind it, though it looks up only the kinds a dated step makes", () => {
+    expect(one.datedBottlings).toBeGreaterThan(10);
+    expect(one.datesDiffering).toEqual([]);
+    expect(two.datesDiffering).toEqual([]);
   });
 
   it("is deterministic for a seed and grows season by season, linked by aged stock", () => {

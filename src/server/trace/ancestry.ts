@@ -19,10 +19,17 @@ type Lineage = {
   /** Tanks and polished lots, whose codes and figures are read with every answer. */
   described: number[];
   /** Walks already made over this lineage, by start and stop kinds. */
-  walks: Map<string, Map<number, number>>;
+  walks: Map<string, Walk>;
   /** Per-lot counters of a walk, made once per lineage and cleared after each walk (a blend's 144 tanks are 288 walks). */
-  scratch: { waiting: Int32Array; seen: Uint8Array; share: Float64Array; given: Uint8Array };
+  scratch: { waiting: Int32Array; seen: Uint8Array; share: Float64Array; given: Uint8Array; goes: Map<string, Uint8Array> };
 };
+
+/**
+ * A walk up from a lot: the lots it reached, by place in the lineage, in the order each was first
+ * given a share, and the fraction of the lot's content each gave. Two arrays rather than a Map:
+ * a blend's walk reaches 20,000 lots, and a Map of them cost more than the walk.
+ */
+export type Walk = { places: number[]; shares: number[] };
 
 /** The distinct lots behind a lot and the edges among them, with the tanks' and polished lots' current details. */
 export type Ancestry = Lineage & { details: Map<number, { code: string; attributes: string | null; polishingRatioPct: number | null }> };
@@ -78,7 +85,7 @@ function readFrom(found: Found, from: number, index: EdgeIndex) {
     first.push(parents.length);
     if (!passesOn(kinds[n]!, contents[n]!)) continue;
     const into = edgesOf(index, ids[n]!);
-    for (let e = 0; e < into.parents.length; e++) {
+    for (let e = into.from; e < into.to; e++) {
       const parent = into.parents[e]!;
       const p = placeOf(found.at, parent);
       parents.push(p < 0 ? place(found, parent, kindOf(index, parent)!, contentOf(index, parent)) : p), weights.push(into.weights[e]!);
@@ -132,7 +139,7 @@ function readLineageFromDatabase(lotId: number): Lineage {
  */
 function lineageOf({ at, ids, kinds, contents, first, parents, weights }: Found): Lineage {
   const described = ids.filter((_, n) => kinds[n] === "tank" || kinds[n] === "polished");
-  const scratch = { waiting: new Int32Array(ids.length), seen: new Uint8Array(ids.length), share: new Float64Array(ids.length), given: new Uint8Array(ids.length) };
+  const scratch = { waiting: new Int32Array(ids.length), seen: new Uint8Array(ids.length), share: new Float64Array(ids.length), given: new Uint8Array(ids.length), goes: new Map() };
   return { at, ids, kinds, contents, first: Int32Array.from(first), parent: Int32Array.from(parents), weight: Float64Array.from(weights), described, walks: new Map(), scratch };
 }
 
@@ -183,8 +190,11 @@ function broughtUp(lineage: Lineage, seen: LedgerMark, now: LedgerMark, index: E
   if (!changed.size && !added.length) return lineage;
   for (const e of added) changed.add(e.child);
   const updated = spliced(lineage, contents, added, index);
-  // A walk depends only on the lots it reached: kept while none of them changed.
-  for (const [key, walk] of lineage.walks) if (![...changed].some((id) => walk.has(id))) updated.walks.set(key, walk);
+  // A walk depends only on the lots it reached: kept while none of them changed. The places of
+  // the lots read before are kept, so a kept walk reads as it did.
+  const moved = new Uint8Array(lineage.ids.length);
+  for (const id of changed) moved[placeOf(lineage.at, id)] = 1;
+  for (const [key, walk] of lineage.walks) if (!walk.places.some((n) => moved[n] === 1)) updated.walks.set(key, walk);
   return updated;
 }
 
@@ -233,7 +243,8 @@ let snapshot: { sqlite: ReturnType<typeof getSqlite>; read: (lotId: number, anew
 
 function lineageNow(lotId: number, anew: boolean): Lineage {
   const sqlite = getSqlite();
-  if (snapshot?.sqlite !== sqlite) snapshot = { sqlite, read: sqlite.transaction((id: number, fresh: boolean) => keptOrRead(id, fresh)) };
+  // Another database (a test's own file): nothing kept from the one before holds there.
+  if (snapshot?.sqlite !== sqlite) snapshot = { sqlite, read: sqlite.transaction((id: number, fresh: boolean) => keptOrRead(id, fresh)) }, recent.clear();
   return snapshot.read(lotId, anew);
 }
 
@@ -277,7 +288,7 @@ function withDetails(lineage: Lineage): Ancestry {
  * `stop` kinds (and harvest lots). Summed over every path, as the path-by-path walk sums, but
  * each net edge is multiplied once, in topological order; reversed edges cancel in the sums.
  */
-export function fractionsUp(ancestry: Ancestry, start: number, stop: readonly string[]): Map<number, number> {
+export function fractionsUp(ancestry: Ancestry, start: number, stop: readonly string[]): Walk {
   const key = `${start}:${stop.join(",")}`;
   const made = ancestry.walks.get(key);
   if (made) return made;
@@ -286,34 +297,36 @@ export function fractionsUp(ancestry: Ancestry, start: number, stop: readonly st
   return fractions;
 }
 
-function walkUp(ancestry: Ancestry, start: number, stop: readonly string[]): Map<number, number> {
-  const { at, ids, kinds, contents, first, parent, weight } = ancestry;
-  const goesOn = (n: number) => !stop.includes(kinds[n]!) && passesOn(kinds[n]!, contents[n]!);
+function walkUp(ancestry: Ancestry, start: number, stop: readonly string[]): Walk {
+  const { at, kinds, contents, first, parent, weight } = ancestry;
   const from = placeOf(at, start);
-  if (from < 0) return new Map([[start, 1]]);
+  if (from < 0) return { places: [], shares: [] };
   const { waiting, seen, share, given } = ancestry.scratch;
+  // Which lots pass their share on, marked once: a lot of a `stop` kind does not, nor one that passes nothing on.
+  const goes = stopping(ancestry, stop);
   // Edges counted only from lots the walk passes through, so that Kahn's order is not held back by lots it never reaches.
   seen[from] = 1;
   const todo = [from];
   const touched = [from];
   while (todo.length) {
     const n = todo.pop()!;
-    if (!goesOn(n)) continue;
+    if (!goes[n]) continue;
     for (let e = first[n]!; e < first[n + 1]!; e++) {
       const p = parent[e]!;
       waiting[p]!++;
       if (!seen[p]) (seen[p] = 1), todo.push(p), touched.push(p);
     }
   }
-  // Fractions by position; `reached` keeps the order each lot was first given one, as the Map of before did.
+  // Fractions by place; `reached` keeps the order each lot was first given one.
   const reached = [from];
   share[from] = 1;
   given[from] = 1;
   const ready = [from];
   while (ready.length) {
     const n = ready.pop()!;
-    if (!goesOn(n)) continue;
-    const [own, contentIn] = [share[n]!, contents[n]!];
+    if (!goes[n]) continue;
+    const own = share[n]!;
+    const contentIn = contents[n]!;
     for (let e = first[n]!; e < first[n + 1]!; e++) {
       const p = parent[e]!;
       share[p] = share[p]! + (own * weight[e]!) / contentIn;
@@ -321,17 +334,38 @@ function walkUp(ancestry: Ancestry, start: number, stop: readonly string[]): Map
       if (--waiting[p]! === 0) ready.push(p);
     }
   }
-  const fractions = new Map(reached.map((n) => [ids[n]!, share[n]!]));
+  const walk = { places: reached, shares: reached.map((n) => share[n]!) };
   for (const n of touched) (waiting[n] = 0), (seen[n] = 0), (share[n] = 0), (given[n] = 0);
-  return fractions;
+  return walk;
+}
+
+/** For each lot of the lineage, whether a walk stopping at `stop` kinds goes on through it; made once per lineage and stop. */
+function stopping(ancestry: Ancestry, stop: readonly string[]): Uint8Array {
+  const key = stop.join(",");
+  const made = ancestry.scratch.goes.get(key);
+  if (made) return made;
+  const goes = Uint8Array.from(ancestry.kinds, (kind, n) => (!stop.includes(kind) && passesOn(kind, ancestry.contents[n]!) ? 1 : 0));
+  ancestry.scratch.goes.set(key, goes);
+  return goes;
 }
 
 /** Lots of one kind behind `start` with the fraction they gave, as the path-by-path walk answers. */
 export function lotsOfKindUp(ancestry: Ancestry, start: number, kind: "tank" | "polished"): (AncestorLot & { fraction: number })[] {
-  return [...fractionsUp(ancestry, start, [kind])]
-    .filter(([id, f]) => lotOf(ancestry, id)?.kind === kind && Math.abs(f) > 1e-9)
-    .map(([id, fraction]) => ({ id, ...lotOf(ancestry, id)!, ...ancestry.details.get(id)!, fraction }))
-    .sort((a, b) => a.id - b.id);
+  const { places, shares } = fractionsUp(ancestry, start, [kind]);
+  const found: (AncestorLot & { fraction: number })[] = [];
+  places.forEach((n, i) => {
+    if (ancestry.kinds[n] !== kind || !(Math.abs(shares[i]!) > 1e-9)) return;
+    const id = ancestry.ids[n]!;
+    found.push({ id, kind, contentIn: ancestry.contents[n]!, ...ancestry.details.get(id)!, fraction: shares[i]! });
+  });
+  return found.sort((a, b) => a.id - b.id);
+}
+
+/** The sum of the fractions a walk gives lots of one kind, in the order reached. */
+export function shareOfKind(ancestry: Ancestry, walk: Walk, kind: string): number {
+  let sum = 0;
+  walk.places.forEach((n, i) => void (ancestry.kinds[n] === kind && (sum += walk.shares[i]!)));
+  return sum;
 }
 
 /**

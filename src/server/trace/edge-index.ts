@@ -128,7 +128,8 @@ export function edgeIndexAt(now: LedgerMark): EdgeIndex {
     select child_lot_id as child, parent_lot_id as parent, weight from lineage_edges where id > ${seen.edge} and id <= ${now.edge} order by id`);
   for (const e of added) {
     const own = edgesOf(index, e.child);
-    const merged = Array.from(own.parents, (parent, n) => ({ parent, weight: own.weights[n]! }));
+    const merged: { parent: number; weight: number }[] = [];
+    for (let n = own.from; n < own.to; n++) merged.push({ parent: own.parents[n]!, weight: own.weights[n]! });
     // After the old ones on a tie (parent and weight alike), as the index puts a higher id.
     merged.push({ parent: e.parent, weight: e.weight });
     merged.sort((a, b) => a.parent - b.parent || a.weight - b.weight);
@@ -139,12 +140,12 @@ export function edgeIndexAt(now: LedgerMark): EdgeIndex {
   return index;
 }
 
-/** A lot's edges, in the child index's order. */
-export function edgesOf(at: EdgeIndex, child: number): { parents: ArrayLike<number>; weights: ArrayLike<number> } {
+/** A lot's edges, in the child index's order: `parents` and `weights` from `from` to `to`. */
+export function edgesOf(at: EdgeIndex, child: number): { parents: ArrayLike<number>; weights: ArrayLike<number>; from: number; to: number } {
   const patched = at.patched.get(child);
-  if (patched) return patched;
-  if (child >= at.size || child + 1 >= at.first.length) return { parents: [], weights: [] };
-  return { parents: at.parent.subarray(at.first[child]!, at.first[child + 1]!), weights: at.weight.subarray(at.first[child]!, at.first[child + 1]!) };
+  if (patched) return { ...patched, from: 0, to: patched.parents.length };
+  if (child >= at.size || child + 1 >= at.first.length) return { parents: at.parent, weights: at.weight, from: 0, to: 0 };
+  return { parents: at.parent, weights: at.weight, from: at.first[child]!, to: at.first[child + 1]! };
 }
 
 /** A lot's kind, or null when there is no such lot. */

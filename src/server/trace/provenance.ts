@@ -1,7 +1,8 @@
 import "server-only";
 import { sql } from "drizzle-orm";
 import { originsByWeight, originStatement, sharesBy } from "@/domain/origin";
-import { ancestryOf, lotsOfKindUp, lotsUpThrough, type Ancestry } from "./ancestry";
+import { STEP_RULES } from "@/domain/steps";
+import { ancestryOf, lotOf, lotsOfKindUp, lotsUpThrough, type Ancestry } from "./ancestry";
 import { claimedCategories, type ClaimedCategories } from "./claims";
 import { getDb } from "../platform/db";
 import { notFound } from "../platform/errors";
@@ -15,11 +16,14 @@ type Head = { id: number; code: string; kind: string; contentIn: number };
 
 /** Lots of these kinds pass their parents' dates on: a bottling's blends, sake and tanks, up to each tank's additions. */
 const DATED_THROUGH = ["bottled", "blend", "sake", "tank"];
+const DATED_STEPS = ["mash-addition", "pressing", "bottling"] as const;
+/** Only lots of these kinds come out of a dated step (the steps' output kinds, held at every write): the others are not looked up. */
+const DATED_KINDS = new Set<string>(DATED_STEPS.flatMap((step) => STEP_RULES[step].outputKinds));
 
 /** Dates that matter to a buyer: mash additions of the tanks behind a lot, pressing, bottling. */
 function keyDates(lotId: number, ancestry: Ancestry) {
   // The lots come from the lineage already read; SQLite walks them itself only where that read stopped short.
-  const lots = lotsUpThrough(ancestry, lotId, DATED_THROUGH);
+  const lots = lotsUpThrough(ancestry, lotId, DATED_THROUGH)?.filter((id) => DATED_KINDS.has(lotOf(ancestry, id)!.kind));
   const up = lots
     ? sql`select value as lot_id from json_each(${JSON.stringify(lots)})`
     : sql`with recursive up(lot_id) as (
@@ -32,7 +36,7 @@ function keyDates(lotId: number, ancestry: Ancestry) {
     select ev.step, min(ev.at) as at from (${up}) up
     join event_outputs o on o.lot_id = up.lot_id
     join events ev on ev.id = o.event_id
-    where ev.step in ('mash-addition', 'pressing', 'bottling') and not exists (select 1 from events c where c.corrects = ev.id)
+    where ev.step in (select value from json_each(${JSON.stringify(DATED_STEPS)})) and not exists (select 1 from events c where c.corrects = ev.id)
     group by ev.step, up.lot_id order by at`);
   const of = (step: string) => rows.filter((r) => r.step === step).map((r) => new Date(r.at).toISOString());
   return { brewedOn: of("mash-addition"), pressedOn: of("pressing"), bottledOn: of("bottling") };

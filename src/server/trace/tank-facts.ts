@@ -4,7 +4,7 @@ import type { CategoryFacts } from "@/domain/categories";
 import { lowestGrade, type Grade } from "@/domain/grades";
 import { getDb } from "../platform/db";
 import { addedAlcoholOf } from "../floor/tanks";
-import { fractionsUp, lotOf, lotsOfKindUp, type Ancestry } from "./ancestry";
+import { fractionsUp, lotsOfKindUp, shareOfKind, type Ancestry } from "./ancestry";
 
 export type TankLot = { id: number; code: string; contentIn: number; attributes: string | null };
 
@@ -39,9 +39,7 @@ function highestPolishingRatio(ancestry: Ancestry, tankId: number): number | nul
 
 /** Share of a tank's rice that passed through koji (the walk of `kojiFraction`, on lineage already read). */
 function kojiShare(ancestry: Ancestry, tankId: number): number {
-  let sum = 0;
-  for (const [id, f] of fractionsUp(ancestry, tankId, ["koji", "polished"])) if (lotOf(ancestry, id)?.kind === "koji") sum += f;
-  return sum;
+  return shareOfKind(ancestry, fractionsUp(ancestry, tankId, ["koji", "polished"]), "koji");
 }
 
 /**
