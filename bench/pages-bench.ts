@@ -58,9 +58,14 @@ async function prepareCopy(ledger: string) {
   const gtin = one(`select json_extract(attributes, '$.gtin') as v from lots where code = '${bottled}'`);
   const grower = one("select id as v from parties where kind = 'grower' order by id limit 1");
   const mill = one("select id as v from parties where kind = 'mill' order by id limit 1");
+  // Bottlings around the median one, one for each request of the "not viewed lately" row.
+  const others = (sqlite
+    .prepare(`select code, json_extract(attributes, '$.gtin') as gtin from lots where kind = 'bottled' and gtin is not null and code <> ?
+      order by id limit ? offset max(0, (select count(*) / 2 from lots where kind = 'bottled' and json_extract(attributes, '$.gtin') is not null) - ? / 2)`)
+    .all(bottled, warmup + runs, warmup + runs) as { code: string; gtin: number }[]).map((b) => `/01/${String(b.gtin).padStart(14, "0")}/10/${b.code}`);
   sqlite.close();
   if (!polished || !harvest || !bottled || !gtin || !grower || !mill) throw new Error("the ledger lacks a lot, grower or mill the pages need");
-  return { polished, harvest, bottled, gtin: String(gtin).padStart(14, "0"), grower, mill };
+  return { polished, harvest, bottled, gtin: String(gtin).padStart(14, "0"), grower, mill, others };
 }
 
 async function signIn(): Promise<string> {
@@ -73,18 +78,19 @@ async function signIn(): Promise<string> {
   return response.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
 }
 
-/** `before` runs ahead of each request, outside the time measured. */
-type Page = { name: string; path: string; ua: string; signedIn: boolean; before?: () => void };
+/** `before` runs ahead of each request, outside the time measured; `paths`, when given, names a page for each request in turn. */
+type Page = { name: string; path: string; paths?: string[]; ua: string; signedIn: boolean; before?: () => void };
 
-async function getPage(page: Page, cookie: string): Promise<{ ms: number; html: string }> {
+async function getPage(page: Page, cookie: string, request: number): Promise<{ ms: number; html: string }> {
+  const address = page.paths?.[request % page.paths.length] ?? page.path;
   const started = performance.now();
-  const response = await fetch(base + page.path, {
+  const response = await fetch(base + address, {
     redirect: "manual",
     headers: { "user-agent": page.ua, "accept-language": "en", accept: "text/html", ...(page.signedIn ? { cookie } : {}) },
   });
   const html = await response.text();
   const ms = performance.now() - started;
-  if (response.status !== 200) throw new Error(`${page.path}: ${response.status}`);
+  if (response.status !== 200) throw new Error(`${address}: ${response.status}`);
   return { ms, html };
 }
 
@@ -122,15 +128,18 @@ const pages: Page[] = [
   // A mill's account lists its polishing runs (1,535 at bench-mill, all without a contract fee).
   { name: "supplier account (mill)", path: `/suppliers/${picks.mill}`, ua: DESK_UA, signedIn: true },
   { name: "sign-in (reference)", path: "/sign-in", ua: PHONE_UA, signedIn: false },
+  // Each request a bottling no one viewed lately (the server keeps 16 lineages): the lineage is
+  // read from the database every time, as for the first scan of a batch.
+  { name: "provenance card, a bottling not viewed lately", path: picks.others[0]!, paths: picks.others, ua: PHONE_UA, signedIn: false },
   // Last, so that no page above sees the events these record before each request (none changes
   // an answer). After an event elsewhere: one with no lots, as the floor records all day on other
   // lots. After a draw from the bottle: an event that draws 0 bottles from it (a shipment or a
   // sample), which touches its lineage without changing it. In both the server keeps the lineage.
-  // Read again: an edge of weight 0 into the bottle from one of its parents, so that the lineage
-  // has changed and is read from the database each time.
+  // Brought up to date: an edge of weight 0 into the bottle from one of its parents, so that the
+  // lineage has changed; the server merges the new edge into the lineage it kept.
   { name: "provenance card, after an event elsewhere", path: `/01/${picks.gtin}/10/${picks.bottled}`, ua: PHONE_UA, signedIn: false, before: () => recordEvent(null) },
   { name: "provenance card, after a draw from the bottle", path: `/01/${picks.gtin}/10/${picks.bottled}`, ua: PHONE_UA, signedIn: false, before: () => recordEvent({ drawFrom: picks.bottled }) },
-  { name: "provenance card, lineage read again", path: `/01/${picks.gtin}/10/${picks.bottled}`, ua: PHONE_UA, signedIn: false, before: () => recordEvent({ linkInto: picks.bottled }) },
+  { name: "provenance card, after an edge into the bottle", path: `/01/${picks.gtin}/10/${picks.bottled}`, ua: PHONE_UA, signedIn: false, before: () => recordEvent({ linkInto: picks.bottled }) },
 ];
 
 let writer: Database.Database | undefined;
@@ -152,10 +161,10 @@ try {
   await waitFor(`${base}/sign-in`);
   const cookie = await signIn();
   for (const page of pages) {
-    for (let i = 0; i < warmup; i++) page.before?.(), await getPage(page, cookie);
+    for (let i = 0; i < warmup; i++) page.before?.(), await getPage(page, cookie, i);
     const times: number[] = [];
     let html = "";
-    for (let i = 0; i < runs; i++) page.before?.(), ({ ms: times[i], html } = await getPage(page, cookie));
+    for (let i = 0; i < runs; i++) page.before?.(), ({ ms: times[i], html } = await getPage(page, cookie, warmup + i));
     times.sort((a, b) => a - b);
     const js = await scriptBytes(html);
     results.push({
