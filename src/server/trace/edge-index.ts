@@ -5,10 +5,11 @@ import { getDb, getSqlite } from "../platform/db";
 /**
  * Every lot's kind and content and every lineage edge, in memory, for reading lineages: a
  * blend of blends has 20,000 lots behind it, and reading them from SQLite a step at a time took
- * 60 ms where walking them here takes a few. Loaded on first use (76,513 lots and 304,975 edges
- * in about 0.3 s) and kept current from what the ledger records after its mark, as a kept
- * lineage is: lots are only added, edges only added (a reversal is one more edge), a lot's kind
- * never changes and its content only with an event that comes out of it or draws from it.
+ * 60 ms where reading them from here takes 11. Loaded on first use (76,513 lots and 304,975 edges
+ * of the bench's ledger in 0.3–0.5 s) and kept current from what the ledger records after its
+ * mark, as a kept lineage is: lots are only added, edges only added (a reversal is one more edge),
+ * a lot's kind never changes and its content only with an event that comes out of it or draws
+ * from it. After more than CHECK_AT_MOST rows at once (a large import) it is loaded anew.
  *
  * A lot's edges are kept in the order the child index gives them (lineage_child_idx: by parent,
  * then weight, then id), the order a read from SQLite gives, so that sums add up alike.
