@@ -102,7 +102,7 @@ function expectSameAsReadAnew(head: Lot, context: string) {
   const keptShape = shape(kept);
   expect(shape(anew), `${context}: read anew from the edge index, against SQLite`).toEqual(shapeBySql(head.id));
   expect(keptShape, context).toEqual(shape(anew));
-  // The order `broughtUp` merges in is the child index's, as every read gives it: by parent, then weight.
+  // Each lot's edges in the child index's order, as every read gives it: by parent, then weight.
   for (const lot of keptShape) expect(lot.edges, `${context}: edges into ${lot.id}`).toEqual([...lot.edges].sort((a, b) => a[0] - b[0] || a[1] - b[1]));
   expect([...kept.described].sort(), context).toEqual([...anew.described].sort());
   // Every walk, from every lot, bit for bit and in the same order (a kept walk is compared too).

@@ -80,18 +80,22 @@ function place(found: Found, id: number, kind: string, contentIn: number): numbe
  * both pass, and cancel in the sums.
  */
 function readFrom(found: Found, from: number, index: EdgeIndex) {
-  const { ids, kinds, contents, first, parents, weights } = found;
+  const { ids, kinds, contents, first, parents } = found;
   for (let n = from; n < ids.length; n++) {
     first.push(parents.length);
-    if (!passesOn(kinds[n]!, contents[n]!)) continue;
-    const into = edgesOf(index, ids[n]!);
-    for (let e = into.from; e < into.to; e++) {
-      const parent = into.parents[e]!;
-      const p = placeOf(found.at, parent);
-      parents.push(p < 0 ? place(found, parent, kindOf(index, parent)!, contentOf(index, parent)) : p), weights.push(into.weights[e]!);
-    }
+    if (passesOn(kinds[n]!, contents[n]!)) readEdgesOf(found, ids[n]!, index);
   }
   first.push(parents.length);
+}
+
+/** A lot's edges as the index holds them, each parent placed if it is first found. */
+function readEdgesOf(found: Found, id: number, index: EdgeIndex) {
+  const into = edgesOf(index, id);
+  for (let e = into.from; e < into.to; e++) {
+    const parent = into.parents[e]!;
+    const p = placeOf(found.at, parent);
+    found.parents.push(p < 0 ? place(found, parent, kindOf(index, parent)!, contentOf(index, parent)) : p), found.weights.push(into.weights[e]!);
+  }
 }
 
 /**
@@ -159,7 +163,7 @@ const KEEP = 16;
  * Only the kinds and contents of its lots and the edges into them make it. So an event that
  * touched none of its lots keeps it, and so does one that touched some without changing those
  * (a shipment or a sample draws from a bottling without changing what went into it). Otherwise
- * the new edges into its lots are merged into each lot's edges in the order a read gives, the
+ * the lots given new edges take their edges from the edge index (in the order a read gives), the
  * lots first found behind them are read with their own lineage, and contents are taken as they
  * are now; the walks made over lots nothing changed are kept, so that a new edge into a bottling
  * does not walk its 144 tanks again. Read anew: when more was recorded than is worth checking, or
@@ -181,15 +185,18 @@ function broughtUp(lineage: Lineage, seen: LedgerMark, now: LedgerMark, index: E
     contents[n] = contentIn;
     changed.add(id);
   }
-  // A read takes no edge into a lot that passes nothing on.
-  const added = getDb()
-    .all<{ child: number; parent: number; weight: number }>(sql`
-      select child_lot_id as child, parent_lot_id as parent, weight from lineage_edges
-      where id > ${seen.edge} and id <= ${now.edge} and child_lot_id in (select value from json_each(${JSON.stringify(hit)})) order by id`)
-    .filter((e) => passesOn(lineage.kinds[placeOf(lineage.at, e.child)]!, contents[placeOf(lineage.at, e.child)]!));
-  if (!changed.size && !added.length) return lineage;
-  for (const e of added) changed.add(e.child);
-  const updated = spliced(lineage, contents, added, index);
+  // Edges are only added, so a lot has new ones when the index holds more for it than the lineage
+  // read. A read takes no edge into a lot that passes nothing on.
+  const relisted = new Set(
+    hit.filter((id) => {
+      const n = placeOf(lineage.at, id);
+      const into = edgesOf(index, id);
+      return passesOn(lineage.kinds[n]!, contents[n]!) && into.to - into.from !== lineage.first[n + 1]! - lineage.first[n]!;
+    }),
+  );
+  if (!changed.size && !relisted.size) return lineage;
+  for (const id of relisted) changed.add(id);
+  const updated = spliced(lineage, contents, relisted, index);
   // A walk depends only on the lots it reached: kept while none of them changed. The places of
   // the lots read before are kept, so a kept walk reads as it did.
   const moved = new Uint8Array(lineage.ids.length);
@@ -199,35 +206,21 @@ function broughtUp(lineage: Lineage, seen: LedgerMark, now: LedgerMark, index: E
 }
 
 /**
- * `lineage` with its contents as they are now, the new edges into its own lots, and the lots
- * first found behind those read with their own lineage. Its lots keep their places (the new ones
- * come after them) and their edges; a lot's new edges go where the child index puts them: by
- * parent, then weight, and after the old ones on a tie, as their ids are higher.
+ * `lineage` with its contents as they are now, the lots given new edges (`relisted`) with their
+ * edges as the index now holds them (in the child index's order), and the lots first found
+ * behind those read with their own lineage. Its lots keep their places (the new ones come after
+ * them) and the others their edges.
  */
-function spliced(lineage: Lineage, contents: number[], added: { child: number; parent: number; weight: number }[], index: EdgeIndex): Lineage {
+function spliced(lineage: Lineage, contents: number[], relisted: Set<number>, index: EdgeIndex): Lineage {
   const at = new Int32Array(Math.max(index.size, lineage.at.length));
   at.set(lineage.at);
   const found: Found = { at, ids: lineage.ids.slice(), kinds: lineage.kinds.slice(), contents, first: [], parents: [], weights: [] };
-  const into = new Map<number, { parent: number; weight: number }[]>();
-  for (const e of added) (into.get(e.child) ?? into.set(e.child, []).get(e.child)!).push(e);
   const old = lineage.ids.length;
   const { first, parents, weights } = found;
   for (let n = 0; n < old; n++) {
     first.push(parents.length);
-    const [from, to] = [lineage.first[n]!, lineage.first[n + 1]!];
-    const more = into.get(found.ids[n]!);
-    if (!more) {
-      for (let e = from; e < to; e++) parents.push(lineage.parent[e]!), weights.push(lineage.weight[e]!);
-      continue;
-    }
-    const own: { parent: number; weight: number }[] = [];
-    for (let e = from; e < to; e++) own.push({ parent: lineage.ids[lineage.parent[e]!]!, weight: lineage.weight[e]! });
-    own.push(...more);
-    own.sort((a, b) => a.parent - b.parent || a.weight - b.weight);
-    for (const e of own) {
-      const p = placeOf(found.at, e.parent);
-      parents.push(p < 0 ? place(found, e.parent, kindOf(index, e.parent)!, contentOf(index, e.parent)) : p), weights.push(e.weight);
-    }
+    if (relisted.has(found.ids[n]!)) readEdgesOf(found, found.ids[n]!, index);
+    else for (let e = lineage.first[n]!; e < lineage.first[n + 1]!; e++) parents.push(lineage.parent[e]!), weights.push(lineage.weight[e]!);
   }
   readFrom(found, old, index);
   return lineageOf(found);
