@@ -79,6 +79,39 @@ describe("added alcohol is judged converted to 95 % alcohol", () => {
   });
 });
 
+/** Records an event, failing the test if it is refused; its first output's code. */
+async function recorded(cookie: string, body: unknown): Promise<string> {
+  const res = await call(postEvent, jsonRequest("/api/events", { cookie, body }));
+  if (res.status !== 201) throw new Error(JSON.stringify(res.body));
+  return (res.body.outputs as { code: string }[])[0]?.code ?? "";
+}
+
+/** One harvest graded equivalent, milled, and brewed into a ginjo tank through the API: the tank's code. */
+async function brewFromEquivalentRice(): Promise<string> {
+  const m = (name: string, value: number, unit: string) => ({ name, value, unit });
+  const miller = await signInAs("miller@example.com");
+  const body = { fieldId: "field-ikeda-terrace", variety: "Omachi", cropYear: 2026, brownKg: 800, moisturePct: 14.8, grade: "equivalent", bags: 13 };
+  const harvest = (await call(postHarvest, jsonRequest("/api/harvests", { cookie: grower, body }))).body.code as string;
+  // Each hand-over answers the holder's dispatch.
+  await recorded(grower, { step: "shipping", inputs: [{ lot: harvest, quantity: 800 }], counterpartyId: "mill-shirotae", referenceDoc: `DS-${harvest}` });
+  await recorded(miller, { step: "receiving", inputs: [{ lot: harvest, quantity: 800 }] });
+  const polished = await recorded(miller, { step: "polishing", inputs: [{ lot: harvest, quantity: 800 }], outputs: [{ kind: "polished", quantity: 400 }], measurements: [m("targetPolishingRatioPct", 50, "%")] });
+  await recorded(miller, { step: "shipping", inputs: [{ lot: polished, quantity: 400 }], counterpartyId: "brewery-kirinoha", referenceDoc: `DS-${polished}` });
+  await recorded(brewer, { step: "receiving", inputs: [{ lot: polished, quantity: 400 }] });
+  const soak = (dry: number, use: string) => recorded(brewer, { step: "soaking", inputs: [{ lot: polished, quantity: dry }], outputs: [{ kind: "soaked", quantity: dry * 1.3, use }], measurements: [m("soakMinutes", 10, "min"), m("waterTempC", 10, "°C")] });
+  const steam = async (soaked: string, kg: number, out: number) => recorded(brewer, { step: "steaming", inputs: [{ lot: soaked, quantity: kg }], outputs: [{ kind: "steamed", quantity: out }], measurements: [m("steamMinutes", 50, "min")] });
+  const koji = await recorded(brewer, { step: "koji-making", inputs: [{ lot: await steam(await soak(100, "koji"), 130, 140), quantity: 140 }], outputs: [{ kind: "koji", quantity: 120 }], measurements: [m("sporeG", 30, "g")] });
+  const mash = await steam(await soak(300, "mash"), 390, 420);
+  const split = await call(postEvent, jsonRequest("/api/events", { cookie: brewer, body: { step: "splitting", inputs: [{ lot: mash, quantity: 420 }], outputs: ["first", "middle", "final"].map((addition, n) => ({ kind: "steamed", quantity: [60, 120, 240][n], use: "mash", addition })) } }));
+  const portions = (split.body.outputs as { code: string }[]).map((o) => o.code);
+  const add = (addition: string, kojiKg: number, n: number, kg: number, tank?: string) =>
+    recorded(brewer, { step: "mash-addition", attributes: { addition }, inputs: [{ lot: koji, quantity: kojiKg }, { lot: portions[n]!, quantity: kg }], outputs: [tank ? { lot: tank, quantity: kojiKg + kg } : { kind: "tank", quantity: kojiKg + kg, ginjoMethod: true }], measurements: [m("waterL", 0, "L")] });
+  const tank = await add("first", 24, 0, 60);
+  await add("middle", 36, 1, 120, tank);
+  await add("final", 60, 2, 240, tank);
+  return tank;
+}
+
 describe("rice certified equivalent to 3rd grade or better", () => {
   it("can be registered on a harvest, with the moisture ceiling of graded rice", async () => {
     const body = { fieldId: "field-ikeda-terrace", variety: "Omachi", cropYear: 2026, brownKg: 300, moisturePct: 14.6, grade: "equivalent", bags: 5 };
@@ -99,11 +132,11 @@ describe("rice certified equivalent to 3rd grade or better", () => {
   });
 
   it("counts for premium categories once its certificate is attached, and says it is missing before", async () => {
-    const tank = tankCode("Tank 1");
-    // Stands in for a season of uninspected rice: Tank 1's harvest lots, regraded as certified equivalent.
+    // A ginjo tank brewed through the API from one harvest of uninspected rice certified
+    // equivalent: 800 kg polished to 400 kg (50 %), 100 kg of it made into koji (25 %).
+    const tank = await brewFromEquivalentRice();
     const sources = getSqlite().prepare("select distinct s.code, s.id from lot_source_deltas d join lots s on s.id = d.source_lot_id where d.lot_id = (select id from lots where code = ?)").all(tank) as { code: string; id: number }[];
-    expect(sources.length).toBeGreaterThan(0);
-    for (const s of sources) getSqlite().prepare("update lots set grade = 'equivalent' where id = ?").run(s.id);
+    expect(sources.length).toBe(1);
 
     const missing = await claims(tank);
     expect(missing.lowestGrade).toBe("equivalent");

@@ -47,6 +47,20 @@ describe("append-only at the database", () => {
       expect(() => sqlite.prepare(statement).run(), statement).toThrow(/append-only/);
     }
   });
+
+  it("fixes what a lot is when it is made, and never deletes one; its running totals still move", async () => {
+    const res = await harvest(grower, {});
+    expect(res.status).toBe(201);
+    const sqlite = getSqlite();
+    const before = sqlite.prepare("select * from lots where code = ?").get(res.body.code);
+    for (const set of ["code = 'X-1'", "kind = 'polished'", "unit = 'L'", "grade = 'equivalent'", "polishing_ratio_pct = 55", "attributes = '{}'", "variety = 'Yamadanishiki'", "crop_year = 2001", "field_id = null", "origin_party_id = party_id", "created_at = 0", "id = id + 100000"]) {
+      expect(() => sqlite.prepare(`update lots set ${set} where code = ?`).run(res.body.code), set).toThrow(/fixed when it is made/);
+    }
+    expect(() => sqlite.prepare("delete from lots where code = ?").run(res.body.code)).toThrow(/never deleted/);
+    expect(sqlite.prepare("select * from lots where code = ?").get(res.body.code)).toEqual(before);
+    // Totals and the holder are kept with each event, in its transaction.
+    expect(sqlite.prepare("update lots set on_hand = on_hand, content_in = content_in, quantity_in = quantity_in, party_id = party_id, in_transit_to = in_transit_to, moisture_pct = moisture_pct where code = ?").run(res.body.code).changes).toBe(1);
+  });
 });
 
 describe("harvest lots", () => {

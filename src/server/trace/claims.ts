@@ -48,11 +48,17 @@ export function claimedCategories(lotId: number, ancestry: Ancestry) {
 }
 export type ClaimedCategories = ReturnType<typeof claimedCategories>;
 
+/** A tank's verdict, made once for each facts judged: kept facts are the same object until they change. */
+const verdicts = new WeakMap<CategoryFacts, ReturnType<typeof assessCategories>>();
+function verdictOn(facts: CategoryFacts) {
+  return verdicts.get(facts) ?? verdicts.set(facts, assessCategories(facts)).get(facts)!;
+}
+
 function judgeLot(lotId: number, behind: Ancestry) {
   const tankLots = lotsOfKindUp(behind, lotId, "tank");
   const factsOf = tankFactsOf(tankLots, behind);
   const tanks = tankLots.map((tank) => ({ code: tank.code, facts: factsOf.get(tank.id)! }));
-  const verdicts = tanks.map((x) => assessCategories(x.facts));
+  const verdicts = tanks.map((x) => verdictOn(x.facts));
   // A category is earned when every tank behind the lot earns it, and there is a tank.
   const earned = (verdicts[0] ?? assessCategories(emptyFacts)).map((_, n) => verdicts.length > 0 && verdicts.every((per) => per[n]!.reasons.length === 0));
   const facts = tanks.map((x) => x.facts);

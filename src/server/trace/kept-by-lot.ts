@@ -1,0 +1,106 @@
+import "server-only";
+import { sql } from "drizzle-orm";
+import { getDb, getSqlite } from "../platform/db";
+import { CHECK_AT_MOST, touchedSince, type LedgerMark } from "./edge-index";
+
+/**
+ * Figures worked out from the ledger for one lot at a time, kept across requests and lineages:
+ * every bottling of a house blend has the same 400–530 tanks behind it, and working out their
+ * facts and dates anew was most of the time of a bottling's first view.
+ *
+ * Each figure is kept with the lots it rests on, and dropped when a row recorded since names one
+ * of them. That holds because a lot's code, kind, grade, ratio and attributes are fixed when it
+ * is made (the database refuses to change them), and everything else is only ever added, by rows
+ * that name the lots they change: an event's outputs, inputs and readings, a correction's
+ * readings (correcting a reading writes no input or output), a new edge's child, an attachment.
+ */
+export type Worked<T> = { value: T; on: number[] };
+type Mark = LedgerMark & { attachment: number };
+
+const stores: KeptByLot<unknown>[] = [];
+let swept: { sqlite: ReturnType<typeof getSqlite>; mark: Mark } | undefined;
+
+const lastAttachment = () => getDb().get<{ a: number | null }>(sql`select max(id) as a from attachments`)?.a ?? 0;
+
+/** The lots named by a row recorded since `seen`, or null when there are more than are worth checking. */
+function namedSince(seen: Mark): number[] | null {
+  const row = getDb().get<{ lots: string; n: number }>(
+    touchedSince(
+      seen,
+      sql`
+    union all select lot_id from measurements where event_id > ${seen.event} and lot_id is not null
+    union all select m.lot_id from events c join measurements m on m.event_id = c.corrects where c.id > ${seen.event} and m.lot_id is not null
+    union all select lot_id from attachments where id > ${seen.attachment}`,
+    ),
+  )!;
+  return row.n > CHECK_AT_MOST ? null : [...new Set(JSON.parse(row.lots) as number[])];
+}
+
+/**
+ * Brings every store to the ledger at `mark` (one read for all of them), or answers false when
+ * `mark` is older than what they may already hold (a lineage read before another request's).
+ */
+function sweepTo(mark: LedgerMark): boolean {
+  const sqlite = getSqlite();
+  const attachment = lastAttachment();
+  // Another database (a test's own file): nothing kept from the one before holds there.
+  if (swept?.sqlite !== sqlite) {
+    for (const store of stores) store.clear();
+    swept = { sqlite, mark: { ...mark, attachment } };
+    return true;
+  }
+  const seen = swept.mark;
+  if (mark.event < seen.event || mark.edge < seen.edge) return false;
+  if (mark.event === seen.event && mark.edge === seen.edge && attachment === seen.attachment) return true;
+  const named = namedSince(seen);
+  for (const store of stores) {
+    if (named) store.dropOn(named);
+    else store.clear();
+  }
+  swept.mark = { ...mark, attachment };
+  return true;
+}
+
+export class KeptByLot<T> {
+  private byId = new Map<number, Worked<T>>();
+  /** For each lot, the ids whose figures rest on it. */
+  private onLot = new Map<number, Set<number>>();
+
+  /** `most`: past this many figures, all are dropped and kept afresh. */
+  constructor(private readonly most: number) {
+    stores.push(this as KeptByLot<unknown>);
+  }
+
+  clear() {
+    this.byId = new Map();
+    this.onLot = new Map();
+  }
+
+  dropOn(lots: number[]) {
+    for (const lot of lots) {
+      for (const id of this.onLot.get(lot) ?? []) {
+        for (const other of this.byId.get(id)?.on ?? []) if (other !== lot) this.onLot.get(other)?.delete(id);
+        this.byId.delete(id);
+      }
+      this.onLot.delete(lot);
+    }
+  }
+
+  /**
+   * The figures of `ids` as the ledger stands at `mark`: those kept, and the others from `work`
+   * (given the ids missing), kept in turn. With no mark (read inside a caller's transaction, which
+   * may yet be rolled back) all come from `work` and nothing is kept.
+   */
+  of(ids: number[], mark: LedgerMark | null, work: (missing: number[]) => Map<number, Worked<T>>): Map<number, T> {
+    if (!mark || getSqlite().inTransaction || !sweepTo(mark)) return new Map([...work(ids)].map(([id, w]) => [id, w.value]));
+    if (this.byId.size > this.most) this.clear();
+    const missing = ids.filter((id) => !this.byId.has(id));
+    if (missing.length) {
+      for (const [id, worked] of work(missing)) {
+        this.byId.set(id, worked);
+        for (const lot of worked.on) (this.onLot.get(lot) ?? this.onLot.set(lot, new Set()).get(lot)!).add(id);
+      }
+    }
+    return new Map(ids.map((id) => [id, this.byId.get(id)!.value]));
+  }
+}
