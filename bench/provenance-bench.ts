@@ -1,9 +1,12 @@
 /**
  * `npm run bench:provenance`: the provenance answer behind the bottle page, in-process (no
  * server, no rendering), on a copy of the 10-season ledger (bench/.data/provenance.db):
- *   - the first view of 120 bottlings around the median one, each lineage read anew: the time of
- *     the read, of judging the categories over every tank behind it, and of the whole answer,
- *     with the size of each lineage;
+ *   - the first view of 120 bottlings around the median one, each lineage read anew, three ways:
+ *     with nothing kept (every tank's facts and every date worked out, as for the first bottling
+ *     viewed after a restart); in order after a restart (each bottling finds what the ones before
+ *     it left: a house blend's bottlings share their tanks); and with the figures of every tank
+ *     and date kept. The time of the read, of judging the categories over every tank behind it,
+ *     and of the whole answer, with the size of each lineage;
  *   - the pages bench's bottling viewed again, and viewed after an edge of weight 0 into it (its
  *     kept lineage brought up to date).
  * The lineage reading, the claims and the card's other reads are the parts of the pages bench's
@@ -23,6 +26,7 @@ process.env.GRAINLINE_DB = dbFile;
 const { ancestryOf, ancestryReadAnew } = await import("../src/server/trace/ancestry");
 const { claimedCategories } = await import("../src/server/trace/claims");
 const { findBottling, provenanceOf, publicProvenance } = await import("../src/server/trace/provenance");
+const { forgetKept } = await import("../src/server/trace/kept-by-lot");
 
 const sqlite = new Database(dbFile);
 type Bottling = { id: number; code: string; gtin: string };
@@ -41,20 +45,29 @@ ancestryOf(median.id);
 const loadMs = performance.now() - started;
 for (const b of others) publicProvenance(b.gtin, b.code);
 
-const first = { read: [] as number[], claims: [] as number[], whole: [] as number[], lots: [] as number[], tanks: [] as number[] };
-for (const b of others) {
-  started = performance.now();
-  const head = findBottling(b.gtin, b.code);
-  const ancestry = ancestryReadAnew(b.id);
-  const read = performance.now() - started;
-  const claims = claimedCategories(b.id, ancestry);
-  const judged = performance.now() - started;
-  provenanceOf(head, claims, ancestry);
-  first.whole.push(performance.now() - started);
-  first.read.push(read), first.claims.push(judged - read);
-  first.lots.push(ancestry.ids.length), first.tanks.push(ancestry.kinds.filter((k) => k === "tank").length);
+type Views = { read: number[]; claims: number[]; whole: number[]; lots: number[]; tanks: number[] };
+/** Each bottling viewed once, its lineage read anew; `before` runs ahead of each, outside the time. */
+function firstViews(before: () => void = () => {}): Views {
+  const views: Views = { read: [], claims: [], whole: [], lots: [], tanks: [] };
+  for (const b of others) {
+    before();
+    started = performance.now();
+    const head = findBottling(b.gtin, b.code);
+    const ancestry = ancestryReadAnew(b.id);
+    const read = performance.now() - started;
+    const claims = claimedCategories(b.id, ancestry);
+    const judged = performance.now() - started;
+    provenanceOf(head, claims, ancestry);
+    views.whole.push(performance.now() - started);
+    views.read.push(read), views.claims.push(judged - read);
+    views.lots.push(ancestry.ids.length), views.tanks.push(ancestry.kinds.filter((k) => k === "tank").length);
+  }
+  return views;
 }
-
+const nothingKept = firstViews(forgetKept);
+forgetKept();
+const inOrder = firstViews();
+const allKept = firstViews();
 const writer = new Database(dbFile);
 const linkInto = (id: number) => {
   const event = writer.prepare("insert into events (step, at, recorded_at, user_id, party_id) select 'blending', 0, 0, user_id, party_id from events order by id desc limit 1").run().lastInsertRowid;
@@ -76,11 +89,13 @@ sqlite.close();
 for (const s of ["", "-wal", "-shm"]) rmSync(dbFile + s, { force: true });
 
 console.log(`provenance bench, ${new Date().toISOString()}: edge index loaded in ${loadMs.toFixed(0)} ms (with the first lineage)`);
-console.log(`first views: ${others.length} bottlings around ${median.code}; lots behind each p50 ${quantile(first.lots, 0.5)}, p95 ${quantile(first.lots, 0.95)}, max ${Math.max(...first.lots)}; tanks p50 ${quantile(first.tanks, 0.5)}, max ${Math.max(...first.tanks)}`);
+console.log(`first views: ${others.length} bottlings around ${median.code}; lots behind each p50 ${quantile(allKept.lots, 0.5)}, p95 ${quantile(allKept.lots, 0.95)}, max ${Math.max(...allKept.lots)}; tanks p50 ${quantile(allKept.tanks, 0.5)}, max ${Math.max(...allKept.tanks)}`);
 console.log("| in-process, ms | p50 | p95 | max |");
 console.log("| --- | ---: | ---: | ---: |");
-line("first view: lineage read anew", first.read);
-line("first view: categories judged over every tank", first.claims);
-line("first view: the whole answer", first.whole);
+for (const [name, views] of [["nothing kept", nothingKept], ["in order after a restart", inOrder], ["every tank's facts and dates kept", allKept]] as const) {
+  line(`first view, ${name}: lineage read anew`, views.read);
+  line(`first view, ${name}: categories judged over every tank`, views.claims);
+  line(`first view, ${name}: the whole answer`, views.whole);
+}
 line(`${median.code} viewed again`, again);
 line(`${median.code} after an edge into it (brought up to date)`, afterEdge);
