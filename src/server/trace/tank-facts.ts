@@ -68,9 +68,11 @@ function judge(tanks: TankLot[], ancestry: Ancestry): Map<number, Worked<Categor
         specialMethod: attributes.specialMethod === true,
         uncertifiedEquivalentLots: Object.freeze(equivalent(tank.id).filter((c) => !withCertificate.has(c)).sort()) as string[],
       };
-      // What they rest on: the tank, every lot its two walks reached, and the harvest lots in it.
-      const reached = [POLISHED, KOJI].flatMap((stop) => fractionsUp(ancestry, tank.id, stop).places.map((n) => ancestry.ids[n]!));
-      const on = [...new Set([tank.id, ...reached, ...(sources.get(tank.id) ?? []).map((s) => s.id)])];
+      // What they rest on: the tank and every lot its walks reached (the walk to its koji stops
+      // sooner than the walk to its polished rice, so the longer one reaches them all), and the
+      // harvest lots in it.
+      const on = fractionsUp(ancestry, tank.id, POLISHED).places.map((n) => ancestry.ids[n]!);
+      for (const source of sources.get(tank.id) ?? []) on.push(source.id);
       return [tank.id, { value: Object.freeze(facts), on }];
     }),
   );
