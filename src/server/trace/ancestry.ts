@@ -2,7 +2,7 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import { getDb, getSqlite } from "../platform/db";
 import { KeptByLot } from "./kept-by-lot";
-import { CHECK_AT_MOST, contentOf, edgeIndexAt, edgesOf, kindOf, ledgerMark, touchedSince, type EdgeIndex, type LedgerMark } from "./edge-index";
+import { CHECK_AT_MOST, codeOf, contentOf, edgeIndexAt, edgesOf, kindNamed, kindOf, ledgerMark, touchedSince, type EdgeIndex, type LedgerMark } from "./edge-index";
 
 /** A lot behind another; code, attributes and polishing ratio are read for tanks and polished lots only. */
 export type AncestorLot = { id: number; code: string; kind: string; contentIn: number; attributes: string | null; polishingRatioPct: number | null };
@@ -13,6 +13,8 @@ type Lineage = {
   /** Lots by place (ids, kinds, contents) and each lot's recorded edges as a slice of `parent`/`weight` (from `first[n]` to `first[n + 1]`). */
   ids: number[];
   kinds: string[];
+  /** The kinds as the edge index codes them. */
+  kindCodes: Uint8Array;
   contents: number[];
   first: Int32Array;
   parent: Int32Array;
@@ -48,11 +50,70 @@ export function lotOf(lineage: Lineage, id: number): { kind: string; contentIn: 
   return n < 0 ? undefined : { kind: lineage.kinds[n]!, contentIn: lineage.contents[n]! };
 }
 
-/** Lots as a lineage is read, by place, and their edges (parents by place) in the order read. */
-type Found = { at: Int32Array; ids: number[]; kinds: string[]; contents: number[]; first: number[]; parents: number[]; weights: number[] };
+/**
+ * Lots as a lineage is read, by place (ids, kind codes, contents), and their edges (parents by
+ * place) in the order read: typed arrays that grow by half as they fill. A blend of blends has
+ * 20,000 lots and 34,000 edges behind it; JS arrays pushed one by one took twice as long.
+ */
+class Found {
+  lots = 0;
+  edges = 0;
+  ids: Int32Array;
+  kinds: Uint8Array;
+  contents: Float64Array;
+  /** Where each lot's edges begin, and one more after the last lot read. */
+  first: Int32Array;
+  parents: Int32Array;
+  weights: Float64Array;
+
+  constructor(
+    public at: Int32Array,
+    lots = 256,
+    edges = 512,
+  ) {
+    [this.ids, this.kinds, this.contents, this.first] = [new Int32Array(lots), new Uint8Array(lots), new Float64Array(lots), new Int32Array(lots + 1)];
+    [this.parents, this.weights] = [new Int32Array(edges), new Float64Array(edges)];
+  }
+
+  /** Places a lot after the others: its place. */
+  place(id: number, kind: number, contentIn: number): number {
+    if (id >= this.at.length) this.at = grown(this.at, Math.ceil((id + 1) * 1.25));
+    if (this.lots === this.ids.length) {
+      const room = Math.ceil(this.lots * 1.5) + 16;
+      [this.ids, this.kinds, this.contents, this.first] = [grown(this.ids, room), grown(this.kinds, room), grown(this.contents, room), grown(this.first, room + 1)];
+    }
+    const n = this.lots++;
+    this.at[id] = n + 1;
+    this.ids[n] = id;
+    this.kinds[n] = kind;
+    this.contents[n] = contentIn;
+    return n;
+  }
+
+  edge(parent: number, weight: number) {
+    if (this.edges === this.parents.length) {
+      const room = Math.ceil(this.edges * 1.5) + 16;
+      [this.parents, this.weights] = [grown(this.parents, room), grown(this.weights, room)];
+    }
+    this.parents[this.edges] = parent;
+    this.weights[this.edges++] = weight;
+  }
+
+  /** The place of a lot already placed, or -1. */
+  placeOf(id: number) {
+    return id < this.at.length ? this.at[id]! - 1 : -1;
+  }
+}
+
+function grown<A extends Int32Array | Uint8Array | Float64Array>(array: A, length: number): A {
+  const bigger = new (array.constructor as new (length: number) => A)(length);
+  bigger.set(array);
+  return bigger;
+}
 
 /** Lots with no content, and harvest lots, pass nothing on: their edges are not read. */
 const passesOn = (kind: string, contentIn: number) => kind !== "harvest" && contentIn > 0;
+const HARVEST = codeOf("harvest");
 
 /**
  * Everything behind a lot up to its harvest lots: each lot once, however many routes lead to it
@@ -60,22 +121,10 @@ const passesOn = (kind: string, contentIn: number) => kind !== "harvest" && cont
  * nothing on, so the walk stops there as the fraction walks do.
  */
 function readLineage(lotId: number, index: EdgeIndex): Lineage {
-  const found: Found = { at: new Int32Array(index.size), ids: [], kinds: [], contents: [], first: [], parents: [], weights: [] };
-  const kind = kindOf(index, lotId);
-  if (kind) place(found, lotId, kind, contentOf(index, lotId));
+  const found = new Found(new Int32Array(index.size));
+  if (kindOf(index, lotId)) found.place(lotId, index.kind[lotId]!, contentOf(index, lotId));
   readFrom(found, 0, index);
   return lineageOf(found);
-}
-
-function place(found: Found, id: number, kind: string, contentIn: number): number {
-  if (id >= found.at.length) {
-    const at = new Int32Array(Math.ceil((id + 1) * 1.25));
-    at.set(found.at);
-    found.at = at;
-  }
-  found.at[id] = found.ids.length + 1;
-  found.ids.push(id), found.kinds.push(kind), found.contents.push(contentIn);
-  return found.ids.length - 1;
 }
 
 /**
@@ -85,21 +134,20 @@ function place(found: Found, id: number, kind: string, contentIn: number): numbe
  * both pass, and cancel in the sums.
  */
 function readFrom(found: Found, from: number, index: EdgeIndex) {
-  const { ids, kinds, contents, first, parents } = found;
-  for (let n = from; n < ids.length; n++) {
-    first.push(parents.length);
-    if (passesOn(kinds[n]!, contents[n]!)) readEdgesOf(found, ids[n]!, index);
+  for (let n = from; n < found.lots; n++) {
+    found.first[n] = found.edges;
+    if (found.kinds[n] !== HARVEST && found.contents[n]! > 0) readEdgesOf(found, found.ids[n]!, index);
   }
-  first.push(parents.length);
+  found.first[found.lots] = found.edges;
 }
 
 /** A lot's edges as the index holds them, each parent placed if it is first found. */
 function readEdgesOf(found: Found, id: number, index: EdgeIndex) {
-  const into = edgesOf(index, id);
-  for (let e = into.from; e < into.to; e++) {
-    const parent = into.parents[e]!;
-    const p = placeOf(found.at, parent);
-    found.parents.push(p < 0 ? place(found, parent, kindOf(index, parent)!, contentOf(index, parent)) : p), found.weights.push(into.weights[e]!);
+  const { parents, weights, from, to } = edgesOf(index, id);
+  for (let e = from; e < to; e++) {
+    const parent = parents[e]!;
+    const p = found.placeOf(parent);
+    found.edge(p < 0 ? found.place(parent, index.kind[parent]!, index.content[parent]!) : p, weights[e]!);
   }
 }
 
@@ -110,32 +158,32 @@ function readEdgesOf(found: Found, id: number, index: EdgeIndex) {
  * child index's order, named, and the lots placed as `readFrom` places them.
  */
 function readFromDatabase(found: Found) {
-  const { ids, kinds, contents, first, parents, weights } = found;
-  for (let start = 0; start < ids.length; ) {
-    const end = ids.length;
-    const open = ids.slice(start, end).filter((_, k) => passesOn(kinds[start + k]!, contents[start + k]!));
+  for (let start = 0; start < found.lots; ) {
+    const end = found.lots;
+    const open: number[] = [];
+    for (let n = start; n < end; n++) if (found.kinds[n] !== HARVEST && found.contents[n]! > 0) open.push(found.ids[n]!);
     const rows = getDb().all<{ child: number; parent: number; weight: number; kind: string; contentIn: number }>(sql`
       select e.child_lot_id as child, e.parent_lot_id as parent, e.weight, p.kind, p.content_in as contentIn
       from json_each(${JSON.stringify(open)}) c join lineage_edges e on e.child_lot_id = c.value join lots p on p.id = e.parent_lot_id
       order by c.key, e.parent_lot_id, e.weight, e.id`);
     let r = 0;
     for (let n = start; n < end; n++) {
-      first.push(parents.length);
-      for (; r < rows.length && rows[r]!.child === ids[n]; r++) {
+      found.first[n] = found.edges;
+      for (; r < rows.length && rows[r]!.child === found.ids[n]; r++) {
         const row = rows[r]!;
-        const p = placeOf(found.at, row.parent);
-        parents.push(p < 0 ? place(found, row.parent, row.kind, row.contentIn) : p), weights.push(row.weight);
+        const p = found.placeOf(row.parent);
+        found.edge(p < 0 ? found.place(row.parent, codeOf(row.kind), row.contentIn) : p, row.weight);
       }
     }
     start = end;
   }
-  first.push(parents.length);
+  found.first[found.lots] = found.edges;
 }
 
 function readLineageFromDatabase(lotId: number): Lineage {
   const head = getDb().get<{ kind: string; contentIn: number }>(sql`select kind, content_in as contentIn from lots where id = ${lotId}`);
-  const found: Found = { at: new Int32Array(lotId + 1), ids: [], kinds: [], contents: [], first: [], parents: [], weights: [] };
-  if (head) place(found, lotId, head.kind, head.contentIn);
+  const found = new Found(new Int32Array(lotId + 1));
+  if (head) found.place(lotId, codeOf(head.kind), head.contentIn);
   readFromDatabase(found);
   return lineageOf(found);
 }
@@ -146,10 +194,23 @@ function readLineageFromDatabase(lotId: number): Lineage {
  * weight, then id), which is how SQLite finds a lot's edges and how the edge index keeps them;
  * `broughtUp` keeps it too.
  */
-function lineageOf({ at, ids, kinds, contents, first, parents, weights }: Found): Lineage {
-  const described = ids.filter((_, n) => kinds[n] === "tank" || kinds[n] === "polished");
-  const scratch = { waiting: new Int32Array(ids.length), seen: new Uint8Array(ids.length), share: new Float64Array(ids.length), given: new Uint8Array(ids.length), goes: new Map() };
-  return { at, ids, kinds, contents, first: Int32Array.from(first), parent: Int32Array.from(parents), weight: Float64Array.from(weights), described, walks: new Map(), scratch };
+function lineageOf(found: Found): Lineage {
+  const count = found.lots;
+  const [ids, kinds, contents] = [new Array<number>(count), new Array<string>(count), new Array<number>(count)];
+  const described: number[] = [];
+  for (let n = 0; n < count; n++) {
+    const [id, kind] = [found.ids[n]!, kindNamed(found.kinds[n]!)];
+    ids[n] = id;
+    kinds[n] = kind;
+    contents[n] = found.contents[n]!;
+    if (kind === "tank" || kind === "polished") described.push(id);
+  }
+  const scratch = { waiting: new Int32Array(count), seen: new Uint8Array(count), share: new Float64Array(count), given: new Uint8Array(count), goes: new Map() };
+  return {
+    at: found.at, ids, kinds, kindCodes: found.kinds.slice(0, count), contents,
+    first: found.first.slice(0, count + 1), parent: found.parents.slice(0, found.edges), weight: found.weights.slice(0, found.edges),
+    described, walks: new Map(), scratch,
+  };
 }
 
 /**
@@ -217,15 +278,15 @@ function broughtUp(lineage: Lineage, seen: LedgerMark, now: LedgerMark, index: E
  * them) and the others their edges.
  */
 function spliced(lineage: Lineage, contents: number[], relisted: Set<number>, index: EdgeIndex): Lineage {
-  const at = new Int32Array(Math.max(index.size, lineage.at.length));
-  at.set(lineage.at);
-  const found: Found = { at, ids: lineage.ids.slice(), kinds: lineage.kinds.slice(), contents, first: [], parents: [], weights: [] };
   const old = lineage.ids.length;
-  const { first, parents, weights } = found;
+  const found = new Found(new Int32Array(Math.max(index.size, lineage.at.length)), old + 256, lineage.parent.length + 512);
+  found.at.set(lineage.at);
+  found.ids.set(lineage.ids), found.kinds.set(lineage.kindCodes), found.contents.set(contents);
+  found.lots = old;
   for (let n = 0; n < old; n++) {
-    first.push(parents.length);
+    found.first[n] = found.edges;
     if (relisted.has(found.ids[n]!)) readEdgesOf(found, found.ids[n]!, index);
-    else for (let e = lineage.first[n]!; e < lineage.first[n + 1]!; e++) parents.push(lineage.parent[e]!), weights.push(lineage.weight[e]!);
+    else for (let e = lineage.first[n]!; e < lineage.first[n + 1]!; e++) found.edge(lineage.parent[e]!, lineage.weight[e]!);
   }
   readFrom(found, old, index);
   return lineageOf(found);

@@ -35,7 +35,9 @@ export type LedgerMark = { event: number; edge: number };
 /** Kinds by code, and codes by kind; code 0 is "no such lot". */
 const kindNames: string[] = [""];
 const kindCodes = new Map<string, number>();
-const codeOf = (kind: string) => kindCodes.get(kind) ?? (kindCodes.set(kind, kindNames.length), kindNames.push(kind), kindNames.length - 1);
+/** A kind's code, given one on first sight; and the kind of a code. */
+export const codeOf = (kind: string) => kindCodes.get(kind) ?? (kindCodes.set(kind, kindNames.length), kindNames.push(kind), kindNames.length - 1);
+export const kindNamed = (code: number) => kindNames[code]!;
 
 /** More rows recorded than this since the mark, or more edges patched, and the index is loaded anew. */
 export const CHECK_AT_MOST = 20_000;
