@@ -24,15 +24,15 @@ type Lineage = {
   /** Walks already made over this lineage, by start and stop kinds. */
   walks: Map<string, Walk>;
   /** Per-lot counters of a walk, made once per lineage and cleared after each walk (a blend's 144 tanks are 288 walks). */
-  scratch: { waiting: Int32Array; seen: Uint8Array; share: Float64Array; given: Uint8Array; goes: Map<string, Uint8Array> };
+  scratch: { waiting: Int32Array; seen: Uint8Array; share: Float64Array; given: Uint8Array; todo: Int32Array; touched: Int32Array; reached: Int32Array; goes: Map<string, Uint8Array> };
 };
 
 /**
  * A walk up from a lot: the lots it reached, by place in the lineage, in the order each was first
- * given a share, and the fraction of the lot's content each gave. Two arrays rather than a Map:
- * a blend's walk reaches 20,000 lots, and a Map of them cost more than the walk.
+ * given a share, and the fraction of the lot's content each gave. Two typed arrays rather than a
+ * Map: a blend's walk reaches 20,000 lots, and a Map of them cost more than the walk.
  */
-export type Walk = { places: number[]; shares: number[] };
+export type Walk = { places: Int32Array; shares: Float64Array };
 
 /** The distinct lots behind a lot and the edges among them, with the tanks' and polished lots' current details. */
 export type Ancestry = Lineage & {
@@ -205,7 +205,10 @@ function lineageOf(found: Found): Lineage {
     contents[n] = found.contents[n]!;
     if (kind === "tank" || kind === "polished") described.push(id);
   }
-  const scratch = { waiting: new Int32Array(count), seen: new Uint8Array(count), share: new Float64Array(count), given: new Uint8Array(count), goes: new Map() };
+  const scratch = {
+    waiting: new Int32Array(count), seen: new Uint8Array(count), share: new Float64Array(count), given: new Uint8Array(count),
+    todo: new Int32Array(count), touched: new Int32Array(count), reached: new Int32Array(count), goes: new Map(),
+  };
   return {
     at: found.at, ids, kinds, kindCodes: found.kinds.slice(0, count), contents,
     first: found.first.slice(0, count + 1), parent: found.parents.slice(0, found.edges), weight: found.weights.slice(0, found.edges),
@@ -365,45 +368,54 @@ export function fractionsUp(ancestry: Ancestry, start: number, stop: readonly st
 }
 
 function walkUp(ancestry: Ancestry, start: number, stop: readonly string[]): Walk {
-  const { at, kinds, contents, first, parent, weight } = ancestry;
+  const { at, contents, first, parent, weight } = ancestry;
   const from = placeOf(at, start);
-  if (from < 0) return { places: [], shares: [] };
-  const { waiting, seen, share, given } = ancestry.scratch;
+  if (from < 0) return { places: new Int32Array(0), shares: new Float64Array(0) };
+  const { waiting, seen, share, given, todo, touched, reached } = ancestry.scratch;
   // Which lots pass their share on, marked once: a lot of a `stop` kind does not, nor one that passes nothing on.
   const goes = stopping(ancestry, stop);
-  // Edges counted only from lots the walk passes through, so that Kahn's order is not held back by lots it never reaches.
+  // Edges counted only from lots the walk passes through, so that Kahn's order is not held back
+  // by lots it never reaches. Each lot is stacked once, so the stacks fit the lineage.
   seen[from] = 1;
-  const todo = [from];
-  const touched = [from];
-  while (todo.length) {
-    const n = todo.pop()!;
+  let [stacked, seenCount] = [0, 0];
+  todo[stacked++] = from;
+  touched[seenCount++] = from;
+  while (stacked > 0) {
+    const n = todo[--stacked]!;
     if (!goes[n]) continue;
     for (let e = first[n]!; e < first[n + 1]!; e++) {
       const p = parent[e]!;
       waiting[p]!++;
-      if (!seen[p]) (seen[p] = 1), todo.push(p), touched.push(p);
+      if (!seen[p]) (seen[p] = 1), (todo[stacked++] = p), (touched[seenCount++] = p);
     }
   }
-  // Fractions by place; `reached` keeps the order each lot was first given one.
-  const reached = [from];
+  // Fractions by place; `reached` keeps the order each lot was first given one. `todo` is empty
+  // again, and serves as the stack of lots ready.
+  let reachedCount = 0;
+  reached[reachedCount++] = from;
   share[from] = 1;
   given[from] = 1;
-  const ready = [from];
-  while (ready.length) {
-    const n = ready.pop()!;
+  todo[stacked++] = from;
+  while (stacked > 0) {
+    const n = todo[--stacked]!;
     if (!goes[n]) continue;
     const own = share[n]!;
     const contentIn = contents[n]!;
     for (let e = first[n]!; e < first[n + 1]!; e++) {
       const p = parent[e]!;
       share[p] = share[p]! + (own * weight[e]!) / contentIn;
-      if (!given[p]) (given[p] = 1), reached.push(p);
-      if (--waiting[p]! === 0) ready.push(p);
+      if (!given[p]) (given[p] = 1), (reached[reachedCount++] = p);
+      if (--waiting[p]! === 0) todo[stacked++] = p;
     }
   }
-  const walk = { places: reached, shares: reached.map((n) => share[n]!) };
-  for (const n of touched) (waiting[n] = 0), (seen[n] = 0), (share[n] = 0), (given[n] = 0);
-  return walk;
+  const places = reached.slice(0, reachedCount);
+  const shares = new Float64Array(reachedCount);
+  for (let i = 0; i < reachedCount; i++) shares[i] = share[places[i]!]!;
+  for (let i = 0; i < seenCount; i++) {
+    const n = touched[i]!;
+    (waiting[n] = 0), (seen[n] = 0), (share[n] = 0), (given[n] = 0);
+  }
+  return { places, shares };
 }
 
 /** For each lot of the lineage, whether a walk stopping at `stop` kinds goes on through it; made once per lineage and stop. */
@@ -411,11 +423,13 @@ function stopping(ancestry: Ancestry, stop: readonly string[]): Uint8Array {
   const key = stop.join(",");
   const made = ancestry.scratch.goes.get(key);
   if (made) return made;
-  // A plain loop: Uint8Array.from with a mapping function goes through the iterator protocol, and
-  // cost a blend's first view 5 ms over its 20,000 lots.
-  const { kinds, contents } = ancestry;
-  const goes = new Uint8Array(kinds.length);
-  for (let n = 0; n < kinds.length; n++) goes[n] = !stop.includes(kinds[n]!) && passesOn(kinds[n]!, contents[n]!) ? 1 : 0;
+  // By kind code, in a plain loop: Uint8Array.from with a mapping function goes through the
+  // iterator protocol, and it and comparing names cost a blend's first view 5 ms over 20,000 lots.
+  const { kindCodes, contents } = ancestry;
+  const stops = new Uint8Array(256);
+  for (const kind of [...stop, "harvest"]) stops[codeOf(kind)] = 1;
+  const goes = new Uint8Array(kindCodes.length);
+  for (let n = 0; n < kindCodes.length; n++) goes[n] = stops[kindCodes[n]!] === 0 && contents[n]! > 0 ? 1 : 0;
   ancestry.scratch.goes.set(key, goes);
   return goes;
 }

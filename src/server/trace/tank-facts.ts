@@ -71,7 +71,7 @@ function judge(tanks: TankLot[], ancestry: Ancestry): Map<number, Worked<Categor
       // What they rest on: the tank and every lot its walks reached (the walk to its koji stops
       // sooner than the walk to its polished rice, so the longer one reaches them all), and the
       // harvest lots in it.
-      const on = fractionsUp(ancestry, tank.id, POLISHED).places.map((n) => ancestry.ids[n]!);
+      const on = Array.from(fractionsUp(ancestry, tank.id, POLISHED).places, (n) => ancestry.ids[n]!);
       for (const source of sources.get(tank.id) ?? []) on.push(source.id);
       return [tank.id, { value: Object.freeze(facts), on }];
     }),
