@@ -1,5 +1,6 @@
-import { getFormatter, getLocale, getTranslations } from "next-intl/server";
+import { getFormatter, getLocale, getTimeZone, getTranslations } from "next-intl/server";
 import { originStatementIn } from "@/domain/origin";
+import { daysShown } from "@/i18n/dates";
 import type { Provenance } from "@/server/trace/provenance";
 
 type Show = Partial<Record<"varieties" | "origin" | "growers" | "polishingRatio" | "categories" | "dates" | "koji", boolean>>;
@@ -17,6 +18,11 @@ export async function ProvenanceCard({ p, show = {}, caution = false }: { p: Pro
   const on = (k: keyof Show) => show[k] !== false;
   const pct = (v: number) => format.number(v, { style: "percent", maximumFractionDigits: 1 });
   const date = (iso: string) => format.dateTime(new Date(iso), "day");
+  const timeZone = await getTimeZone();
+  const days = (isos: string[]) => {
+    const shown = daysShown(isos, timeZone);
+    return "days" in shown ? shown.days.map(date).join(", ") : t("daysBetween", { first: date(shown.first), last: date(shown.last), count: shown.count });
+  };
   const row = (label: string, value: React.ReactNode, testId: string) => (
     <div className="grid gap-1 border-t border-paper-deep py-3 sm:grid-cols-[12rem_1fr]" data-testid={testId}>
       <dt className="font-semibold text-ink-soft">{label}</dt>
@@ -42,9 +48,9 @@ export async function ProvenanceCard({ p, show = {}, caution = false }: { p: Pro
       {on("polishingRatio") && p.polishingRatiosPct.length ? row(t("polishingRatio"), p.polishingRatiosPct.map((r) => `${format.number(r, { maximumFractionDigits: 1 })} %`).join(", "), "prov-ratio") : null}
       {on("koji") && p.kojiRatioPct !== null ? row(t("kojiRatio"), `${format.number(p.kojiRatioPct, { maximumFractionDigits: 1 })} %`, "prov-koji") : null}
       {on("categories") && p.lot.kind !== "harvest" ? row(t("categories"), <>{p.categories.length ? p.categories.join(", ") : t("noCategory")}{caution ? <><br /><span className="text-sm text-ink-soft" data-testid="labelling-caution">{tc("labelling")}</span></> : null}</>, "prov-categories") : null}
-      {on("dates") && p.brewedOn.length ? row(t("brewedOn"), p.brewedOn.map(date).join(", "), "prov-brewed") : null}
-      {on("dates") && p.pressedOn.length ? row(t("pressedOn"), p.pressedOn.map(date).join(", "), "prov-pressed") : null}
-      {on("dates") && p.bottledOn.length ? row(t("bottledOn"), p.bottledOn.map(date).join(", "), "prov-bottled") : null}
+      {on("dates") && p.brewedOn.length ? row(t("brewedOn"), days(p.brewedOn), "prov-brewed") : null}
+      {on("dates") && p.pressedOn.length ? row(t("pressedOn"), days(p.pressedOn), "prov-pressed") : null}
+      {on("dates") && p.bottledOn.length ? row(t("bottledOn"), days(p.bottledOn), "prov-bottled") : null}
     </dl>
   );
 }

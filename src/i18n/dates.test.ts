@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { dayIn, formatDay, formatDayTime, hourOfDayIn, isTimeZone, nextDay, startOfDayIn } from "./dates";
+import { dayIn, daysShown, formatDay, formatDayTime, hourOfDayIn, isTimeZone, nextDay, startOfDayIn } from "./dates";
 
 // Offsets from the IANA tz database: Asia/Tokyo is UTC+9 with no DST; Europe/London is UTC+0
 // in winter and UTC+1 (BST) from the last Sunday of March to the last Sunday of October
@@ -41,6 +41,24 @@ describe("dates in the brewery's time zone", () => {
     expect(isTimeZone("Asia/Osaka")).toBe(false);
     expect(isTimeZone("JST")).toBe(false);
     expect(isTimeZone("")).toBe(false);
+  });
+});
+
+describe("key dates shown as days", () => {
+  it("lists each day once, on the zone's clock, in order: two instants of 3 October in Tokyo are one day", () => {
+    // 2026-10-02T22:30Z and 2026-10-03T08:00Z are both 3 October in Tokyo (UTC+9), two days in London.
+    const isos = ["2026-10-03T08:00:00.000Z", "2026-10-02T22:30:00.000Z", "2026-10-05T01:00:00.000Z"];
+    expect(daysShown(isos, "Asia/Tokyo")).toEqual({ days: ["2026-10-02T22:30:00.000Z", "2026-10-05T01:00:00.000Z"] });
+    expect(daysShown(isos, "Europe/London")).toEqual({ days: ["2026-10-02T22:30:00.000Z", "2026-10-03T08:00:00.000Z", "2026-10-05T01:00:00.000Z"] });
+  });
+
+  it("past eight days, the first and last day and how many days", () => {
+    // One addition a day at 09:00 Tokyo time from 1 to 12 October, and a second on 1 October.
+    const isos = Array.from({ length: 12 }, (_, n) => new Date(Date.UTC(2026, 9, n + 1, 0)).toISOString());
+    isos.push("2026-10-01T05:00:00.000Z");
+    expect(daysShown(isos, "Asia/Tokyo")).toEqual({ first: "2026-10-01T00:00:00.000Z", last: "2026-10-12T00:00:00.000Z", count: 12 });
+    expect(daysShown(isos.slice(0, 8), "Asia/Tokyo")).toEqual({ days: isos.slice(0, 8) });
+    expect(daysShown([], "Asia/Tokyo")).toEqual({ days: [] });
   });
 });
 

@@ -64,6 +64,26 @@ export function dayIn(at: Date, timeZone: string): string {
   return `${get("year")}-${get("month")}-${get("day")}`;
 }
 
+/** At most this many days are listed; more read as the first and last day and how many. */
+export const DAYS_LISTED = 8;
+
+/**
+ * Instants as the days to show, each day (on the zone's clock) once, by the first instant of it:
+ * all of them while there are at most `most`, otherwise the first and last and how many days.
+ * A house blend brewed in 530 tanks over ten seasons has 530 days of first additions behind it:
+ * listed, they made the bottle's page 80 kB, took 13 ms to write, and ran off the A4 sheet.
+ */
+export function daysShown(isos: string[], timeZone: string, most = DAYS_LISTED): { days: string[] } | { first: string; last: string; count: number } {
+  // ISO instants sort as time does; a day's instants then come together.
+  const days: string[] = [];
+  let last = "";
+  for (const iso of [...isos].sort()) {
+    const day = dayFormatter(timeZone).format(new Date(iso));
+    if (day !== last) days.push(iso), (last = day);
+  }
+  return days.length <= most ? { days } : { first: days[0]!, last: days.at(-1)!, count: days.length };
+}
+
 /**
  * An hour of a calendar day on a zone's clock, as an ISO instant: a day typed on a form
  * (a receipt's date) recorded at a time that stays on that day wherever the brewery is.

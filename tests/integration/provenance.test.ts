@@ -1,6 +1,9 @@
 import { describe, expect, it } from "vitest";
 import { GET as sheetRoute } from "../../app/api/provenance/[code]/sheet.pdf/route";
 import { getSqlite } from "@/server/platform/db";
+import { translator } from "@/i18n/messages";
+import type { Translate } from "@/lib/validation/field-errors";
+import { provenanceSheetPdf } from "@/server/trace/provenance-sheet";
 import { provenanceFor, publicProvenance } from "@/server/trace/provenance";
 import { call, jsonRequest, signInAs } from "../support/api";
 import { readPdfText } from "../support/pdf-read";
@@ -63,5 +66,19 @@ describe("provenance answer", () => {
     expect(text).toMatch(/Koji rice \d+(\.\d)? % of the rice \(dry basis\)/);
     expect(text).not.toContain("NaN");
     expect(text).toContain("Recall and labelling decisions follow");
+  });
+
+  it("a house blend's hundreds of brew days read as the first and last and how many, in both languages", async () => {
+    const bottled = code("select code from lots where kind = 'bottled' and json_extract(attributes, '$.gtin') = '9506000134376'");
+    // Twelve tanks begun at 09:00 Tokyo time (00:00 UTC) on 1–12 October, one more on 1 October.
+    const brewedOn = Array.from({ length: 12 }, (_, n) => new Date(Date.UTC(2026, 9, n + 1)).toISOString());
+    const p = { ...provenanceFor(sales, bottled), brewedOn: [...brewedOn, "2026-10-01T05:00:00.000Z"] };
+    const sheet = async (locale: "en" | "ja") => {
+      const t = translator(locale);
+      const pdf = await provenanceSheetPdf(p, "Kirinoha", { t: ((key, values) => t(key as never, values as never)) as Translate, locale, timeZone: "Asia/Tokyo" });
+      return (await readPdfText(pdf)).split("\n").join(" ");
+    };
+    expect(await sheet("en")).toContain("Brewed 12 days, Oct 1, 2026 to Oct 12, 2026");
+    expect((await sheet("ja")).replace(/\s+/g, "")).toContain("仕込日2026/10/01〜2026/10/12の12日");
   });
 });

@@ -1,7 +1,7 @@
 import "server-only";
 import { PDFDocument, rgb } from "pdf-lib";
 import { originStatementIn } from "@/domain/origin";
-import { formatDay } from "@/i18n/dates";
+import { daysShown, formatDay } from "@/i18n/dates";
 import { embedDocumentFonts } from "../platform/pdf-fonts";
 import { wrapText } from "../platform/pdf-text";
 import type { Provenance } from "./provenance";
@@ -17,7 +17,11 @@ export async function provenanceSheetPdf(p: Provenance, brewery: string, { t, lo
   const list = locale === "ja" ? "、" : ", ";
   const share = (name: string, value: number) => t("provenance.share", { name, share: Math.round(value * 1000) / 10 });
   const percent = (value: number) => t("provenance.percent", { value });
-  const days = (isos: string[]) => isos.map((d) => formatDay(d, locale, timeZone)).join(list);
+  const day = (iso: string) => formatDay(iso, locale, timeZone);
+  const days = (isos: string[]) => {
+    const shown = daysShown(isos, timeZone);
+    return "days" in shown ? shown.days.map(day).join(list) : t("provenance.daysBetween", { first: day(shown.first), last: day(shown.last), count: shown.count });
+  };
   const pdf = await PDFDocument.create();
   pdf.setTitle(title);
   pdf.setCreator("Grainline");
