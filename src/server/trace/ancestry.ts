@@ -337,17 +337,17 @@ export function ancestryOf(lotId: number): Ancestry {
 }
 
 type Details = { code: string; attributes: string | null; polishingRatioPct: number | null };
-/** Codes, tank attributes and ratios are fixed when a lot is made: once read, kept (they rest on no other lot). */
+/** Codes, tank attributes and ratios are fixed when a lot is made: once read, kept. */
 const detailsKept = new KeptByLot<Details>(100_000);
 
 function withDetails(lineage: Lineage, mark: LedgerMark | null): Ancestry {
-  const details = detailsKept.of(lineage.described, mark, (ids) =>
+  const details = detailsKept.fixedOf(lineage.described, (ids) =>
     new Map(
       getDb()
         .all<{ id: number } & Details>(sql`
           select id, code, case when kind = 'tank' then attributes end as attributes, polishing_ratio_pct as polishingRatioPct
           from lots where id in (select value from json_each(${JSON.stringify(ids)}))`)
-        .map(({ id, ...d }) => [id, { value: d, on: [] }]),
+        .map(({ id, ...d }) => [id, d]),
     ),
   );
   return { ...lineage, details, mark };

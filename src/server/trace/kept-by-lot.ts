@@ -76,6 +76,8 @@ export class KeptByLot<T> {
    */
   private onLot = new Map<number, number[]>();
   private references = 0;
+  /** The database the figures come from: another (a test's own file) and none of them holds. */
+  private sqlite: ReturnType<typeof getSqlite> | undefined;
 
   /** `most`: past this many figures, all are dropped and kept afresh. */
   constructor(private readonly most: number) {
@@ -86,6 +88,42 @@ export class KeptByLot<T> {
     this.byId = new Map();
     this.onLot = new Map();
     this.references = 0;
+  }
+
+  /** Whether figures may be kept now: not inside a caller's transaction (it may yet be rolled back). */
+  private keeping(): boolean {
+    const sqlite = getSqlite();
+    if (sqlite.inTransaction) return false;
+    if (this.sqlite !== sqlite) this.clear(), (this.sqlite = sqlite);
+    if (this.byId.size > this.most || this.references > this.most * 100) this.clear();
+    return true;
+  }
+
+  private keep(missing: number[], work: (missing: number[]) => Map<number, Worked<T>>) {
+    if (!missing.length) return;
+    for (const [id, worked] of work(missing)) {
+      this.byId.set(id, worked);
+      for (const lot of worked.on) {
+        const ids = this.onLot.get(lot);
+        if (ids) ids.push(id);
+        else this.onLot.set(lot, [id]);
+      }
+      this.references += worked.on.length;
+    }
+  }
+
+  /**
+   * Figures that rest on no lot but the one they are of, and on nothing of it that ever changes
+   * (what a lot is, fixed when it is made): kept once read, with no mark to check.
+   */
+  fixedOf(ids: number[], work: (missing: number[]) => Map<number, T>): Map<number, T> {
+    const asWorked = (missing: number[]) => new Map([...work(missing)].map(([id, value]) => [id, { value, on: [] }]));
+    if (!this.keeping()) return work(ids);
+    this.keep(
+      ids.filter((id) => !this.byId.has(id)),
+      asWorked,
+    );
+    return new Map(ids.map((id) => [id, this.byId.get(id)!.value]));
   }
 
   dropOn(lots: number[]) {
@@ -101,20 +139,11 @@ export class KeptByLot<T> {
    * may yet be rolled back) all come from `work` and nothing is kept.
    */
   of(ids: number[], mark: LedgerMark | null, work: (missing: number[]) => Map<number, Worked<T>>): Map<number, T> {
-    if (!mark || getSqlite().inTransaction || !sweepTo(mark)) return new Map([...work(ids)].map(([id, w]) => [id, w.value]));
-    if (this.byId.size > this.most || this.references > this.most * 100) this.clear();
-    const missing = ids.filter((id) => !this.byId.has(id));
-    if (missing.length) {
-      for (const [id, worked] of work(missing)) {
-        this.byId.set(id, worked);
-        for (const lot of worked.on) {
-          const ids = this.onLot.get(lot);
-          if (ids) ids.push(id);
-          else this.onLot.set(lot, [id]);
-        }
-        this.references += worked.on.length;
-      }
-    }
+    if (!mark || !this.keeping() || !sweepTo(mark)) return new Map([...work(ids)].map(([id, w]) => [id, w.value]));
+    this.keep(
+      ids.filter((id) => !this.byId.has(id)),
+      work,
+    );
     return new Map(ids.map((id) => [id, this.byId.get(id)!.value]));
   }
 }

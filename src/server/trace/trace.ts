@@ -3,6 +3,7 @@ import { sql } from "drizzle-orm";
 import { getDb } from "../platform/db";
 import { notFound } from "../platform/errors";
 import { findLotId } from "../ledger/lots";
+import { KeptByLot } from "./kept-by-lot";
 import type { SessionUser } from "../accounts/session";
 
 export type TraceSource = {
@@ -29,23 +30,42 @@ function head(actor: SessionUser, code: string): LotHead {
  */
 export function sourcesOf(lotId: number, contentIn: number): TraceSource[] {
   if (contentIn <= 0) return [];
-  const rows = getDb().all<{ code: string; amount: number; variety: string | null; cropYear: number | null; grade: string | null; growerId: string; growerName: string; fieldId: string | null; fieldName: string | null; region: string | null }>(sql`
-    select s.code, d.amount, s.variety, s.crop_year as cropYear, s.grade, g.id as growerId, g.name as growerName, f.id as fieldId, f.name as fieldName, f.region
-    from (select source_lot_id, sum(amount) as amount from lot_source_deltas where lot_id = ${lotId} group by source_lot_id) d
-    join lots s on s.id = d.source_lot_id
-    join parties g on g.id = s.origin_party_id
-    left join fields f on f.id = s.field_id
-    where abs(d.amount) > 1e-9
-    order by d.amount desc, s.code`);
-  return rows.map((r) => ({
-    code: r.code,
-    share: r.amount / contentIn,
-    variety: r.variety,
-    cropYear: r.cropYear,
-    grade: r.grade,
-    grower: { id: r.growerId, name: r.growerName },
-    field: r.fieldId ? { id: r.fieldId, name: r.fieldName!, region: r.region! } : null,
-  }));
+  const amounts = getDb()
+    .all<{ source: number; amount: number }>(sql`select source_lot_id as source, sum(amount) as amount from lot_source_deltas where lot_id = ${lotId} group by source_lot_id`)
+    .filter((a) => Math.abs(a.amount) > 1e-9);
+  const lots = harvestLots.fixedOf(
+    amounts.map((a) => a.source),
+    readHarvestLots,
+  );
+  // Growers' and fields' names are the office's to change: read every time (a few dozen rows each).
+  const growers = new Map(getDb().all<{ id: string; name: string }>(sql`select id, name from parties`).map((p) => [p.id, p.name]));
+  const fields = new Map(getDb().all<{ id: string; name: string; region: string }>(sql`select id, name, region from fields`).map((f) => [f.id, f]));
+  const rows = amounts.map((a) => ({ amount: a.amount, lot: lots.get(a.source)! }));
+  // Largest share first, then by code (as SQLite's binary collation orders them).
+  rows.sort((x, y) => y.amount - x.amount || (x.lot.code < y.lot.code ? -1 : x.lot.code > y.lot.code ? 1 : 0));
+  return rows.map(({ amount, lot }) => {
+    const field = lot.fieldId ? fields.get(lot.fieldId) : undefined;
+    return {
+      code: lot.code,
+      share: amount / contentIn,
+      variety: lot.variety,
+      cropYear: lot.cropYear,
+      grade: lot.grade,
+      grower: { id: lot.growerId, name: growers.get(lot.growerId)! },
+      field: field ? { id: field.id, name: field.name, region: field.region } : null,
+    };
+  });
+}
+
+/** What a harvest lot is, fixed when it is registered: its code, variety, crop year, grade, grower and field. */
+type HarvestLot = { code: string; variety: string | null; cropYear: number | null; grade: string | null; growerId: string; fieldId: string | null };
+const harvestLots = new KeptByLot<HarvestLot>(200_000);
+
+function readHarvestLots(ids: number[]): Map<number, HarvestLot> {
+  const rows = getDb().all<{ id: number } & HarvestLot>(sql`
+    select id, code, variety, crop_year as cropYear, grade, origin_party_id as growerId, field_id as fieldId
+    from lots where id in (select value from json_each(${JSON.stringify(ids)}))`);
+  return new Map(rows.map(({ id, ...lot }) => [id, lot]));
 }
 
 export function traceBackward(actor: SessionUser, code: string) {
