@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { getSqlite } from "@/server/platform/db";
-import { ancestryOf, ancestryReadAnew, lotsOfKindUp, type Ancestry } from "@/server/trace/ancestry";
+import { ancestryOf, ancestryReadAnew, fractionsUp, lotsOfKindUp, type Ancestry } from "@/server/trace/ancestry";
 import { claimedCategories } from "@/server/trace/claims";
 import { provenanceOf } from "@/server/trace/provenance";
 import { tankFactsJudgedAnew, tankFactsOf } from "@/server/trace/tank-facts";
@@ -94,6 +94,9 @@ function alcoholReading(tank: Lot, next: () => number): number {
   return event;
 }
 
+/** The ids of the lots a walk from `start` up to its polished rice reached. */
+const fractionsUpIds = (a: Ancestry, start: number) => Array.from(fractionsUp(a, start, ["polished"]).places, (n) => a.ids[n]!);
+
 /** The provenance answer and the tanks' facts of a head, from what is kept or worked out anew with nothing kept. */
 function answers(head: Lot, ancestry: Ancestry, anew: boolean) {
   const row = db().prepare("select id, code, kind, content_in as contentIn from lots where id = ?").get(head.id) as { id: number; code: string; kind: string; contentIn: number };
@@ -120,6 +123,27 @@ beforeAll(() => {
 });
 
 describe("figures kept across lineages", () => {
+  // First, on the ledger as seeded: the random events below change it past reading by hand.
+  it("drops a tank's facts when rice is added to a lot behind it, though no row names the tank", () => {
+    const head = made.filter((l) => l.layer === 8)[2]!;
+    const ancestry = ancestryOf(head.id);
+    const tanks = lotsOfKindUp(ancestry, head.id, "tank");
+    // A steamed lot that a tank behind the head drew from, with content to pass on.
+    const tank = tanks.find((t) => fractionsUpIds(ancestry, t.id).some((id) => made.find((l) => l.id === id)?.layer === 3 && contentOf({ id, layer: 3 }) > 0))!;
+    const steamed = fractionsUpIds(ancestry, tank.id).find((id) => made.find((l) => l.id === id)?.layer === 3 && contentOf({ id, layer: 3 }) > 0)!;
+    const before = tankFactsOf(tanks, ancestry).get(tank.id)!;
+    // Koji mixed into that steamed rice: an edge into it and its content grown, by one event.
+    const event = recordEvent("steaming");
+    link(event, made.find((l) => l.layer === 2)!, { id: steamed, layer: 3 }, 150);
+    output(event, { id: steamed, layer: 3 }, 150);
+    db().prepare("update lots set content_in = content_in + 150 where id = ?").run(steamed);
+    const now = ancestryOf(head.id);
+    const after = tankFactsOf(lotsOfKindUp(now, head.id, "tank"), now).get(tank.id)!;
+    const anew = { ...ancestryReadAnew(head.id), mark: null };
+    expect(after.kojiRatioPct, "more of the tank's rice passed through koji").toBeGreaterThan(before.kojiRatioPct!);
+    expect(after).toEqual(tankFactsJudgedAnew(lotsOfKindUp(anew, head.id, "tank"), anew).get(tank.id));
+  });
+
   it("are what working them out anew gives after each of 200 random events, and most are kept", () => {
     const next = random(11);
     const heads = [...made.filter((l) => l.layer === 8), made.filter((l) => l.layer === 7)[0]!];

@@ -71,8 +71,11 @@ function judge(tanks: TankLot[], ancestry: Ancestry): Map<number, Worked<Categor
       // What they rest on: the tank and every lot its walks reached (the walk to its koji stops
       // sooner than the walk to its polished rice, so the longer one reaches them all), and the
       // harvest lots in it.
-      const on = Array.from(fractionsUp(ancestry, tank.id, POLISHED).places, (n) => ancestry.ids[n]!);
-      for (const source of sources.get(tank.id) ?? []) on.push(source.id);
+      const { places } = fractionsUp(ancestry, tank.id, POLISHED);
+      const harvests = sources.get(tank.id) ?? [];
+      const on = new Int32Array(places.length + harvests.length);
+      for (let i = 0; i < places.length; i++) on[i] = ancestry.ids[places[i]!]!;
+      harvests.forEach((source, i) => (on[places.length + i] = source.id));
       return [tank.id, { value: Object.freeze(facts), on }];
     }),
   );
