@@ -338,7 +338,7 @@ export function ancestryOf(lotId: number): Ancestry {
 
 type Details = { code: string; attributes: string | null; polishingRatioPct: number | null };
 /** Codes, tank attributes and ratios are fixed when a lot is made: once read, kept. */
-const detailsKept = new KeptByLot<Details>(100_000);
+const detailsKept = new KeptByLot<Details>("lot details", 100_000);
 
 function withDetails(lineage: Lineage, mark: LedgerMark | null): Ancestry {
   const details = detailsKept.fixedOf(lineage.described, (ids) =>

@@ -63,6 +63,11 @@ function sweepTo(mark: LedgerMark): boolean {
   return true;
 }
 
+/** How many figures each store keeps, by name: what the warm-up's test counts. */
+export function keptCounts(): Record<string, number> {
+  return Object.fromEntries(stores.map((store) => [store.name, store.size]));
+}
+
 /** Drops every figure kept, as a restart would: the provenance bench times a first view with nothing kept. */
 export function forgetKept() {
   swept = undefined;
@@ -75,8 +80,15 @@ export class KeptByLot<T> {
   private sqlite: ReturnType<typeof getSqlite> | undefined;
 
   /** `most`: past this many figures, all are dropped and kept afresh. */
-  constructor(private readonly most: number) {
+  constructor(
+    readonly name: string,
+    private readonly most: number,
+  ) {
     stores.push(this as KeptByLot<unknown>);
+  }
+
+  get size() {
+    return this.byId.size;
   }
 
   clear() {

@@ -82,7 +82,7 @@ function judge(tanks: TankLot[], ancestry: Ancestry): Map<number, Worked<Categor
 }
 
 /** Facts judged, kept across lineages (a house blend's bottlings share their tanks); see KeptByLot for what they rest on. */
-const kept = new KeptByLot<CategoryFacts>(20_000);
+const kept = new KeptByLot<CategoryFacts>("tank facts", 20_000);
 
 /**
  * The category facts of each tank: those kept where nothing they rest on changed since, the

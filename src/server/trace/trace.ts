@@ -59,7 +59,7 @@ export function sourcesOf(lotId: number, contentIn: number): TraceSource[] {
 
 /** What a harvest lot is, fixed when it is registered: its code, variety, crop year, grade, grower and field. */
 type HarvestLot = { code: string; variety: string | null; cropYear: number | null; grade: string | null; growerId: string; fieldId: string | null };
-const harvestLots = new KeptByLot<HarvestLot>(200_000);
+const harvestLots = new KeptByLot<HarvestLot>("harvest lots", 200_000);
 
 function readHarvestLots(ids: number[]): Map<number, HarvestLot> {
   const rows = getDb().all<{ id: number } & HarvestLot>(sql`
