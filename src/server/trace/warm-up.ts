@@ -14,6 +14,8 @@ import { tankFactsOf } from "./tank-facts";
  * provenance answer (in the app's own copy of these modules, whose figures the pages read), it runs
  * in slices of at most SLICE_MS between requests, and stops when the database is another (a
  * test's own file), on an error (logged; what is kept stays right), or with GRAINLINE_WARM=0.
+ * Its slices hold the process open until it is done (a second or two on the bench's ledger): an
+ * unref'd slice waits for the next event of an idle server, and the warm-up took minutes.
  */
 const SLICE_MS = 4;
 const DATES_AT_ONCE = 200;
@@ -41,13 +43,13 @@ export function warmInBackground(): Promise<void> {
             keepDatesOf(dated.slice(date, (date += DATES_AT_ONCE)), ledgerMark());
           } else return done();
         }
-        setImmediate(slice).unref();
+        setImmediate(slice);
       } catch (error) {
         console.error("warming the trace figures stopped:", error);
         done();
       }
     };
-    setImmediate(slice).unref();
+    setImmediate(slice);
   });
   return started;
 }
