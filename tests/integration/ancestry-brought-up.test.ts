@@ -1,6 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { getSqlite } from "@/server/platform/db";
 import { ancestryOf, ancestryReadAnew, fractionsUp, lotOf, type Ancestry, type Walk } from "@/server/trace/ancestry";
+import { pick, seededRandom } from "../support/seeded-random";
 
 // Lineages are read from an index of every edge in memory, loaded once and kept current from what
 // the ledger records; a kept lineage is brought up to date from what was recorded since it was
@@ -13,16 +14,6 @@ import { ancestryOf, ancestryReadAnew, fractionsUp, lotOf, type Ancestry, type W
 
 const LAYERS = ["harvest", "polished", "koji", "steamed", "tank", "sake", "blend", "blend", "bottled"] as const;
 const STOPS = [["tank"], ["polished"], ["koji", "polished"], []] as const;
-
-/** Mulberry32, a small seeded generator (public domain): the same ledger and events on every run. */
-function random(seed: number) {
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 type Lot = { id: number; layer: number };
 const made: Lot[] = [];
@@ -111,12 +102,11 @@ function expectSameAsReadAnew(head: Lot, context: string) {
   return kept;
 }
 
-const pick = <T,>(next: () => number, from: T[]) => from[Math.floor(next() * from.length)]!;
 
 beforeAll(() => {
   party = (db().prepare("select id from parties where kind = 'brewery' limit 1").get() as { id: string }).id;
   user = (db().prepare("select id from users limit 1").get() as { id: string }).id;
-  const next = random(20261203);
+  const next = seededRandom(20261203);
   const event = recordEvent("blending");
   const perLayer = [8, 8, 5, 4, 6, 6, 5, 3, 4];
   perLayer.forEach((count, layer) => {
@@ -145,7 +135,7 @@ describe("a kept lineage brought up to date", () => {
   });
 
   it("gives what a read anew gives after each of 160 random events, most of them brought up rather than read anew", () => {
-    const next = random(7);
+    const next = seededRandom(7);
     const heads = [...made.filter((l) => l.layer === 8), made.filter((l) => l.layer === 7)[0]!, made.filter((l) => l.layer === 4)[0]!];
     const last = new Map(heads.map((head) => [head.id, expectSameAsReadAnew(head, "first read").first]));
     const counts = { changed: 0, broughtUp: 0 };

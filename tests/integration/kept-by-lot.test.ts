@@ -4,6 +4,7 @@ import { ancestryOf, ancestryReadAnew, fractionsUp, lotsOfKindUp, type Ancestry 
 import { claimedCategories } from "@/server/trace/claims";
 import { provenanceOf } from "@/server/trace/provenance";
 import { tankFactsJudgedAnew, tankFactsOf } from "@/server/trace/tank-facts";
+import { pick, seededRandom } from "../support/seeded-random";
 
 // A tank's category facts, a lot's key dates and a lot's fixed details are kept across requests
 // and lineages, each dropped when a row recorded since names a lot it rests on. Whatever is
@@ -18,16 +19,6 @@ import { tankFactsJudgedAnew, tankFactsOf } from "@/server/trace/tank-facts";
 const LAYERS = ["harvest", "polished", "koji", "steamed", "tank", "sake", "blend", "blend", "bottled"] as const;
 const GRADES = ["1", "2", "3", "equivalent", "equivalent", null] as const;
 
-/** Mulberry32, a small seeded generator (public domain): the same ledger and events on every run. */
-function random(seed: number) {
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
 type Lot = { id: number; layer: number };
 const made: Lot[] = [];
 /** Mash additions not yet corrected: correcting a tank's first moves its brewing date. */
@@ -36,7 +27,6 @@ let party = "";
 let user = "";
 let clock = Date.UTC(2026, 9, 1);
 const db = () => getSqlite();
-const pick = <T,>(next: () => number, from: T[]) => from[Math.floor(next() * from.length)]!;
 
 function recordEvent(step: string, corrects: number | null = null): number {
   clock += 3_600_000;
@@ -108,7 +98,7 @@ function answers(head: Lot, ancestry: Ancestry, anew: boolean) {
 beforeAll(() => {
   party = (db().prepare("select id from parties where kind = 'brewery' limit 1").get() as { id: string }).id;
   user = (db().prepare("select id from users limit 1").get() as { id: string }).id;
-  const next = random(20261204);
+  const next = seededRandom(20261204);
   const event = recordEvent("blending");
   [8, 8, 5, 4, 6, 6, 5, 3, 4].forEach((count, layer) => {
     for (let i = 0; i < count; i++) {
@@ -145,7 +135,7 @@ describe("figures kept across lineages", () => {
   });
 
   it("are what working them out anew gives after each of 200 random events, and most are kept", () => {
-    const next = random(11);
+    const next = seededRandom(11);
     const heads = [...made.filter((l) => l.layer === 8), made.filter((l) => l.layer === 7)[0]!];
     const readings: number[] = [];
     const seen = new Map<number, object>();
