@@ -199,7 +199,7 @@ describe("the walk of distinct lots behind a lot", () => {
   });
 
   it("checks what was touched since a lineage was read by the rows after the mark alone, never a scan of the tables", () => {
-    const query = new SQLiteSyncDialect().sqlToQuery(touchedSince({ event: 1, edge: 1 }));
+    const query = new SQLiteSyncDialect().sqlToQuery(touchedSince({ event: 1, edge: 1, attachment: 1 }));
     const plan = (getSqlite().prepare(`explain query plan ${query.sql}`).all(...query.params) as { detail: string }[]).map((r) => r.detail);
     expect(plan.filter((d) => /^SCAN (event_outputs|event_inputs|lineage_edges)\b/.test(d)), plan.join(" | ")).toEqual([]);
     expect(plan.some((d) => d.includes("event_outputs_event_idx"))).toBe(true);

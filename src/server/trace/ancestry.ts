@@ -2,7 +2,7 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import { getDb, getSqlite } from "../platform/db";
 import { KeptByLot } from "./kept-by-lot";
-import { CHECK_AT_MOST, codeOf, contentOf, edgeIndexAt, edgesOf, kindNamed, kindOf, ledgerMark, touchedSince, type EdgeIndex, type LedgerMark } from "./edge-index";
+import { CHECK_AT_MOST, codeOf, contentOf, edgeIndexAt, edgesOf, grown, kindNamed, kindOf, ledgerMark, touchedSince, type EdgeIndex, type LedgerMark } from "./edge-index";
 
 /** A lot behind another; code, attributes and polishing ratio are read for tanks and polished lots only. */
 export type AncestorLot = { id: number; code: string; kind: string; contentIn: number; attributes: string | null; polishingRatioPct: number | null };
@@ -103,12 +103,6 @@ class Found {
   placeOf(id: number) {
     return id < this.at.length ? this.at[id]! - 1 : -1;
   }
-}
-
-function grown<A extends Int32Array | Uint8Array | Float64Array>(array: A, length: number): A {
-  const bigger = new (array.constructor as new (length: number) => A)(length);
-  bigger.set(array);
-  return bigger;
 }
 
 /** Lots with no content, and harvest lots, pass nothing on: their edges are not read. */

@@ -30,7 +30,11 @@ export type EdgeIndex = {
   patchedEdges: number;
 };
 
-export type LedgerMark = { event: number; edge: number };
+/**
+ * How far the ledger has come: its last event, edge and attachment. Lineages look at the first two
+ * only (an attachment moves no rice); the figures kept across requests look at all three.
+ */
+export type LedgerMark = { event: number; edge: number; attachment: number };
 
 /** Kinds by code, and codes by kind; code 0 is "no such lot". */
 const kindNames: string[] = [""];
@@ -46,8 +50,10 @@ const PATCHED_AT_MOST = 100_000;
 let index: EdgeIndex | undefined;
 
 export function ledgerMark(): LedgerMark {
-  const row = getDb().get<{ e: number | null; l: number | null }>(sql`select (select max(id) from events) as e, (select max(id) from lineage_edges) as l`);
-  return { event: row?.e ?? 0, edge: row?.l ?? 0 };
+  const row = getDb().get<{ e: number | null; l: number | null; a: number | null }>(
+    sql`select (select max(id) from events) as e, (select max(id) from lineage_edges) as l, (select max(id) from attachments) as a`,
+  );
+  return { event: row?.e ?? 0, edge: row?.l ?? 0, attachment: row?.a ?? 0 };
 }
 
 /**
@@ -93,21 +99,23 @@ function load(now: LedgerMark): EdgeIndex {
   };
 }
 
+/** A typed array copied into a longer one of the same kind. */
+export function grown<A extends Int32Array | Uint8Array | Float64Array>(array: A, length: number): A {
+  const bigger = new (array.constructor as new (length: number) => A)(length);
+  bigger.set(array);
+  return bigger;
+}
+
 /** The lots added since the index last looked, with their kinds and contents. */
 function addLots(at: EdgeIndex) {
   const added = getDb().all<{ id: number; kind: string; contentIn: number }>(sql`select id, kind, content_in as contentIn from lots where id >= ${at.size}`);
   if (!added.length) return;
   const size = added.reduce((a, l) => Math.max(a, l.id + 1), at.size);
-  const grow = <T extends Uint8Array | Float64Array | Int32Array>(a: T, length: number): T => {
-    const b = new (a.constructor as new (n: number) => T)(length);
-    b.set(a);
-    return b;
-  };
   const room = Math.max(size, Math.ceil(at.size * 1.25));
-  if (room > at.kind.length) (at.kind = grow(at.kind, room)), (at.content = grow(at.content, room));
+  if (room > at.kind.length) (at.kind = grown(at.kind, room)), (at.content = grown(at.content, room));
   // The edges loaded end where they ended: the new lots have none there.
   if (room + 1 > at.first.length) {
-    const first = grow(at.first, room + 1);
+    const first = grown(at.first, room + 1);
     first.fill(at.first[at.first.length - 1]!, at.first.length);
     at.first = first;
   }

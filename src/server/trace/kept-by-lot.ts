@@ -15,15 +15,12 @@ import { CHECK_AT_MOST, touchedSince, type LedgerMark } from "./edge-index";
  * readings (correcting a reading writes no input or output), a new edge's child, an attachment.
  */
 export type Worked<T> = { value: T; on: ArrayLike<number> };
-type Mark = LedgerMark & { attachment: number };
 
 const stores: KeptByLot<unknown>[] = [];
-let swept: { sqlite: ReturnType<typeof getSqlite>; mark: Mark } | undefined;
-
-const lastAttachment = () => getDb().get<{ a: number | null }>(sql`select max(id) as a from attachments`)?.a ?? 0;
+let swept: { sqlite: ReturnType<typeof getSqlite>; mark: LedgerMark } | undefined;
 
 /** The lots named by a row recorded since `seen`, or null when there are more than are worth checking. */
-function namedSince(seen: Mark): number[] | null {
+function namedSince(seen: LedgerMark): number[] | null {
   const row = getDb().get<{ lots: string; n: number }>(
     touchedSince(
       seen,
@@ -42,16 +39,15 @@ function namedSince(seen: Mark): number[] | null {
  */
 function sweepTo(mark: LedgerMark): boolean {
   const sqlite = getSqlite();
-  const attachment = lastAttachment();
   // Another database (a test's own file): nothing kept from the one before holds there.
   if (swept?.sqlite !== sqlite) {
     for (const store of stores) store.clear();
-    swept = { sqlite, mark: { ...mark, attachment } };
+    swept = { sqlite, mark };
     return true;
   }
   const seen = swept.mark;
-  if (mark.event < seen.event || mark.edge < seen.edge) return false;
-  if (mark.event === seen.event && mark.edge === seen.edge && attachment === seen.attachment) return true;
+  if (mark.event < seen.event || mark.edge < seen.edge || mark.attachment < seen.attachment) return false;
+  if (mark.event === seen.event && mark.edge === seen.edge && mark.attachment === seen.attachment) return true;
   const named = namedSince(seen);
   const marked = new Uint8Array((named ?? []).reduce((a, lot) => Math.max(a, lot + 1), 0));
   for (const lot of named ?? []) marked[lot] = 1;
@@ -59,7 +55,7 @@ function sweepTo(mark: LedgerMark): boolean {
     if (named) store.dropOn(marked);
     else store.clear();
   }
-  swept.mark = { ...mark, attachment };
+  swept.mark = mark;
   return true;
 }
 
@@ -122,9 +118,11 @@ export class KeptByLot<T> {
     return true;
   }
 
-  private keep(missing: number[], work: (missing: number[]) => Map<number, Worked<T>>) {
-    if (!missing.length) return;
-    for (const [id, worked] of work(missing)) this.byId.set(id, worked);
+  /** The figures of `ids`: those kept, and the others from `work`, kept in turn. */
+  private keptOrWorked(ids: number[], work: (missing: number[]) => Map<number, Worked<T>>): Map<number, T> {
+    const missing = ids.filter((id) => !this.byId.has(id));
+    if (missing.length) for (const [id, worked] of work(missing)) this.byId.set(id, worked);
+    return new Map(ids.map((id) => [id, this.byId.get(id)!.value]));
   }
 
   /**
@@ -134,11 +132,7 @@ export class KeptByLot<T> {
   fixedOf(ids: number[], work: (missing: number[]) => Map<number, T>): Map<number, T> {
     const asWorked = (missing: number[]) => new Map([...work(missing)].map(([id, value]) => [id, { value, on: [] }]));
     if (!this.keeping()) return work(ids);
-    this.keep(
-      ids.filter((id) => !this.byId.has(id)),
-      asWorked,
-    );
-    return new Map(ids.map((id) => [id, this.byId.get(id)!.value]));
+    return this.keptOrWorked(ids, asWorked);
   }
 
   /**
@@ -148,10 +142,6 @@ export class KeptByLot<T> {
    */
   of(ids: number[], mark: LedgerMark | null, work: (missing: number[]) => Map<number, Worked<T>>): Map<number, T> {
     if (!mark || !this.keeping() || !sweepTo(mark)) return new Map([...work(ids)].map(([id, w]) => [id, w.value]));
-    this.keep(
-      ids.filter((id) => !this.byId.has(id)),
-      work,
-    );
-    return new Map(ids.map((id) => [id, this.byId.get(id)!.value]));
+    return this.keptOrWorked(ids, work);
   }
 }
